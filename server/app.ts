@@ -1,0 +1,87 @@
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express, { type Express, type RequestHandler } from 'express';
+import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
+import helmet from 'helmet';
+import type { Sequelize } from 'sequelize';
+import { csrf } from './auth/csrf';
+import { configurePassport } from './auth/passport';
+import { createSessionMiddleware } from './auth/session';
+import type { ServerConfig } from './config';
+import { HttpError, errorHandler } from './http/errors';
+import { type RouteSpec, mount } from './http/route';
+import { authRoutes } from './routes/auth';
+import { healthRoutes } from './routes/health';
+import { planRoutes } from './routes/plans';
+import { projectRoutes } from './routes/projects';
+import { sitePlanRoutes } from './routes/site-plans';
+import { userRoutes } from './routes/users';
+
+export interface AppParts {
+  app: Express;
+  /** Every API route with its access rule: the permission-matrix test walks this table. */
+  routes: RouteSpec[];
+  /** Session + passport middleware, for sharing the session with socket.io. */
+  sessionMiddleware: RequestHandler[];
+  close(): void;
+}
+
+function loginLimiter(config: ServerConfig): RequestHandler[] {
+  const message = { error: { code: 'rate_limited', message: 'Too many sign-in attempts; wait a few minutes and try again.' } };
+  const common = { windowMs: config.loginWindowMs, standardHeaders: 'draft-8' as const, legacyHeaders: false, message, statusCode: 429 };
+  return [
+    // Per account and address: slows guessing one password.
+    rateLimit({ ...common, limit: config.loginAttempts, keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').toLowerCase()}` }),
+    // Per address across accounts: slows spraying many accounts.
+    rateLimit({ ...common, limit: config.loginAttempts * 5, keyGenerator: (req) => ipKeyGenerator(req.ip ?? '') }),
+  ];
+}
+
+export function createApp(sequelize: Sequelize, config: ServerConfig, hooks: { onSignOut?: (sid: string) => void } = {}): AppParts {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', config.secureCookies ? 1 : false);
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          connectSrc: ["'self'", 'ws:', 'wss:'],
+          fontSrc: ["'self'", 'data:'],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+          upgradeInsecureRequests: config.secureCookies ? [] : null,
+        },
+      },
+    }),
+  );
+  const session = createSessionMiddleware(sequelize, config);
+  const passport = configurePassport();
+  const sessionMiddleware = [session.middleware, session.absoluteTimeout, passport.initialize(), passport.session()];
+
+  const api = express.Router();
+  api.use('/api', express.json({ limit: '2mb' }), ...sessionMiddleware, csrf.csrfSynchronisedProtection);
+  const routes: RouteSpec[] = [
+    ...healthRoutes(sequelize),
+    ...authRoutes({ passport, loginLimiter: loginLimiter(config), onSignOut: hooks.onSignOut }),
+    ...userRoutes,
+    ...projectRoutes,
+    ...sitePlanRoutes(config.dataDir),
+    ...planRoutes,
+  ];
+  mount(api, routes);
+  api.use('/api', (_req, _res, next) => next(new HttpError(404, 'not_found', 'No such API route.')));
+  api.use(errorHandler);
+  app.use(api);
+
+  if (config.clientDir && existsSync(path.join(config.clientDir, 'index.html'))) {
+    const clientDir = config.clientDir;
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    // Client-side routes all load the single page.
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+  return { app, routes, sessionMiddleware, close: () => session.store.stopExpiringSessions() };
+}

@@ -1,0 +1,28 @@
+import { type QueryInterface, Sequelize } from 'sequelize';
+import { SequelizeStorage, Umzug } from 'umzug';
+import * as initial from './migrations/0001-initial';
+
+export interface Migration {
+  up(qi: QueryInterface, S: typeof Sequelize): Promise<void>;
+  down(qi: QueryInterface, S: typeof Sequelize): Promise<void>;
+}
+
+/** Ordered list of migrations; add new files here. Names are stored in `schema_migrations`. */
+const MIGRATIONS: [string, Migration][] = [['0001-initial', initial]];
+
+export function createMigrator(sequelize: Sequelize) {
+  return new Umzug({
+    migrations: MIGRATIONS.map(([name, m]) => ({
+      name,
+      up: () => m.up(sequelize.getQueryInterface(), Sequelize),
+      down: () => m.down(sequelize.getQueryInterface(), Sequelize),
+    })),
+    storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
+    logger: undefined,
+  });
+}
+
+export async function migrate(sequelize: Sequelize): Promise<string[]> {
+  const done = await createMigrator(sequelize).up();
+  return done.map((m) => m.name);
+}

@@ -1,0 +1,22 @@
+import type { Sequelize } from 'sequelize';
+import { AuditEntry } from '../models/audit-entry';
+import { Organization } from '../models/organization';
+import { Project } from '../models/project';
+import { defineSessionModel } from '../models/session';
+import { TestLocation } from '../models/test-location';
+import { TestPlan } from '../models/test-plan';
+import { User } from '../models/user';
+
+/** Initialises every model on one Sequelize instance, then wires the associations. */
+export function initModels(sequelize: Sequelize) {
+  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry]) model.initModel(sequelize);
+  defineSessionModel(sequelize);
+  Organization.hasMany(User, { foreignKey: 'organizationId' });
+  User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });
+  Organization.hasMany(Project, { foreignKey: 'organizationId' });
+  Project.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });
+  Project.hasMany(TestLocation, { foreignKey: 'projectId', as: 'locations' });
+  TestLocation.belongsTo(Project, { foreignKey: 'projectId', as: 'project' });
+  TestLocation.hasMany(TestPlan, { foreignKey: 'locationId', as: 'plans' });
+  TestPlan.belongsTo(TestLocation, { foreignKey: 'locationId', as: 'location' });
+}

@@ -1,0 +1,86 @@
+import { idParams } from '../../shared/schemas/common';
+import { planInput } from '../../shared/schemas/plans';
+import { checkPlan } from '../../shared/plans/checks';
+import { findProfile } from '../../shared/procedures/profiles';
+import { EDITORS, STAFF } from '../auth/permissions';
+import { loadLocation, loadPlan } from '../auth/scope';
+import { route } from '../http/route';
+import { TestLocation } from '../models/test-location';
+import { TestPlan, planColumns } from '../models/test-plan';
+import { audited } from '../services/audit';
+
+async function present(plan: TestPlan) {
+  const location = plan.location ?? (await TestLocation.findByPk(plan.locationId));
+  return { plan: plan.toDto(), checks: checkPlan(plan.toInput(), findProfile(plan.procedureId), location ?? undefined) };
+}
+
+export const planRoutes = [
+  route({
+    method: 'get',
+    path: '/api/locations/:id/plans',
+    access: STAFF,
+    summary: 'Test plans of a location',
+    params: idParams,
+    handler: async ({ params, user }) => {
+      await loadLocation(user!, params.id);
+      return { items: (await TestPlan.findAll({ where: { locationId: params.id }, order: [['createdAt', 'ASC']] })).map((p) => p.toDto()) };
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/locations/:id/plans',
+    access: EDITORS,
+    summary: 'Write a test plan for a location',
+    params: idParams,
+    body: planInput,
+    handler: async ({ params, body, user }) => {
+      await loadLocation(user!, params.id);
+      const plan = await audited(
+        (transaction) => TestPlan.create({ locationId: params.id, ...planColumns(body) }, { transaction }),
+        (p) => ({ userId: user!.id, entity: 'plan', entityId: p.id, action: 'created', after: p.toDto() }),
+      );
+      return present(plan);
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/plans/:id',
+    access: STAFF,
+    summary: 'One test plan with its self-check',
+    params: idParams,
+    handler: async ({ params, user }) => present(await loadPlan(user!, params.id)),
+  }),
+  route({
+    method: 'patch',
+    path: '/api/plans/:id',
+    access: EDITORS,
+    summary: 'Replace a test plan',
+    params: idParams,
+    body: planInput,
+    handler: async ({ params, body, user }) => {
+      const plan = await loadPlan(user!, params.id);
+      const before = plan.toDto();
+      await audited(
+        (transaction) => plan.update(planColumns(body), { transaction }),
+        () => ({ userId: user!.id, entity: 'plan', entityId: plan.id, action: 'updated', before, after: plan.toDto() }),
+      );
+      return present(plan);
+    },
+  }),
+  route({
+    method: 'delete',
+    path: '/api/plans/:id',
+    access: EDITORS,
+    summary: 'Delete a test plan',
+    params: idParams,
+    handler: async ({ params, user }) => {
+      const plan = await loadPlan(user!, params.id);
+      const before = plan.toDto();
+      await audited(
+        (transaction) => plan.destroy({ transaction }),
+        () => ({ userId: user!.id, entity: 'plan', entityId: params.id, action: 'deleted', before }),
+      );
+      return undefined;
+    },
+  }),
+];

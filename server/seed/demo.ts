@@ -1,0 +1,108 @@
+/**
+ * Demo data: an invented consultancy's plate-testing crew and three invented client jobs.
+ * Seeded once into an empty database; real data is never touched.
+ */
+import { findProfile } from '../../shared/procedures/profiles';
+import type { PlanInput } from '../../shared/schemas/plans';
+import type { Role } from '../../shared/schemas/users';
+import { hashPassword } from '../auth/passwords';
+import { transaction } from '../db/transaction';
+import { Organization } from '../models/organization';
+import { Project } from '../models/project';
+import { TestLocation } from '../models/test-location';
+import { TestPlan, planColumns } from '../models/test-plan';
+import { User } from '../models/user';
+
+export const DEMO_PASSWORD = 'settle-demo-2026';
+
+export const DEMO_USERS: { email: string; name: string; role: Role; org?: string }[] = [
+  { email: 'admin@settlescope.example', name: 'Rowan Pike (lab manager)', role: 'admin' },
+  { email: 'engineer@settlescope.example', name: 'Ilse Varga (geotechnical engineer)', role: 'engineer' },
+  { email: 'operator@settlescope.example', name: 'Tamsin Okafor (rig operator)', role: 'operator' },
+  { email: 'client@harrowgate.example', name: 'Mateo Lindqvist (Harrowgate Freight)', role: 'client', org: 'Harrowgate Freight Ltd' },
+];
+
+function planFrom(profileId: string, name: string, overrides: Partial<PlanInput>): PlanInput {
+  const profile = findProfile(profileId);
+  if (!profile) throw new Error(`unknown profile ${profileId}`);
+  return {
+    name,
+    procedureId: profileId,
+    ...structuredClone(profile.defaults),
+    apparatusWeightKn: 0.6,
+    reaction: { kind: 'kentledge', capacityKn: 400, description: '' },
+    footing: null,
+    notes: '',
+    ...overrides,
+  };
+}
+
+export async function seedDemo(): Promise<boolean> {
+  if ((await User.count()) > 0) return false;
+  const hash = await hashPassword(DEMO_PASSWORD);
+  await transaction(async (t) => {
+    const orgs = new Map<string, Organization>();
+    for (const [name, contacts] of [
+      ['Harrowgate Freight Ltd', ['projects@harrowgate.example']],
+      ['Fenwick Moor District Council', ['highways@fenwickmoor.example']],
+      ['Eastmere Water Co-operative', ['works@eastmere.example']],
+    ] as const) {
+      orgs.set(name, await Organization.create({ name, contactEmails: [...contacts] }, { transaction: t }));
+    }
+    for (const u of DEMO_USERS) {
+      await User.create(
+        { email: u.email, name: u.name, role: u.role, organizationId: u.org ? orgs.get(u.org)!.id : null, passwordHash: hash, lastLoginAt: null },
+        { transaction: t },
+      );
+    }
+
+    const kestrel = await Project.create(
+      { code: 'KQ-DC2', name: 'Kestrel Quay distribution centre, phase 2', organizationId: orgs.get('Harrowgate Freight Ltd')!.id, site: 'Kestrel Quay, Brackwater', address: 'Plot 7, Quayside Road, Brackwater', notes: 'Pad footings 2.0 m square at 1.5 m depth; column loads up to 1,400 kN.' },
+      { transaction: t },
+    );
+    const pit1 = await TestLocation.create(
+      { projectId: kestrel.id, pitId: 'PLT-01', latitude: 52.4312, longitude: 1.7021, planX: 0.32, planY: 0.41, testDepthM: 1.5, waterTableDepthM: 4.2, pitWidthM: 2.4, soilDescription: 'Medium dense brown fine to coarse SAND with some gravel', notes: '' },
+      { transaction: t },
+    );
+    const pit2 = await TestLocation.create(
+      { projectId: kestrel.id, pitId: 'PLT-02', latitude: 52.4318, longitude: 1.7033, planX: 0.68, planY: 0.55, testDepthM: 1.5, waterTableDepthM: 3.9, pitWidthM: 1.8, soilDescription: 'Loose to medium dense silty SAND', notes: 'Pit narrowed by a drain run on the east side.' },
+      { transaction: t },
+    );
+    const sandPlan = (locationId: number) =>
+      TestPlan.create(
+        {
+          locationId,
+          ...planColumns(planFrom('bearing-granular', 'Bearing test at pad footing level', { footing: { shape: 'square', widthM: 2, lengthM: null, soilBehaviour: 'cohesionless' } })),
+        },
+        { transaction: t },
+      );
+    await sandPlan(pit1.id);
+    await sandPlan(pit2.id);
+
+    const fenwick = await Project.create(
+      { code: 'FM-AR7', name: 'Fenwick Moor access road, chainage 0–1,200', organizationId: orgs.get('Fenwick Moor District Council')!.id, site: 'Fenwick Moor', address: 'Moor Lane, Fenwick', notes: 'Formation and capping checks before the sub-base.' },
+      { transaction: t },
+    );
+    const ch = await TestLocation.create(
+      { projectId: fenwick.id, pitId: 'CH-0450', latitude: null, longitude: null, planX: null, planY: null, testDepthM: 0.6, waterTableDepthM: null, pitWidthM: null, soilDescription: 'Compacted crushed-rock capping on firm sandy CLAY', notes: '' },
+      { transaction: t },
+    );
+    await TestPlan.create({ locationId: ch.id, ...planColumns(planFrom('modulus-two-cycle', 'Capping layer Ev2 check', { reaction: { kind: 'vehicle', capacityKn: 90, description: 'Loaded tipper, rear axle' } })) }, { transaction: t });
+    await TestPlan.create({ locationId: ch.id, ...planColumns(planFrom('pavement-single', 'Formation k-value (762 mm plate)', { reaction: { kind: 'vehicle', capacityKn: 150, description: 'Loaded tipper, rear axle' } })) }, { transaction: t });
+
+    const eastmere = await Project.create(
+      { code: 'EM-PS3', name: 'Saltmarsh Vale pumping station', organizationId: orgs.get('Eastmere Water Co-operative')!.id, site: 'Saltmarsh Vale', address: 'Vale End, Eastmere', notes: 'Raft on soft estuarine clay; long holds expected.' },
+      { transaction: t },
+    );
+    const clayPit = await TestLocation.create(
+      { projectId: eastmere.id, pitId: 'TP-3', latitude: 52.1107, longitude: 1.5904, planX: 0.5, planY: 0.5, testDepthM: 1.2, waterTableDepthM: 1.6, pitWidthM: 3.0, soilDescription: 'Soft to firm grey silty CLAY', notes: '' },
+      { transaction: t },
+    );
+    await TestPlan.create(
+      { locationId: clayPit.id, ...planColumns(planFrom('bearing-cohesive', 'Bearing test on clay (24 h holds)', { footing: { shape: 'rectangular', widthM: 8, lengthM: 14, soilBehaviour: 'cohesive' } })) },
+      { transaction: t },
+    );
+  });
+  return true;
+}
+

@@ -1,0 +1,73 @@
+import type { Express } from 'express';
+import type { Sequelize } from 'sequelize';
+import request from 'supertest';
+import { type AppParts, createApp } from '../../server/app';
+import type { ServerConfig } from '../../server/config';
+import { migrate } from '../../server/db/migrator';
+import { initModels } from '../../server/db/models';
+import { createSequelize } from '../../server/db/sequelize';
+import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../../server/seed/demo';
+import type { Role } from '../../shared/schemas/users';
+import { freshDatabase } from './test-database';
+
+export interface TestApp extends AppParts {
+  config: ServerConfig;
+  sequelize: Sequelize;
+  stop(): Promise<void>;
+}
+
+/** A migrated, demo-seeded database and the Express app over it (no listening socket; supertest drives it). */
+export async function startTestApp(overrides: Partial<ServerConfig> = {}): Promise<TestApp> {
+  const config = await freshDatabase(overrides);
+  const sequelize = createSequelize(config.db);
+  initModels(sequelize);
+  await migrate(sequelize);
+  await seedDemo();
+  const parts = createApp(sequelize, config);
+  return {
+    ...parts,
+    config,
+    sequelize,
+    stop: async () => {
+      parts.close();
+      await sequelize.close();
+    },
+  };
+}
+
+export const demoEmail = (role: Role) => DEMO_USERS.find((u) => u.role === role)!.email;
+
+/** A supertest agent with its own cookie jar that sends the CSRF token on every state-changing call. */
+export class Client {
+  readonly agent;
+  token = '';
+  constructor(app: Express) {
+    this.agent = request.agent(app);
+  }
+  async csrf() {
+    const res = await this.agent.get('/api/auth/csrf');
+    this.token = res.body.csrfToken;
+    return this;
+  }
+  get(url: string) {
+    return this.agent.get(url);
+  }
+  post(url: string, body?: object) {
+    return this.agent.post(url).set('x-csrf-token', this.token).send(body);
+  }
+  patch(url: string, body?: object) {
+    return this.agent.patch(url).set('x-csrf-token', this.token).send(body);
+  }
+  delete(url: string) {
+    return this.agent.delete(url).set('x-csrf-token', this.token);
+  }
+  async signIn(email: string, password = DEMO_PASSWORD) {
+    await this.csrf();
+    const res = await this.post('/api/auth/login', { email, password });
+    if (res.status !== 200) throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`);
+    this.token = res.body.csrfToken;
+    return this;
+  }
+}
+
+export const signedIn = async (app: Express, role: Role) => new Client(app).signIn(demoEmail(role));
