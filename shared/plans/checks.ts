@@ -28,7 +28,8 @@ export function checkPlan(plan: PlanInput, profile: ProcedureProfile | undefined
         warn('pit_width', `Pit is ${location.pitWidthM} m wide; at least ${needed.toFixed(2)} m (${profile.minPitWidthInPlates} plate widths) is needed.`, 'pitWidthM');
       }
     }
-    const maxLoadKn = plateForceKn(plan.plate, maxPlannedPressureKpa(plan)) + 0; // apparatus weight rests on the plate but is not reacted by the jack
+    // The apparatus rests on the plate, so the jack — and the reaction — carry the rest.
+    const maxLoadKn = Math.max(0, plateForceKn(plan.plate, maxPlannedPressureKpa(plan)) - plan.apparatusWeightKn);
     const needed = maxLoadKn * (1 + profile.reactionMargin);
     if (plan.reaction.capacityKn < needed) {
       warn(
