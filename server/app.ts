@@ -12,8 +12,10 @@ import { HttpError, errorHandler } from './http/errors';
 import { type RouteSpec, mount } from './http/route';
 import { authRoutes } from './routes/auth';
 import { healthRoutes } from './routes/health';
+import { instrumentRoutes } from './routes/instruments';
 import { planRoutes } from './routes/plans';
 import { projectRoutes } from './routes/projects';
+import { rigRoutes } from './routes/rigs';
 import { sitePlanRoutes } from './routes/site-plans';
 import { userRoutes } from './routes/users';
 
@@ -71,6 +73,8 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, hooks: { o
     ...projectRoutes,
     ...sitePlanRoutes(config.dataDir),
     ...planRoutes,
+    ...instrumentRoutes(config.dataDir),
+    ...rigRoutes,
   ];
   mount(api, routes);
   api.use('/api', (_req, _res, next) => next(new HttpError(404, 'not_found', 'No such API route.')));

@@ -1,6 +1,7 @@
 import { type QueryInterface, Sequelize } from 'sequelize';
 import { SequelizeStorage, Umzug } from 'umzug';
 import * as initial from './migrations/0001-initial';
+import * as rigs from './migrations/0002-rigs';
 
 export interface Migration {
   up(qi: QueryInterface, S: typeof Sequelize): Promise<void>;
@@ -8,7 +9,10 @@ export interface Migration {
 }
 
 /** Ordered list of migrations; add new files here. Names are stored in `schema_migrations`. */
-const MIGRATIONS: [string, Migration][] = [['0001-initial', initial]];
+const MIGRATIONS: [string, Migration][] = [
+  ['0001-initial', initial],
+  ['0002-rigs', rigs],
+];
 
 export function createMigrator(sequelize: Sequelize) {
   return new Umzug({

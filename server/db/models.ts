@@ -1,7 +1,10 @@
 import type { Sequelize } from 'sequelize';
 import { AuditEntry } from '../models/audit-entry';
+import { CalibrationRecord } from '../models/calibration-record';
+import { Instrument } from '../models/instrument';
 import { Organization } from '../models/organization';
 import { Project } from '../models/project';
+import { Rig } from '../models/rig';
 import { defineSessionModel } from '../models/session';
 import { TestLocation } from '../models/test-location';
 import { TestPlan } from '../models/test-plan';
@@ -9,7 +12,7 @@ import { User } from '../models/user';
 
 /** Initialises every model on one Sequelize instance, then wires the associations. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry]) model.initModel(sequelize);
+  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry, Instrument, CalibrationRecord, Rig]) model.initModel(sequelize);
   defineSessionModel(sequelize);
   Organization.hasMany(User, { foreignKey: 'organizationId' });
   User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });
@@ -19,4 +22,6 @@ export function initModels(sequelize: Sequelize) {
   TestLocation.belongsTo(Project, { foreignKey: 'projectId', as: 'project' });
   TestLocation.hasMany(TestPlan, { foreignKey: 'locationId', as: 'plans' });
   TestPlan.belongsTo(TestLocation, { foreignKey: 'locationId', as: 'location' });
+  Instrument.hasMany(CalibrationRecord, { foreignKey: 'instrumentId', as: 'calibrations' });
+  CalibrationRecord.belongsTo(Instrument, { foreignKey: 'instrumentId', as: 'instrument' });
 }

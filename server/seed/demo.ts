@@ -7,6 +7,8 @@ import type { PlanInput } from '../../shared/schemas/plans';
 import type { Role } from '../../shared/schemas/users';
 import { hashPassword } from '../auth/passwords';
 import { transaction } from '../db/transaction';
+import { CalibrationRecord } from '../models/calibration-record';
+import { Instrument } from '../models/instrument';
 import { Organization } from '../models/organization';
 import { Project } from '../models/project';
 import { TestLocation } from '../models/test-location';
@@ -55,6 +57,8 @@ export async function seedDemo(): Promise<boolean> {
         { transaction: t },
       );
     }
+
+    await seedInstruments(t);
 
     const kestrel = await Project.create(
       { code: 'KQ-DC2', name: 'Kestrel Quay distribution centre, phase 2', organizationId: orgs.get('Harrowgate Freight Ltd')!.id, site: 'Kestrel Quay, Brackwater', address: 'Plot 7, Quayside Road, Brackwater', notes: 'Pad footings 2.0 m square at 1.5 m depth; column loads up to 1,400 kN.' },
@@ -106,3 +110,32 @@ export async function seedDemo(): Promise<boolean> {
   return true;
 }
 
+
+const daysFromToday = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
+
+/** The lab's kit: four digital gauges (one overdue), an oil-pressure transducer and two jacks. */
+async function seedInstruments(t: import('sequelize').Transaction) {
+  const kit = [
+    { kind: 'gauge', makeModel: 'Digital indicator 25 mm', serialNumber: 'DG-2107', unit: 'mm', rangeMin: 0, rangeMax: 25, resolution: 0.001, travelMm: 25, dueIn: 140 },
+    { kind: 'gauge', makeModel: 'Digital indicator 25 mm', serialNumber: 'DG-2108', unit: 'mm', rangeMin: 0, rangeMax: 25, resolution: 0.001, travelMm: 25, dueIn: 140 },
+    { kind: 'gauge', makeModel: 'Digital indicator 50 mm', serialNumber: 'DG-1733', unit: 'mm', rangeMin: 0, rangeMax: 50, resolution: 0.01, travelMm: 50, dueIn: 21 },
+    { kind: 'gauge', makeModel: 'Dial gauge 50 mm', serialNumber: 'DL-0412', unit: 'mm', rangeMin: 0, rangeMax: 50, resolution: 0.01, travelMm: 50, dueIn: -12 },
+    { kind: 'pressure', makeModel: 'Oil-pressure transducer 700 bar', serialNumber: 'PT-5520', unit: 'bar', rangeMin: 0, rangeMax: 700, resolution: 0.1, travelMm: null, dueIn: 95 },
+    { kind: 'jack', makeModel: 'Single-acting jack 50 cm² ram', serialNumber: 'JK-50-031', unit: 'kN', rangeMin: 0, rangeMax: 350, resolution: null, travelMm: null, dueIn: 160 },
+    { kind: 'jack', makeModel: 'Compact jack 22.9 cm² ram', serialNumber: 'JK-23-007', unit: 'kN', rangeMin: 0, rangeMax: 150, resolution: null, travelMm: null, dueIn: 60 },
+  ] as const;
+  for (const { dueIn, ...fields } of kit) {
+    const instrument = await Instrument.create({ ...fields, notes: '' }, { transaction: t });
+    // Gauges: reading = displacement; transducer: bar in = bar out; jacks: oil pressure (MPa) → force (kN).
+    const method =
+      fields.kind === 'jack'
+        ? { inputUnit: 'MPa' as const, outputUnit: 'kN' as const, curve: fields.serialNumber === 'JK-50-031' ? { kind: 'linear' as const, c0: 0.35, c1: 4.92 } : { kind: 'linear' as const, c0: 0.1, c1: 2.27 } }
+        : fields.kind === 'pressure'
+          ? { inputUnit: 'bar' as const, outputUnit: 'bar' as const, curve: { kind: 'linear' as const, c0: 0, c1: 1.0 } }
+          : { inputUnit: 'mm' as const, outputUnit: 'mm' as const, curve: { kind: 'linear' as const, c0: 0, c1: 1.0 } };
+    await CalibrationRecord.create(
+      { instrumentId: instrument.id, calibratedOn: daysFromToday(dueIn - 182), dueOn: daysFromToday(dueIn), method, notes: 'Demo certificate', createdBy: null },
+      { transaction: t },
+    );
+  }
+}

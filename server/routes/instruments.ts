@@ -1,0 +1,131 @@
+import path from 'node:path';
+import { idParams } from '../../shared/schemas/common';
+import { calibrationRecordInput, instrumentInput } from '../../shared/schemas/instruments';
+import { EDITORS, STAFF } from '../auth/permissions';
+import { notFound } from '../http/errors';
+import { route } from '../http/route';
+import { singleUpload, storeUpload } from '../http/uploads';
+import { CalibrationRecord } from '../models/calibration-record';
+import { Instrument } from '../models/instrument';
+import { audited } from '../services/audit';
+
+const CERTIFICATE_TYPES = ['application/pdf', 'image/png', 'image/jpeg'] as const;
+const withCalibrations = { include: [{ model: CalibrationRecord, as: 'calibrations' }] };
+
+async function loadInstrument(id: number): Promise<Instrument> {
+  const instrument = await Instrument.findByPk(id, withCalibrations);
+  if (!instrument) throw notFound('Instrument');
+  return instrument;
+}
+
+async function loadCalibration(id: number): Promise<CalibrationRecord> {
+  const calibration = await CalibrationRecord.findByPk(id);
+  if (!calibration) throw notFound('Calibration');
+  return calibration;
+}
+
+/** The instrument register: gauges, transducers, jacks and load cells with their calibrations. */
+export const instrumentRoutes = (dataDir: string) => {
+  const certificates = path.join(dataDir, 'uploads', 'certificates');
+  return [
+    route({
+      method: 'get',
+      path: '/api/instruments',
+      access: STAFF,
+      summary: 'The instrument register with calibration status',
+      handler: async () => ({ items: (await Instrument.findAll({ ...withCalibrations, order: [['kind', 'ASC'], ['serialNumber', 'ASC']] })).map((i) => i.toDto()) }),
+    }),
+    route({
+      method: 'post',
+      path: '/api/instruments',
+      access: EDITORS,
+      summary: 'Register an instrument',
+      body: instrumentInput,
+      handler: async ({ body, user }) => {
+        const created = await audited(
+          (transaction) => Instrument.create(body, { transaction }),
+          (i) => ({ userId: user!.id, entity: 'instrument', entityId: i.id, action: 'created', after: i.get({ plain: true }) }),
+        );
+        return (await loadInstrument(created.id)).toDto();
+      },
+    }),
+    route({
+      method: 'get',
+      path: '/api/instruments/:id',
+      access: STAFF,
+      summary: 'One instrument with all its calibrations',
+      params: idParams,
+      handler: async ({ params }) => {
+        const instrument = await loadInstrument(params.id);
+        const history = [...(instrument.calibrations ?? [])].sort((a, b) => b.calibratedOn.localeCompare(a.calibratedOn));
+        return { ...instrument.toDto(), calibrations: history.map((c) => c.toDto()) };
+      },
+    }),
+    route({
+      method: 'patch',
+      path: '/api/instruments/:id',
+      access: EDITORS,
+      summary: 'Change an instrument',
+      params: idParams,
+      body: instrumentInput,
+      handler: async ({ params, body, user }) => {
+        const instrument = await loadInstrument(params.id);
+        const before = instrument.get({ plain: true });
+        await audited(
+          (transaction) => instrument.update(body, { transaction }),
+          () => ({ userId: user!.id, entity: 'instrument', entityId: instrument.id, action: 'updated', before, after: instrument.get({ plain: true }) }),
+        );
+        return (await loadInstrument(instrument.id)).toDto();
+      },
+    }),
+    route({
+      method: 'post',
+      path: '/api/instruments/:id/calibrations',
+      access: EDITORS,
+      summary: 'Record a calibration of an instrument',
+      params: idParams,
+      body: calibrationRecordInput,
+      handler: async ({ params, body, user }) => {
+        await loadInstrument(params.id);
+        const created = await audited(
+          (transaction) => CalibrationRecord.create({ ...body, instrumentId: params.id, createdBy: user!.id }, { transaction }),
+          (c) => ({ userId: user!.id, entity: 'calibration', entityId: c.id, action: 'created', after: c.toDto() }),
+        );
+        return created.toDto();
+      },
+    }),
+    route({
+      method: 'post',
+      path: '/api/calibrations/:id/certificate',
+      access: EDITORS,
+      summary: 'Attach the certificate of a calibration (PDF, PNG or JPEG, ≤ 10 MB)',
+      status: 200,
+      params: idParams,
+      before: [singleUpload('file', 10 * 1024 * 1024)],
+      handler: async ({ params, req, user }) => {
+        const calibration = await loadCalibration(params.id);
+        const name = await storeUpload(req.file, certificates, CERTIFICATE_TYPES);
+        const before = calibration.toDto();
+        await audited(
+          (transaction) => calibration.update({ certificateFile: name }, { transaction }),
+          () => ({ userId: user!.id, entity: 'calibration', entityId: calibration.id, action: 'certificate-attached', before, after: calibration.toDto() }),
+        );
+        return calibration.toDto();
+      },
+    }),
+    route({
+      method: 'get',
+      path: '/api/calibrations/:id/certificate',
+      access: STAFF,
+      summary: 'The certificate of a calibration',
+      params: idParams,
+      handler: async ({ params, res }) => {
+        const calibration = await loadCalibration(params.id);
+        const file = calibration.certificateFile;
+        if (!file) throw notFound('Certificate');
+        res.setHeader('Content-Disposition', `inline; filename="calibration-${calibration.id}${path.extname(file)}"`);
+        await new Promise<void>((resolve, reject) => res.sendFile(file, { root: certificates, dotfiles: 'deny' }, (err) => (err ? reject(err) : resolve())));
+      },
+    }),
+  ];
+};
