@@ -1,0 +1,56 @@
+import { z } from 'zod';
+import { idSchema, requiredText } from './common';
+
+/**
+ * Where a run stands. `preparing`: rig checked, gauges zeroed; `pumping`: the operator brings the jack
+ * to the stage's target; `holding`: the target is on and the hold rule is judging; `hold-met`: the
+ * hold rule is satisfied and the next step is prompted; `completed` / `stopped`: closed.
+ */
+export const RUN_PHASES = ['preparing', 'pumping', 'holding', 'hold-met', 'completed', 'stopped'] as const;
+export type RunPhase = (typeof RUN_PHASES)[number];
+export const ACTIVE_PHASES: readonly RunPhase[] = ['preparing', 'pumping', 'holding', 'hold-met'];
+
+export const runCreateInput = z.object({
+  planId: z.number().int().positive(),
+  rigId: z.number().int().positive(),
+});
+export type RunCreateInput = z.infer<typeof runCreateInput>;
+
+const channelKey = z.string().min(1).max(16);
+const reason = requiredText(500);
+
+/** Commands a person sends to a run. Each carries the run version it was decided on (R7). */
+export const runCommandSchema = z.discriminatedUnion('type', [
+  z.object({ type: z.literal('zero') }),
+  /** Begin with the seating stage. */
+  z.object({ type: z.literal('start') }),
+  /** An engineer accepts, with a reason, running with an instrument whose calibration is overdue. */
+  z.object({ type: z.literal('accept-overdue'), reason }),
+  /** The operator reports the target is on (used when the pressure reading cannot tell, e.g. manual mode). */
+  z.object({ type: z.literal('stage-reached') }),
+  /** Go to the next stage; before the hold is met a reason is required. */
+  z.object({ type: z.literal('advance'), reason: reason.optional() }),
+  z.object({ type: z.literal('top-up') }),
+  z.object({ type: z.literal('gauge-reset'), channel: channelKey, beforeMm: z.number().min(-500).max(500), afterMm: z.number().min(-500).max(500) }),
+  z.object({ type: z.literal('note'), text: requiredText(2000) }),
+  z.object({ type: z.literal('finish') }),
+  z.object({ type: z.literal('stop'), reason }),
+  z.object({ type: z.literal('acknowledge-alarm'), key: z.string().min(1).max(80) }),
+  z.object({ type: z.literal('shelve-alarm'), key: z.string().min(1).max(80), minutes: z.number().positive().max(24 * 60), reason }),
+  z.object({ type: z.literal('take-control') }),
+  /** Manual mode: readings typed in from dial gauges and the pressure gauge. */
+  z.object({
+    type: z.literal('manual-reading'),
+    pressureKpa: z.number().min(0).max(20000).optional(),
+    gauges: z.record(channelKey, z.number().min(-500).max(500)),
+  }),
+]);
+export type RunCommand = z.infer<typeof runCommandSchema>;
+
+export const runCommandEnvelope = z.object({
+  /** The run version the sender saw; a stale version is refused so two people cannot cross commands. */
+  version: z.number().int().min(0),
+  command: runCommandSchema,
+});
+
+export const runParams = z.object({ id: idSchema });
