@@ -1,0 +1,280 @@
+import { InterpretationInputError, requireFinite, requireInRange, requireNonNegative, requirePositive } from '../interpretation/input-checks';
+import { type GaugeAtPosition, meanSettlement, planeFitTilt, type Tilt, tiltBetweenGauges } from '../interpretation/reduction';
+import type { Termination } from '../schemas/plans';
+import type { RuleSource } from './verdict';
+
+export type AlarmCode = 'load-drift' | 'plate-tilt' | 'gauge-travel' | 'stop-limit' | 'reaction-capacity' | 'signal-lost' | 'calibration-overdue';
+export type AlarmSeverity = 'warning' | 'critical';
+
+/** The state of one alarm rule now. Rules are pure; the lifecycle (acknowledge, shelve…) is alarm-lifecycle.ts. */
+export interface Alarm {
+  code: AlarmCode;
+  /** What the alarm is about when a rule applies per item (a gauge, a channel, an instrument); null otherwise. */
+  subject: string | null;
+  severity: AlarmSeverity;
+  active: boolean;
+  message: string;
+  /** The figure the rule judged, in `unit`; null when there is none (e.g. no sample yet). */
+  value: number | null;
+  limit: number;
+  unit: string;
+  source: RuleSource;
+}
+
+const pct = (fraction: number) => `${Math.round(fraction * 1000) / 10} %`;
+
+/** Options of {@link loadDriftAlarm}. */
+export interface LoadDriftInput {
+  targetKpa: number;
+  actualKpa: number;
+  /** Tolerance as a percentage of the target, %. Default 2. */
+  tolerancePercent?: number;
+  /** Smallest tolerance, kPa (one gauge division, roughly); the larger of the two applies. Default 2. */
+  toleranceKpa?: number;
+}
+
+/** Load drifting from its target during a hold beyond ±max(2 % of target, fixed kPa) (DOMAIN §D.1, common practice), with a top-up prompt. */
+export function loadDriftAlarm(input: LoadDriftInput): Alarm {
+  const target = requireNonNegative(input.targetKpa, 'targetKpa');
+  const deviation = requireFinite(input.actualKpa, 'actualKpa') - target;
+  const limit = Math.max(
+    (requireNonNegative(input.tolerancePercent ?? 2, 'tolerancePercent') / 100) * target,
+    requireNonNegative(input.toleranceKpa ?? 2, 'toleranceKpa'),
+  );
+  const active = Math.abs(deviation) > limit;
+  const message = !active
+    ? `Pressure within ±${limit.toFixed(1)} kPa of the ${target} kPa target.`
+    : deviation < 0
+      ? `Pressure ${input.actualKpa.toFixed(1)} kPa is ${(-deviation).toFixed(1)} kPa below the ${target} kPa target: top up the pump.`
+      : `Pressure ${input.actualKpa.toFixed(1)} kPa is ${deviation.toFixed(1)} kPa above the ${target} kPa target: let some pressure off.`;
+  return {
+    code: 'load-drift',
+    subject: null,
+    severity: 'warning',
+    active,
+    message,
+    value: deviation,
+    limit,
+    unit: 'kPa',
+    source: { tag: 'common practice', text: 'Hold the load within ±2 % of the target or a fixed tolerance, whichever is larger; re-pump when it drifts' },
+  };
+}
+
+/** Options of {@link tiltAlarm}. */
+export interface TiltInput {
+  /** Gauges at their positions (mm, origin at the plate centre) with their settlements (mm); two or more. */
+  gauges: readonly GaugeAtPosition[];
+  /** The gauge spread counts when above this fraction of the mean settlement… Default 0.2. */
+  spreadFraction?: number;
+  /** …and above this, mm. Default 0.5. */
+  minSpreadMm?: number;
+  /** Largest tilt as a slope (1:100 = 0.01). Default 0.01. */
+  maxTiltSlope?: number;
+}
+
+/** Tilt figures the console shows and the tilt alarm judges. */
+export interface PlateTiltState {
+  meanSettlementMm: number;
+  /** Largest minus smallest gauge settlement, mm (for a pair of opposite gauges, their difference). */
+  spreadMm: number;
+  tilt: Tilt;
+}
+
+/** Mean, spread and tilt of two or more gauges: θ = atan(|s1 − s2|/L) for two, a least-squares plane for more (DOMAIN §B.1). */
+export function plateTiltState(gauges: readonly GaugeAtPosition[]): PlateTiltState {
+  if (gauges.length < 2) throw new InterpretationInputError('gauges', `tilt needs at least two gauges (got ${gauges.length})`);
+  const settlements = gauges.map((g) => g.settlementMm);
+  const [g1, g2] = gauges;
+  return {
+    meanSettlementMm: meanSettlement(settlements, 'gauges'),
+    spreadMm: Math.max(...settlements) - Math.min(...settlements),
+    tilt: gauges.length === 2 ? tiltBetweenGauges(g1.settlementMm, g2.settlementMm, Math.hypot(g1.xMm - g2.xMm, g1.yMm - g2.yMm)) : planeFitTilt(gauges).tilt,
+  };
+}
+
+/**
+ * Plate tilt (DOMAIN §D.3, common practice): warns when the spread between gauges exceeds both 20 % of the
+ * mean settlement and 0.5 mm, or the tilt exceeds 1:100. `value`/`limit` report whichever test is nearer
+ * its limit; the message gives both.
+ */
+export function tiltAlarm(input: TiltInput): Alarm {
+  const { meanSettlementMm, spreadMm, tilt } = plateTiltState(input.gauges);
+  const spreadLimit = Math.max(
+    requireNonNegative(input.spreadFraction ?? 0.2, 'spreadFraction') * Math.abs(meanSettlementMm),
+    requireNonNegative(input.minSpreadMm ?? 0.5, 'minSpreadMm'),
+  );
+  const slopeLimit = requirePositive(input.maxTiltSlope ?? 0.01, 'maxTiltSlope');
+  const slope = Math.tan(tilt.radians);
+  const bySpread = spreadMm / spreadLimit >= slope / slopeLimit;
+  const active = spreadMm > spreadLimit || slope > slopeLimit;
+  const oneIn = tilt.oneIn === null ? 'level' : `1:${Math.round(tilt.oneIn)}`;
+  return {
+    code: 'plate-tilt',
+    subject: null,
+    severity: 'warning',
+    active,
+    message: `${active ? 'Plate tilting' : 'Plate tilt acceptable'}: gauges differ by ${spreadMm.toFixed(2)} mm (limit ${spreadLimit.toFixed(2)} mm), tilt ${oneIn} (limit 1:${Math.round(1 / slopeLimit)}).${active ? ' Check for eccentric load, a leaning jack, uneven bedding or a sticking gauge.' : ''}`,
+    value: bySpread ? spreadMm : tilt.radians,
+    limit: bySpread ? spreadLimit : Math.atan(slopeLimit),
+    unit: bySpread ? 'mm' : 'rad',
+    source: {
+      tag: 'common practice',
+      text: 'Opposite gauges differing by more than about 20 % of the mean settlement (and 0.5 mm), or tilt beyond about 1:100',
+    },
+  };
+}
+
+/** Options of {@link gaugeTravelAlarm}. */
+export interface GaugeTravelInput {
+  gauge: string;
+  /** The gauge's raw reading, mm. */
+  readingMm: number;
+  /** Full travel of the gauge, mm. */
+  travelMm: number;
+  /** +1 when the reading grows as the plate settles, −1 when it falls (stem extending). */
+  sign: 1 | -1;
+  /** Warn when this fraction of the travel is used. Default 0.85. */
+  warnFraction?: number;
+}
+
+/** Gauge nearing the end of its travel (DOMAIN §D.3, common practice: warn at 80–90 %), prompting a reset while the load is held. */
+export function gaugeTravelAlarm(input: GaugeTravelInput): Alarm {
+  const travel = requirePositive(input.travelMm, 'travelMm');
+  const reading = requireFinite(input.readingMm, 'readingMm');
+  const warnAt = requireInRange(input.warnFraction ?? 0.85, 0, 1, 'warnFraction');
+  const used = input.sign === 1 ? reading / travel : 1 - reading / travel;
+  const atEnd = used >= 1;
+  return {
+    code: 'gauge-travel',
+    subject: input.gauge,
+    severity: atEnd ? 'critical' : 'warning',
+    active: used >= warnAt,
+    message: atEnd
+      ? `Gauge ${input.gauge} is at the end of its travel: its readings are no longer valid. Reset it while the load is held.`
+      : `Gauge ${input.gauge} has used ${pct(used)} of its travel${used >= warnAt ? ': reset it while the load is held, one gauge at a time' : ''}.`,
+    value: used * 100,
+    limit: warnAt * 100,
+    unit: '%',
+    source: { tag: 'common practice', text: 'Warn at about 80–90 % of gauge travel; reset only under a constant load, one gauge at a time' },
+  };
+}
+
+/** The settlement at which the test stops, mm: the plan's limit, or the fraction of the plate width when that is smaller. */
+export function stopLimitMm(termination: Pick<Termination, 'maxSettlementMm' | 'maxSettlementFractionOfWidth'>, plateSizeMm: number): number {
+  const byWidth =
+    termination.maxSettlementFractionOfWidth > 0
+      ? termination.maxSettlementFractionOfWidth * requirePositive(plateSizeMm, 'plateSizeMm')
+      : Number.POSITIVE_INFINITY;
+  return Math.min(requirePositive(termination.maxSettlementMm, 'termination.maxSettlementMm'), byWidth);
+}
+
+/** Mean settlement at the stop limit. */
+export function stopLimitAlarm(input: { meanSettlementMm: number; stopLimitMm: number }): Alarm {
+  const value = requireFinite(input.meanSettlementMm, 'meanSettlementMm');
+  const limit = requirePositive(input.stopLimitMm, 'stopLimitMm');
+  const active = value >= limit;
+  return {
+    code: 'stop-limit',
+    subject: null,
+    severity: 'critical',
+    active,
+    message: active
+      ? `Settlement ${value.toFixed(2)} mm has reached the ${limit} mm stop limit: end the loading.`
+      : `Settlement ${value.toFixed(2)} mm of the ${limit} mm stop limit.`,
+    value,
+    limit,
+    unit: 'mm',
+    source: { tag: 'common practice', text: "Stop at the plan's settlement limit (25 mm is common practice for bearing tests)" },
+  };
+}
+
+/** Options of {@link reactionCapacityAlarm}. */
+export interface ReactionInput {
+  jackForceKn: number;
+  capacityKn: number;
+  /** Warn at this fraction of the reaction capacity. Default 0.9. */
+  warnFraction?: number;
+}
+
+/** Jack force approaching the reaction capacity (DOMAIN §D.2, common practice: never use more than ≈ 80–90 % of a vehicle's reaction). */
+export function reactionCapacityAlarm(input: ReactionInput): Alarm {
+  const capacity = requirePositive(input.capacityKn, 'capacityKn');
+  const used = requireFinite(input.jackForceKn, 'jackForceKn') / capacity;
+  const warnAt = requireInRange(input.warnFraction ?? 0.9, 0, 1, 'warnFraction');
+  return {
+    code: 'reaction-capacity',
+    subject: null,
+    severity: used >= 1 ? 'critical' : 'warning',
+    active: used >= warnAt,
+    message: `Jack force ${input.jackForceKn.toFixed(1)} kN is ${pct(used)} of the ${capacity} kN reaction${used >= warnAt ? ': do not load further without more reaction' : ''}.`,
+    value: used * 100,
+    limit: warnAt * 100,
+    unit: '%',
+    source: { tag: 'common practice', text: 'Keep the jack force below about 90 % of the reaction: wheels lift and kentledge tips suddenly' },
+  };
+}
+
+/** Options of {@link signalLostAlarm}. */
+export interface SignalInput {
+  channel: string;
+  /** When the channel's last sample arrived, ms since the epoch; null before the first. */
+  lastSampleAtMs: number | null;
+  nowMs: number;
+  /** Longest silence before the alarm, s. Default 2. */
+  maxGapS?: number;
+}
+
+/** Stale data / signal lost: no sample on a channel for longer than `maxGapS` (QUALITY R3: alarm within 2 s). */
+export function signalLostAlarm(input: SignalInput): Alarm {
+  const limit = requirePositive(input.maxGapS ?? 2, 'maxGapS');
+  const gapS = input.lastSampleAtMs === null ? null : (requireFinite(input.nowMs, 'nowMs') - requireFinite(input.lastSampleAtMs, 'lastSampleAtMs')) / 1000;
+  const active = gapS === null || gapS > limit;
+  return {
+    code: 'signal-lost',
+    subject: input.channel,
+    severity: 'critical',
+    active,
+    message:
+      gapS === null
+        ? `No sample from ${input.channel} yet.`
+        : active
+          ? `No sample from ${input.channel} for ${gapS.toFixed(1)} s: check the cable and the instrument.`
+          : `${input.channel} live.`,
+    value: gapS,
+    limit,
+    unit: 's',
+    source: { tag: 'common practice', text: 'A live channel reports every second or faster; a silence of more than 2 s means the signal is lost' },
+  };
+}
+
+/** Options of {@link calibrationAlarm}. */
+export interface CalibrationInput {
+  instrument: string;
+  /** Calibration due date, ms since the epoch; null when the instrument has no calibration on record. */
+  dueAtMs: number | null;
+  nowMs: number;
+}
+
+const MS_PER_DAY = 86_400_000;
+
+/** Instrument used past its calibration due date, or with none on record (ENV 1997-3 §11: calibrate at least every 6 months). */
+export function calibrationAlarm(input: CalibrationInput): Alarm {
+  const overdueDays = input.dueAtMs === null ? null : (requireFinite(input.nowMs, 'nowMs') - requireFinite(input.dueAtMs, 'dueAtMs')) / MS_PER_DAY;
+  const active = overdueDays === null || overdueDays > 0;
+  return {
+    code: 'calibration-overdue',
+    subject: input.instrument,
+    severity: 'warning',
+    active,
+    message:
+      overdueDays === null
+        ? `${input.instrument} has no calibration on record.`
+        : active
+          ? `${input.instrument} is ${Math.ceil(overdueDays)} day(s) past its calibration due date.`
+          : `${input.instrument} calibrated; due in ${Math.floor(-overdueDays)} day(s).`,
+    value: overdueDays,
+    limit: 0,
+    unit: 'days',
+    source: { tag: 'standard', text: 'ENV 1997-3 §11 — manometers, load and displacement transducers calibrated at least every 6 months' },
+  };
+}

@@ -1,0 +1,69 @@
+import { requireFinite, requirePositive } from '../interpretation/input-checks';
+
+/** +1 when the gauge's reading grows as the plate settles, −1 when it falls (stem extending). */
+export type GaugeSign = 1 | -1;
+
+/**
+ * Settlement seen by one gauge: sign × (reading − zero) + Σ reset offsets (DOMAIN §B.1 [CP]).
+ * Offsets are in settlement terms, as {@link resetOffset} returns them.
+ */
+export function gaugeSettlement(rawMm: number, zeroMm: number, sign: GaugeSign, offsetsMm: readonly number[] = []): number {
+  requireFinite(rawMm, 'rawMm');
+  requireFinite(zeroMm, 'zeroMm');
+  const offset = offsetsMm.reduce((sum, o, i) => sum + requireFinite(o, `offsetsMm[${i}]`), 0);
+  return sign * (rawMm - zeroMm) + offset;
+}
+
+/**
+ * Offset that keeps settlement continuous across a gauge reset read "before" and "after" under a held
+ * load: sign × (before − after) (DOMAIN §C12: 24.30 before, 1.15 after → 23.15 mm).
+ */
+export function resetOffset(beforeMm: number, afterMm: number, sign: GaugeSign): number {
+  return sign * (requireFinite(beforeMm, 'beforeMm') - requireFinite(afterMm, 'afterMm'));
+}
+
+/** A raw gauge reading and when it was taken, minutes (any clock, as long as resets use the same one). */
+export interface RawGaugeReading {
+  tMin: number;
+  rawMm: number;
+}
+
+/** A jump between two consecutive readings that no reset accounts for. */
+export interface UnmarkedJump {
+  /** Index of the reading after the jump. */
+  index: number;
+  fromMin: number;
+  toMin: number;
+  jumpMm: number;
+  divisions: number;
+}
+
+/** Options of {@link findUnmarkedJumps}. */
+export interface JumpOptions {
+  /** Gauge resolution (one division), mm. Required. */
+  resolutionMm: number;
+  /** A change of more than this many divisions between consecutive readings is a jump. Default 100 (1 mm on a 0.01 mm dial). */
+  maxDivisions?: number;
+}
+
+/**
+ * Flags every change between consecutive raw readings larger than `maxDivisions` divisions that is not
+ * marked by a reset event in (previous reading, reading] — a gauge knocked, slipped or reset without a
+ * record (DOMAIN §D.3, common practice).
+ */
+export function findUnmarkedJumps(readings: readonly RawGaugeReading[], resetsAtMin: readonly number[], options: JumpOptions): UnmarkedJump[] {
+  const resolution = requirePositive(options.resolutionMm, 'resolutionMm');
+  const maxDivisions = requirePositive(options.maxDivisions ?? 100, 'maxDivisions');
+  for (const [i, t] of resetsAtMin.entries()) requireFinite(t, `resetsAtMin[${i}]`);
+  const jumps: UnmarkedJump[] = [];
+  for (let i = 1; i < readings.length; i++) {
+    const a = readings[i - 1];
+    const b = readings[i];
+    const jumpMm = requireFinite(b.rawMm, `readings[${i}].rawMm`) - requireFinite(a.rawMm, `readings[${i - 1}].rawMm`);
+    const divisions = Math.abs(jumpMm) / resolution;
+    const marked = resetsAtMin.some((t) => t > a.tMin && t <= b.tMin);
+    // The slack keeps a change of exactly maxDivisions (1.00 mm / 0.01 mm = 100.00000000000001) unflagged.
+    if (divisions > maxDivisions + 1e-9 && !marked) jumps.push({ index: i, fromMin: a.tMin, toMin: b.tMin, jumpMm, divisions });
+  }
+  return jumps;
+}

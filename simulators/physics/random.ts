@@ -1,0 +1,14 @@
+/** A uniform random number in [0, 1); injectable so noise is repeatable in tests. */
+export type Random = () => number;
+
+/** Small seeded generator (mulberry32) for repeatable demo noise. */
+export function seededRandom(seed: number): Random {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296;
+  };
+}

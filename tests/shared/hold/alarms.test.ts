@@ -1,0 +1,125 @@
+import { describe, expect, it } from 'vitest';
+import {
+  calibrationAlarm,
+  gaugeTravelAlarm,
+  loadDriftAlarm,
+  plateTiltState,
+  reactionCapacityAlarm,
+  signalLostAlarm,
+  stopLimitAlarm,
+  stopLimitMm,
+  tiltAlarm,
+} from '@shared/hold/alarms';
+
+const polar = (radiusMm: number, degrees: number, settlementMm: number) => ({
+  xMm: radiusMm * Math.cos((degrees * Math.PI) / 180),
+  yMm: radiusMm * Math.sin((degrees * Math.PI) / 180),
+  settlementMm,
+});
+
+describe('load drift (±2 % or a fixed kPa, whichever is larger — common practice, DOMAIN §D.1)', () => {
+  it('uses the fixed tolerance at low pressure and 2 % at high pressure', () => {
+    expect(loadDriftAlarm({ targetKpa: 100, actualKpa: 98.1 }).active).toBe(false);
+    const low = loadDriftAlarm({ targetKpa: 100, actualKpa: 97.9 });
+    expect(low).toMatchObject({ code: 'load-drift', active: true, limit: 2, unit: 'kPa' });
+    expect(low.value).toBeCloseTo(-2.1, 9);
+    expect(low.message).toMatch(/below the 100 kPa target: top up the pump/);
+    expect(loadDriftAlarm({ targetKpa: 300, actualKpa: 305 })).toMatchObject({ active: false, limit: 6 });
+    expect(loadDriftAlarm({ targetKpa: 300, actualKpa: 306.5 }).message).toMatch(/above .* let some pressure off/);
+  });
+
+  it('throws naming the field for bad input', () => {
+    expect(() => loadDriftAlarm({ targetKpa: 100, actualKpa: Number.NaN })).toThrow(/^actualKpa:/);
+  });
+});
+
+describe('plate tilt (DOMAIN §C11 check values, calc; thresholds DOMAIN §D.3, common practice)', () => {
+  it('two gauges 280 mm apart at 4.20 and 3.40 mm: mean 3.800 mm, tilt 0.002857 rad = 0.1637° ≈ 1:350', () => {
+    const state = plateTiltState([polar(140, 0, 4.2), polar(140, 180, 3.4)]);
+    expect(state.meanSettlementMm).toBeCloseTo(3.8, 9);
+    expect(state.spreadMm).toBeCloseTo(0.8, 9);
+    expect(state.tilt.radians).toBeCloseTo(0.002857, 6);
+    expect(state.tilt.degrees).toBeCloseTo(0.1637, 4);
+    expect(state.tilt.oneIn).toBeCloseTo(350, 6);
+  });
+
+  it('three gauges at 140 mm, 90°/210°/330°, reading 3.90/3.60/3.30: tilt 0.002474 rad', () => {
+    const state = plateTiltState([polar(140, 90, 3.9), polar(140, 210, 3.6), polar(140, 330, 3.3)]);
+    expect(state.meanSettlementMm).toBeCloseTo(3.6, 9);
+    expect(state.tilt.radians).toBeCloseTo(0.002474, 6);
+  });
+
+  it('warns on the C11 pair: 0.80 mm apart is more than 20 % of 3.80 mm and more than 0.5 mm', () => {
+    const alarm = tiltAlarm({ gauges: [polar(140, 0, 4.2), polar(140, 180, 3.4)] });
+    expect(alarm).toMatchObject({ code: 'plate-tilt', active: true, unit: 'mm' });
+    expect(alarm.value).toBeCloseTo(0.8, 9);
+    expect(alarm.limit).toBeCloseTo(0.76, 9);
+    expect(alarm.message).toContain('1:350');
+  });
+
+  it('does not warn on the C11 triple: 0.60 mm apart is less than 20 % of 3.60 mm', () => {
+    expect(tiltAlarm({ gauges: [polar(140, 90, 3.9), polar(140, 210, 3.6), polar(140, 330, 3.3)] }).active).toBe(false);
+  });
+
+  it('needs both parts of the spread test: a small settlement with 0.4 mm spread does not warn', () => {
+    expect(tiltAlarm({ gauges: [polar(300, 0, 1.2), polar(300, 180, 0.8)] }).active).toBe(false);
+  });
+
+  it('warns on a tilt beyond 1:100 alone, reporting the tilt', () => {
+    // 4 mm over 280 mm is 1:70; the spread limit is max(20 % of 30 mm, 0.5 mm) = 6 mm, not exceeded.
+    const alarm = tiltAlarm({ gauges: [polar(140, 0, 32), polar(140, 180, 28)] });
+    expect(alarm).toMatchObject({ active: true, unit: 'rad' });
+    expect(alarm.value).toBeCloseTo(Math.atan(4 / 280), 12);
+  });
+
+  it('needs two gauges', () => {
+    expect(() => tiltAlarm({ gauges: [polar(140, 0, 1)] })).toThrow(/^gauges:/);
+  });
+});
+
+describe('gauge travel (warn at 85 % — common practice, DOMAIN §D.3)', () => {
+  it('counts used travel in the direction the gauge moves', () => {
+    expect(gaugeTravelAlarm({ gauge: 'G1', readingMm: 20, travelMm: 25, sign: 1 })).toMatchObject({ active: false, subject: 'G1', value: 80, limit: 85 });
+    expect(gaugeTravelAlarm({ gauge: 'G1', readingMm: 21.5, travelMm: 25, sign: 1 })).toMatchObject({ active: true, severity: 'warning', value: 86 });
+    expect(gaugeTravelAlarm({ gauge: 'G2', readingMm: 3, travelMm: 25, sign: -1 })).toMatchObject({ active: true, value: 88 });
+    expect(gaugeTravelAlarm({ gauge: 'G2', readingMm: 0, travelMm: 25, sign: -1 })).toMatchObject({ active: true, severity: 'critical' });
+    expect(gaugeTravelAlarm({ gauge: 'G1', readingMm: 20, travelMm: 25, sign: 1, warnFraction: 0.8 }).active).toBe(true);
+  });
+});
+
+describe('stop limit', () => {
+  it('takes the smaller of the settlement limit and the fraction of plate width', () => {
+    expect(stopLimitMm({ maxSettlementMm: 25, maxSettlementFractionOfWidth: 0 }, 300)).toBe(25);
+    expect(stopLimitMm({ maxSettlementMm: 25, maxSettlementFractionOfWidth: 0.1 }, 150)).toBe(15);
+  });
+
+  it('is active when the mean settlement reaches it (25 mm — common practice)', () => {
+    expect(stopLimitAlarm({ meanSettlementMm: 24.99, stopLimitMm: 25 }).active).toBe(false);
+    expect(stopLimitAlarm({ meanSettlementMm: 25, stopLimitMm: 25 })).toMatchObject({ active: true, severity: 'critical' });
+  });
+});
+
+describe('reaction capacity (90 % — common practice, DOMAIN §D.2)', () => {
+  it('warns at 90 % and is critical at 100 %', () => {
+    expect(reactionCapacityAlarm({ jackForceKn: 89.9, capacityKn: 100 }).active).toBe(false);
+    expect(reactionCapacityAlarm({ jackForceKn: 90, capacityKn: 100 })).toMatchObject({ active: true, severity: 'warning' });
+    expect(reactionCapacityAlarm({ jackForceKn: 101, capacityKn: 100 })).toMatchObject({ active: true, severity: 'critical' });
+  });
+});
+
+describe('signal lost (alarm within 2 s — QUALITY R3)', () => {
+  it('is active after more than 2 s without a sample, or before the first', () => {
+    expect(signalLostAlarm({ channel: 'pressure', lastSampleAtMs: 10_000, nowMs: 11_500 }).active).toBe(false);
+    expect(signalLostAlarm({ channel: 'pressure', lastSampleAtMs: 10_000, nowMs: 12_500 })).toMatchObject({ active: true, value: 2.5, unit: 's' });
+    expect(signalLostAlarm({ channel: 'G1', lastSampleAtMs: null, nowMs: 0 })).toMatchObject({ active: true, value: null });
+  });
+});
+
+describe('calibration', () => {
+  const day = 86_400_000;
+  it('is active past the due date or with no calibration on record', () => {
+    expect(calibrationAlarm({ instrument: 'Jack J-2', dueAtMs: 10 * day, nowMs: 11 * day })).toMatchObject({ active: true, value: 1 });
+    expect(calibrationAlarm({ instrument: 'Jack J-2', dueAtMs: null, nowMs: 0 }).active).toBe(true);
+    expect(calibrationAlarm({ instrument: 'Jack J-2', dueAtMs: 30 * day, nowMs: 11 * day }).message).toMatch(/due in 19 day/);
+  });
+});
