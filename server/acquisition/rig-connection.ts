@@ -1,0 +1,106 @@
+/**
+ * One rig's live connection: a device reader per serial channel (devices/), each sample passed
+ * through the channel instrument's calibration. Everything above it (run engine, device check page)
+ * sees calibrated channel readings, never bytes.
+ */
+import path from 'node:path';
+import createDebug from 'debug';
+import { createDeviceReader } from '../../devices/readers/create-reader';
+import type { DeviceReader } from '../../devices/readers/device-reader';
+import type { DeviceStats } from '../../devices/readers/sample-channel';
+import { applyCalibration } from '../../shared/calibration/evaluate';
+import type { Calibration } from '../../shared/calibration/schema';
+import { DEFAULT_DEVICE_PROFILES } from '../../shared/devices/default-profiles';
+import type { DeviceProfile, DeviceSample, SampleStatus } from '../../shared/devices/schema';
+import type { RigChannelInput } from '../../shared/schemas/instruments';
+import { ROOT_DIR } from '../config';
+
+const debug = createDebug('sscope:acquisition');
+
+/** A calibrated reading of one rig channel. */
+export interface ChannelReading {
+  channelIndex: number;
+  key: string;
+  role: RigChannelInput['role'];
+  /** Wall-clock time of the sample, ms since the epoch (monotonic within the process). */
+  wallMs: number;
+  /** The device's reading in its profile unit (mm for gauges); null when none was trusted. */
+  raw: number | null;
+  /** Calibrated value (mm for gauges, the transducer's pressure unit, kN for load cells); null when none. */
+  value: number | null;
+  status: SampleStatus;
+  deviceSeq: number;
+}
+
+export interface ChannelHealth extends DeviceStats {
+  key: string;
+  port: string;
+}
+
+export function findDeviceProfile(id: string): DeviceProfile | undefined {
+  return DEFAULT_DEVICE_PROFILES.find((p) => p.id === id);
+}
+
+/** The engineering unit a channel's calibrated value is in. */
+export function channelUnit(channel: RigChannelInput, calibration: Calibration | undefined): string {
+  if (calibration) return calibration.outputUnit;
+  const profile = findDeviceProfile(channel.profileId);
+  if (channel.role === 'gauge' || !profile) return 'mm';
+  return profile.protocol === 'modbus-rtu' ? profile.unit : 'mm';
+}
+
+/** Port paths may be given relative to the project folder (the simulated rig's are). */
+export const resolvePort = (port: string) => (path.isAbsolute(port) ? port : path.join(ROOT_DIR, port));
+
+export interface RigConnectionOptions {
+  channels: RigChannelInput[];
+  /** Calibration in force per instrument id (absent: the device's value is taken as it is). */
+  calibrations: Map<number, Calibration>;
+  onReading: (reading: ChannelReading) => void;
+}
+
+export class RigConnection {
+  private readers: { key: string; port: string; reader: DeviceReader }[] = [];
+
+  constructor(private readonly options: RigConnectionOptions) {}
+
+  start(): void {
+    this.options.channels.forEach((channel, channelIndex) => {
+      const profile = findDeviceProfile(channel.profileId);
+      if (!profile || !channel.port) return; // manual channel
+      const calibration = channel.instrumentId != null ? this.options.calibrations.get(channel.instrumentId) : undefined;
+      const port = resolvePort(channel.port);
+      const reader = createDeviceReader(profile, {
+        deviceId: channel.key,
+        channel: channel.key,
+        path: port,
+        onSample: (s) => this.options.onReading(toReading(s, channelIndex, channel, calibration)),
+      });
+      this.readers.push({ key: channel.key, port, reader });
+      debug('reading %s on %s (%s)', channel.key, port, profile.id);
+      reader.start();
+    });
+  }
+
+  async stop(): Promise<void> {
+    await Promise.all(this.readers.map((r) => r.reader.stop()));
+    this.readers = [];
+  }
+
+  health(): ChannelHealth[] {
+    return this.readers.map(({ key, port, reader }) => ({ key, port, ...reader.stats() }));
+  }
+}
+
+function toReading(s: DeviceSample, channelIndex: number, channel: RigChannelInput, calibration: Calibration | undefined): ChannelReading {
+  const raw = s.status === 'ok' && s.value !== undefined ? s.value : null;
+  let value: number | null = null;
+  if (raw !== null) {
+    try {
+      value = calibration ? applyCalibration(calibration, raw) : raw;
+    } catch {
+      value = null; // outside what the calibration can say: never a guessed number
+    }
+  }
+  return { channelIndex, key: channel.key, role: channel.role, wallMs: s.t, raw, value: value !== null && Number.isFinite(value) ? value : null, status: raw !== null && value === null ? 'rejected' : s.status, deviceSeq: s.seq };
+}
