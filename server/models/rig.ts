@@ -9,6 +9,7 @@ export class Rig extends Model<InferAttributes<Rig>, InferCreationAttributes<Rig
   declare channels: RigChannelInput[];
   declare jackInstrumentId: number | null;
   declare notes: string;
+  declare simulator: RigDto['simulator'];
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -20,6 +21,7 @@ export class Rig extends Model<InferAttributes<Rig>, InferCreationAttributes<Rig
       channels: this.channels,
       jackInstrumentId: this.jackInstrumentId,
       notes: this.notes,
+      simulator: this.simulator ?? null,
       createdAt: this.createdAt.toISOString(),
       updatedAt: this.updatedAt.toISOString(),
     };
@@ -34,6 +36,7 @@ export class Rig extends Model<InferAttributes<Rig>, InferCreationAttributes<Rig
         channels: jsonColumn('channels'),
         jackInstrumentId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+        simulator: jsonColumn('simulator', true),
         createdAt: DataTypes.DATE(3),
         updatedAt: DataTypes.DATE(3),
       },

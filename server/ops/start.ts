@@ -11,6 +11,7 @@ import { startServer } from '../main';
 import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../seed/demo';
 import { loadOrCreateSecrets } from './local-state';
 import { ensureDatabase, ensureMariadbInstalled, startMariadb } from './mariadb';
+import { startSimulator, upsertDemoRig } from './simulated-rig';
 
 const dev = process.argv.includes('--dev');
 const base = defaultConfig();
@@ -67,6 +68,15 @@ try {
     cleanups.push(() => server.close());
     if (await seedDemo()) console.log('Demo data seeded.');
     url = `${server.url}/`;
+  }
+
+  if (process.env.SSCOPE_SIMULATOR !== '0') {
+    const scenario = process.env.SSCOPE_SIM_SCENARIO ?? 'dense-sand';
+    const speed = Number(process.env.SSCOPE_SIM_SPEED ?? 60);
+    const sim = await startSimulator({ scenario, speed, gauges: 3, controlPort: Number(process.env.SSCOPE_SIM_PORT ?? 8091), dir: '.data/pty', name: 'demo' });
+    cleanups.push(() => sim.stop());
+    await upsertDemoRig(sim);
+    console.log(`Simulated rig: ${scenario} at ×${speed}, ports in .data/pty/, control ${sim.controlUrl}`);
   }
 
   console.log(`\nSettlescope is running at ${url}\n\nDemo sign-ins (password "${DEMO_PASSWORD}" for each):`);

@@ -89,6 +89,14 @@ export const rigInput = z
     /** The jack whose calibration turns oil pressure into force. */
     jackInstrumentId: z.number().int().positive().nullable().default(null),
     notes: optionalText(2000),
+    /** A simulated rig: its control channel (127.0.0.1 only) and time acceleration; null for real kit. */
+    simulator: z
+      .object({
+        controlUrl: z.string().regex(/^http:\/\/127\.0\.0\.1:\d{2,5}$/, 'must be http://127.0.0.1:<port>'),
+        speed: z.number().min(1).max(1000),
+      })
+      .nullable()
+      .default(null),
   })
   .superRefine((rig, ctx) => {
     const seen = new Set<string>();

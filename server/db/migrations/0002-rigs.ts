@@ -10,6 +10,7 @@ export async function up(qi: QueryInterface): Promise<void> {
     channels: { type: DataTypes.JSON, allowNull: false },
     jack_instrument_id: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true, references: { model: 'instruments', key: 'id' }, onDelete: 'SET NULL' },
     notes: { type: DataTypes.TEXT, allowNull: false },
+    simulator: { type: DataTypes.JSON, allowNull: true },
     created_at: { type: DataTypes.DATE(3), allowNull: false },
     updated_at: { type: DataTypes.DATE(3), allowNull: false },
   });
