@@ -16,6 +16,8 @@ import { instrumentRoutes } from './routes/instruments';
 import { planRoutes } from './routes/plans';
 import { projectRoutes } from './routes/projects';
 import { rigRoutes } from './routes/rigs';
+import { runRoutes } from './routes/runs';
+import type { RunManager } from './runs/run-manager';
 import { sitePlanRoutes } from './routes/site-plans';
 import { userRoutes } from './routes/users';
 
@@ -39,7 +41,12 @@ function loginLimiter(config: ServerConfig): RequestHandler[] {
   ];
 }
 
-export function createApp(sequelize: Sequelize, config: ServerConfig, hooks: { onSignOut?: (sid: string) => void } = {}): AppParts {
+export interface AppDeps {
+  runs: RunManager;
+  onSignOut?: (sid: string) => void;
+}
+
+export function createApp(sequelize: Sequelize, config: ServerConfig, deps: AppDeps): AppParts {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', config.secureCookies ? 1 : false);
@@ -68,13 +75,14 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, hooks: { o
   api.use('/api', express.json({ limit: '2mb' }), ...sessionMiddleware, csrf.csrfSynchronisedProtection);
   const routes: RouteSpec[] = [
     ...healthRoutes(sequelize),
-    ...authRoutes({ passport, loginLimiter: loginLimiter(config), onSignOut: hooks.onSignOut }),
+    ...authRoutes({ passport, loginLimiter: loginLimiter(config), onSignOut: deps.onSignOut }),
     ...userRoutes,
     ...projectRoutes,
     ...sitePlanRoutes(config.dataDir),
     ...planRoutes,
     ...instrumentRoutes(config.dataDir),
     ...rigRoutes,
+    ...runRoutes(deps.runs),
   ];
   mount(api, routes);
   api.use('/api', (_req, _res, next) => next(new HttpError(404, 'not_found', 'No such API route.')));

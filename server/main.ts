@@ -7,13 +7,16 @@ import type { ServerConfig } from './config';
 import { migrate } from './db/migrator';
 import { initModels } from './db/models';
 import { createSequelize } from './db/sequelize';
-import { socketEvents } from './realtime/events';
+import { runRoom, socketEvents } from './realtime/events';
+import { RunManager } from './runs/run-manager';
+import { toBatch } from './runs/samples-query';
 import { type SocketEventSpec, createSocketServer } from './realtime/socket-server';
 
 export interface RunningServer {
   url: string;
   port: number;
   sequelize: Sequelize;
+  runs: RunManager;
   routes: AppParts['routes'];
   socketEvents: SocketEventSpec[];
   close(): Promise<void>;
@@ -24,14 +27,20 @@ export async function startServer(config: ServerConfig): Promise<RunningServer> 
   const sequelize = createSequelize(config.db);
   initModels(sequelize);
   await migrate(sequelize);
-  let disconnectSession: (sid: string) => void = () => {};
-  const parts = createApp(sequelize, config, { onSignOut: (sid) => disconnectSession(sid) });
+  let sockets: ReturnType<typeof createSocketServer> | null = null;
+  const runs = new RunManager({
+    sequelize,
+    dataDir: config.dataDir,
+    pushView: (runId, view) => sockets?.io.to(runRoom(runId)).emit('run:view', view),
+    pushSamples: (runId, rows) => sockets?.io.to(runRoom(runId)).emit('run:samples', toBatch(runId, rows)),
+  });
+  const parts = createApp(sequelize, config, { runs, onSignOut: (sid) => sockets?.disconnectSession(sid) });
   const server = http.createServer(parts.app);
-  const sockets = createSocketServer(server, parts.sessionMiddleware);
-  const monitor = new RigMonitor(sockets.io);
-  const events = socketEvents(monitor);
+  sockets = createSocketServer(server, parts.sessionMiddleware);
+  const monitor = new RigMonitor(sockets.io, (rigId) => runs.rigBusy(rigId));
+  const events = socketEvents(monitor, runs, sockets.io);
   sockets.handle(events);
-  disconnectSession = sockets.disconnectSession;
+  await runs.resumeAll();
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
     server.listen(config.port, config.host, () => resolve());
@@ -41,11 +50,13 @@ export async function startServer(config: ServerConfig): Promise<RunningServer> 
     url: `http://${config.host}:${port}`,
     port,
     sequelize,
+    runs,
     routes: parts.routes,
     socketEvents: events,
     close: async () => {
       await monitor.closeAll();
-      await sockets.close();
+      await runs.stopAll();
+      await sockets?.close();
       parts.close();
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));

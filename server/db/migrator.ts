@@ -2,6 +2,7 @@ import { type QueryInterface, Sequelize } from 'sequelize';
 import { SequelizeStorage, Umzug } from 'umzug';
 import * as initial from './migrations/0001-initial';
 import * as rigs from './migrations/0002-rigs';
+import * as runRig from './migrations/0003-run-rig';
 
 export interface Migration {
   up(qi: QueryInterface, S: typeof Sequelize): Promise<void>;
@@ -12,6 +13,7 @@ export interface Migration {
 const MIGRATIONS: [string, Migration][] = [
   ['0001-initial', initial],
   ['0002-rigs', rigs],
+  ['0003-run-rig', runRig],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

@@ -5,6 +5,8 @@ import { Instrument } from '../models/instrument';
 import { Organization } from '../models/organization';
 import { Project } from '../models/project';
 import { Rig } from '../models/rig';
+import { Run } from '../models/run';
+import { RunEvent } from '../models/run-event';
 import { defineSessionModel } from '../models/session';
 import { TestLocation } from '../models/test-location';
 import { TestPlan } from '../models/test-plan';
@@ -12,7 +14,7 @@ import { User } from '../models/user';
 
 /** Initialises every model on one Sequelize instance, then wires the associations. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry, Instrument, CalibrationRecord, Rig]) model.initModel(sequelize);
+  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry, Instrument, CalibrationRecord, Rig, Run, RunEvent]) model.initModel(sequelize);
   defineSessionModel(sequelize);
   Organization.hasMany(User, { foreignKey: 'organizationId' });
   User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });

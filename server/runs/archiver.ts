@@ -35,7 +35,7 @@ export class Archiver {
   healthy = true;
 
   constructor(
-    private readonly sequelize: Sequelize,
+    readonly sequelize: Sequelize,
     private readonly options: ArchiverOptions = {},
   ) {}
 

@@ -82,6 +82,27 @@ export async function seedDemo(): Promise<boolean> {
       );
     await sandPlan(pit1.id);
     await sandPlan(pit2.id);
+    // A pit set up for the simulated rig (a 300 mm plate, as the simulator's grounds are quoted for).
+    const demoPit = await TestLocation.create(
+      { projectId: kestrel.id, pitId: 'PLT-03', latitude: null, longitude: null, planX: 0.5, planY: 0.7, testDepthM: 1.5, waterTableDepthM: 4.0, pitWidthM: 1.6, soilDescription: 'Dense brown sandy GRAVEL (demo pit for the simulated rig)', notes: '' },
+      { transaction: t },
+    );
+    await TestPlan.create(
+      {
+        locationId: demoPit.id,
+        ...planColumns(
+          planFrom('bearing-granular', 'Bearing test, 300 mm plate (simulated rig)', {
+            plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
+            apparatusWeightKn: 0.5,
+            loading: { mode: 'list', pressuresKpa: [100, 200, 300, 400, 500, 600, 700] },
+            holdRule: { kind: 'rate', maxRateMmPerMin: 0.02, windowMin: 5, minHoldMin: 10 },
+            reaction: { kind: 'kentledge', capacityKn: 100, description: '10 t of concrete blocks on timber mats' },
+            footing: { shape: 'square', widthM: 2, lengthM: null, soilBehaviour: 'cohesionless' },
+          }),
+        ),
+      },
+      { transaction: t },
+    );
 
     const fenwick = await Project.create(
       { code: 'FM-AR7', name: 'Fenwick Moor access road, chainage 0–1,200', organizationId: orgs.get('Fenwick Moor District Council')!.id, site: 'Fenwick Moor', address: 'Moor Lane, Fenwick', notes: 'Formation and capping checks before the sub-base.' },
@@ -129,7 +150,7 @@ async function seedInstruments(t: import('sequelize').Transaction) {
     // Gauges: reading = displacement; transducer: bar in = bar out; jacks: oil pressure (MPa) → force (kN).
     const method =
       fields.kind === 'jack'
-        ? { inputUnit: 'MPa' as const, outputUnit: 'kN' as const, curve: fields.serialNumber === 'JK-50-031' ? { kind: 'linear' as const, c0: 0.35, c1: 4.92 } : { kind: 'linear' as const, c0: 0.1, c1: 2.27 } }
+        ? { inputUnit: 'MPa' as const, outputUnit: 'kN' as const, curve: fields.serialNumber === 'JK-50-031' ? { kind: 'linear' as const, c0: 0, c1: 4.926 } : { kind: 'linear' as const, c0: 0.1, c1: 2.27 } }
         : fields.kind === 'pressure'
           ? { inputUnit: 'bar' as const, outputUnit: 'bar' as const, curve: { kind: 'linear' as const, c0: 0, c1: 1.0 } }
           : { inputUnit: 'mm' as const, outputUnit: 'mm' as const, curve: { kind: 'linear' as const, c0: 0, c1: 1.0 } };

@@ -1,6 +1,7 @@
 /** Typed socket.io events between the server and browsers (the gateway link uses `ws`, not these). */
 import { z } from 'zod';
 import type { SampleStatus } from '../devices/schema';
+import type { RunView } from '../schemas/runs';
 
 export const rigWatchInput = z.object({ rigId: z.number().int().positive() });
 export const runJoinInput = z.object({ runId: z.number().int().positive(), afterSeq: z.number().int().min(0).default(0) });
@@ -34,11 +35,24 @@ export interface RigLive {
 
 export type Ack = { ok: true } | { ok: false; error: string };
 
+/** Samples in columns (seq, run time ms, channel index, value in micro-units or null). */
+export interface SampleBatch {
+  runId: number;
+  seq: number[];
+  t: number[];
+  channel: number[];
+  value: (number | null)[];
+}
+
 export interface ServerToClientEvents {
   'rig:live': (live: RigLive) => void;
+  'run:view': (view: RunView) => void;
+  'run:samples': (batch: SampleBatch) => void;
 }
 
 export interface ClientToServerEvents {
   'rig:watch': (input: z.input<typeof rigWatchInput>, ack: (result: Ack) => void) => void;
   'rig:unwatch': (input: z.input<typeof rigWatchInput>, ack: (result: Ack) => void) => void;
+  'run:join': (input: z.input<typeof runJoinInput>, ack: (result: Ack) => void) => void;
+  'run:leave': (input: z.input<typeof runJoinInput>, ack: (result: Ack) => void) => void;
 }

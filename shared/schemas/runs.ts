@@ -1,3 +1,7 @@
+import type { AlarmRecord } from '../hold/alarm-lifecycle';
+import type { NextStepPrompt } from '../hold/next-step';
+import type { HoldEvaluation } from '../hold/verdict';
+import type { PlannedStage } from '../plans/stages';
 import { z } from 'zod';
 import { idSchema, requiredText } from './common';
 
@@ -54,3 +58,47 @@ export const runCommandEnvelope = z.object({
 });
 
 export const runParams = z.object({ id: idSchema });
+
+
+/** A run as the console shows it: one authoritative snapshot, pushed on every change. */
+export interface RunView {
+  id: number;
+  planId: number;
+  planName: string;
+  procedureId: string;
+  rigId: number | null;
+  rigName: string;
+  manual: boolean;
+  phase: RunPhase;
+  version: number;
+  stageIndex: number;
+  stages: PlannedStage[];
+  controller: { id: number; name: string } | null;
+  calibrationOverride: { by: string; reason: string; atMs: number } | null;
+  overdueInstruments: string[];
+  closedReason: string | null;
+  clock: { nowMs: number; speed: number };
+  stageStartedAtMs: number | null;
+  holdStartedAtMs: number | null;
+  holdMetAtMs: number | null;
+  live: {
+    atMs: number | null;
+    pressureKpa: number | null;
+    plateForceKn: number | null;
+    jackForceKn: number | null;
+    oilPressure: number | null;
+    oilUnit: string | null;
+    pressureProblem: string | null;
+    meanSettlementMm: number | null;
+    tiltSlope: number | null;
+    spreadMm: number | null;
+    gauges: { key: string; label: string; readingMm: number | null; settlementMm: number | null; travelMm: number | null }[];
+  };
+  hold: HoldEvaluation | null;
+  /** While pumping: the current target; once the hold is met: the next one (null after the last stage). */
+  prompt: NextStepPrompt | null;
+  nextReading: { atMin: number; inMin: number } | null;
+  alarms: AlarmRecord[];
+  watchers: { id: number; name: string; role: string }[];
+  lastSeq: number;
+}

@@ -8,6 +8,7 @@ import { initModels } from '../../server/db/models';
 import { createSequelize } from '../../server/db/sequelize';
 import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../../server/seed/demo';
 import type { Role } from '../../shared/schemas/users';
+import { RunManager } from '../../server/runs/run-manager';
 import { freshDatabase } from './test-database';
 
 export interface TestApp extends AppParts {
@@ -23,12 +24,14 @@ export async function startTestApp(overrides: Partial<ServerConfig> = {}): Promi
   initModels(sequelize);
   await migrate(sequelize);
   await seedDemo();
-  const parts = createApp(sequelize, config);
+  const runs = new RunManager({ sequelize, dataDir: config.dataDir, pushView: () => {}, pushSamples: () => {} });
+  const parts = createApp(sequelize, config, { runs });
   return {
     ...parts,
     config,
     sequelize,
     stop: async () => {
+      await runs.stopAll();
       parts.close();
       await sequelize.close();
     },
@@ -41,7 +44,7 @@ export const demoEmail = (role: Role) => DEMO_USERS.find((u) => u.role === role)
 export class Client {
   readonly agent;
   token = '';
-  constructor(app: Express) {
+  constructor(app: Express | string) {
     this.agent = request.agent(app);
   }
   async csrf() {

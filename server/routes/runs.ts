@@ -1,0 +1,112 @@
+import { z } from 'zod';
+import { idParams } from '../../shared/schemas/common';
+import { runCommandEnvelope, runCreateInput } from '../../shared/schemas/runs';
+import { STAFF } from '../auth/permissions';
+import { HttpError, notFound } from '../http/errors';
+import { route } from '../http/route';
+import { Rig } from '../models/rig';
+import { Run } from '../models/run';
+import { RunEvent } from '../models/run-event';
+import { TestLocation } from '../models/test-location';
+import { TestPlan } from '../models/test-plan';
+import { Project } from '../models/project';
+import { CommandRefused } from '../runs/run-engine';
+import type { RunManager } from '../runs/run-manager';
+import { samplesAfter, toBatch } from '../runs/samples-query';
+
+const actorOf = (user: { id: number; name: string; role: 'admin' | 'engineer' | 'operator' | 'client' }) => ({ id: user.id, name: user.name, role: user.role });
+
+export const runRoutes = (runs: RunManager) => [
+  route({
+    method: 'get',
+    path: '/api/runs',
+    access: STAFF,
+    summary: 'Runs, newest first, with their plan, location and rig',
+    handler: async () => {
+      const all = await Run.findAll({ order: [['id', 'DESC']], limit: 200 });
+      const plans = new Map((await TestPlan.findAll({ where: { id: [...new Set(all.map((r) => r.planId))] }, include: [{ model: TestLocation, as: 'location', include: [{ model: Project, as: 'project' }] }] })).map((p) => [p.id, p]));
+      const rigs = new Map((await Rig.findAll()).map((r) => [r.id, r.name]));
+      return {
+        items: all.map((r) => {
+          const plan = plans.get(r.planId);
+          const engine = runs.engine(r.id);
+          const view = engine?.isActive ? engine.view() : null;
+          return {
+            id: r.id,
+            phase: r.status,
+            planId: r.planId,
+            planName: plan?.name ?? '',
+            pitId: plan?.location?.pitId ?? '',
+            projectCode: plan?.location?.project?.code ?? '',
+            rigName: r.rigId ? (rigs.get(r.rigId) ?? '') : '',
+            stageIndex: r.state.lifecycle.stageIndex,
+            stageCount: view?.stages.length ?? null,
+            verdict: view?.hold?.verdict ?? null,
+            activeAlarms: view ? view.alarms.filter((a) => a.state === 'unacknowledged').length : 0,
+            startedAt: r.startedAt?.toISOString() ?? null,
+            finishedAt: r.finishedAt?.toISOString() ?? null,
+          };
+        }),
+      };
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/runs',
+    access: STAFF,
+    summary: 'Set up a run of a plan on a rig',
+    body: runCreateInput,
+    handler: ({ body, user }) => runs.create(body.planId, body.rigId, actorOf(user!)),
+  }),
+  route({
+    method: 'get',
+    path: '/api/runs/:id',
+    access: STAFF,
+    summary: 'A run as the console shows it',
+    params: idParams,
+    handler: ({ params }) => {
+      const engine = runs.engine(params.id);
+      if (!engine) throw notFound('Run (not loaded on this server)');
+      return engine.view();
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/runs/:id/commands',
+    access: STAFF,
+    summary: 'Send a command to a run (quoting the version it was decided on)',
+    status: 200,
+    params: idParams,
+    body: runCommandEnvelope,
+    handler: async ({ params, body, user }) => {
+      const engine = runs.engine(params.id);
+      if (!engine) throw notFound('Run');
+      try {
+        return await engine.command(body.command, actorOf(user!), body.version);
+      } catch (err) {
+        if (err instanceof CommandRefused) throw new HttpError(err.code === 'conflict' ? 409 : err.code === 'forbidden' ? 403 : 400, `command_${err.code}`, err.message);
+        throw err;
+      }
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/runs/:id/events',
+    access: STAFF,
+    summary: 'Everything that happened in a run',
+    params: idParams,
+    handler: async ({ params }) => ({ items: (await RunEvent.findAll({ where: { runId: params.id }, order: [['id', 'ASC']] })).map((e) => e.toDto()) }),
+  }),
+  route({
+    method: 'get',
+    path: '/api/runs/:id/samples',
+    access: STAFF,
+    summary: 'Archived samples after a sequence number, in columns',
+    params: idParams,
+    query: z.object({ afterSeq: z.coerce.number().int().min(0).default(0), limit: z.coerce.number().int().min(1).max(100_000).default(10_000) }),
+    handler: async ({ params, query }) => {
+      if (!(await Run.findByPk(params.id))) throw notFound('Run');
+      return toBatch(params.id, await samplesAfter(Run.sequelize!, params.id, query.afterSeq, query.limit));
+    },
+  }),
+];

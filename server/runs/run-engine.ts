@@ -1,0 +1,427 @@
+/**
+ * One running test: reads its rig, journals and archives every sample, judges the hold, keeps the
+ * alarms, and applies people's commands through the pure lifecycle reducer. It is the single
+ * authority over its run's state; everything it decides is persisted and pushed to watchers.
+ */
+import createDebug from 'debug';
+import { plateForceKn } from '../../shared/domain/plate';
+import { type AlarmAction, alarmKey, reduceAlarm } from '../../shared/hold/alarm-lifecycle';
+import { type Alarm, gaugeTravelAlarm, loadDriftAlarm, reactionCapacityAlarm, signalLostAlarm, stopLimitAlarm, stopLimitMm, tiltAlarm } from '../../shared/hold/alarms';
+import { evaluateHold } from '../../shared/hold/evaluate';
+import { nextStepPrompt } from '../../shared/hold/next-step';
+import { nextReadingDue } from '../../shared/hold/schedule';
+import type { HoldEvaluation } from '../../shared/hold/verdict';
+import type { PlannedStage } from '../../shared/plans/stages';
+import { type Actor, type RunEventDraft, type RunState, applyCommand, applyObservation } from '../../shared/runs/lifecycle';
+import { type MeasurementSetup, type Measurements, jackGaugePressure, measure } from '../../shared/runs/measurements';
+import { SAMPLE_STATUS, type SampleRow, toMicro } from '../../shared/runs/samples';
+import type { PlanInput } from '../../shared/schemas/plans';
+import { ACTIVE_PHASES, type RunCommand, type RunView } from '../../shared/schemas/runs';
+import { type ChannelReading, RigConnection, channelUnit } from '../acquisition/rig-connection';
+import type { RigContext } from '../acquisition/rig-context';
+import type { PersistedRun } from '../models/run';
+import type { Archiver } from './archiver';
+import type { Journal } from './journal';
+import { runTime } from './run-clock';
+
+const debug = createDebug('sscope:runs:engine');
+
+/** How the engine reaches the outside world; the run manager provides these. */
+export interface EngineIo {
+  archiver: Archiver;
+  journal: Journal;
+  /** Saves the persisted state and the new events in one transaction. */
+  save(runId: number, persisted: PersistedRun, events: RunEventDraft[]): Promise<void>;
+  pushView(runId: number, view: RunView): void;
+  pushSamples(runId: number, rows: SampleRow[]): void;
+  /** Sends an operator action to a simulated rig's control channel (demo rigs only). */
+  simulator?: (action: 'pump' | 'top-up' | 'release' | 'gauge-reset', body: object) => void;
+}
+
+export interface EngineSetup {
+  runId: number;
+  planId: number;
+  planName: string;
+  plan: PlanInput;
+  stages: PlannedStage[];
+  rig: RigContext;
+  persisted: PersistedRun;
+  overdueInstruments: string[];
+}
+
+export class CommandRefused extends Error {
+  constructor(
+    readonly code: 'conflict' | 'forbidden' | 'invalid',
+    message: string,
+  ) {
+    super(message);
+  }
+}
+
+const FLUSH_MS = 50;
+const EVALUATE_MS = 500;
+/** Hold-series points are kept at most this often (run time), so a 24-hour hold stays small. */
+const SERIES_STEP_MS = 2000;
+/** The target counts as reached within max(2 %, 2 kPa) (common practice, as the load-drift rule). */
+const reached = (actual: number, target: number) => Math.abs(actual - target) <= Math.max(0.02 * target, 2);
+
+export class RunEngine {
+  private persisted: PersistedRun;
+  private readonly connection: RigConnection | null;
+  private readonly latest = new Map<string, number | null>();
+  private readonly lastOkWallMs = new Map<string, number>();
+  private pending: SampleRow[] = [];
+  private series: { tMin: number; settlementMm: number }[] = [];
+  private lastSeriesMs = -Infinity;
+  private hold: HoldEvaluation | null = null;
+  private measurements: Measurements;
+  private readonly setupM: MeasurementSetup;
+  private readonly timers: NodeJS.Timeout[] = [];
+  private watchers = new Map<string, { id: number; name: string; role: string }>();
+  private reachedTicks = 0;
+  private closed = false;
+  private saving: Promise<void> = Promise.resolve();
+
+  constructor(
+    private readonly setup: EngineSetup,
+    private readonly io: EngineIo,
+  ) {
+    this.persisted = structuredClone(setup.persisted);
+    const pressureChannel = setup.rig.rig.channels.find((c) => c.role === 'pressure');
+    this.setupM = {
+      channels: setup.rig.rig.channels,
+      plate: setup.plan.plate,
+      apparatusWeightKn: setup.plan.apparatusWeightKn,
+      jack: setup.rig.jack?.calibration ?? null,
+      pressureUnit: pressureChannel ? channelUnit(pressureChannel, pressureChannel.instrumentId != null ? setup.rig.calibrations.get(pressureChannel.instrumentId) : undefined) : null,
+    };
+    this.measurements = this.measure();
+    this.connection = setup.rig.rig.mode === 'serial' ? new RigConnection({ channels: setup.rig.rig.channels, calibrations: setup.rig.calibrations, onReading: (r) => this.onReading(r) }) : null;
+  }
+
+  get runId() {
+    return this.setup.runId;
+  }
+  get state(): RunState {
+    return this.persisted.lifecycle;
+  }
+  get isActive() {
+    return ACTIVE_PHASES.includes(this.state.phase);
+  }
+  get rigId() {
+    return this.setup.rig.rig.id;
+  }
+
+  /** Starts reading. `restoredSeries` rebuilds the current hold's settlement–time series after a restart. */
+  start(restoredSeries: { tMin: number; settlementMm: number }[] = []): void {
+    this.series = restoredSeries;
+    this.connection?.start();
+    this.timers.push(setInterval(() => this.flush(), FLUSH_MS), setInterval(() => this.evaluate(), EVALUATE_MS));
+  }
+
+  /** Stops reading and waits until every sample is journaled, archived and the state saved. */
+  async stop(): Promise<void> {
+    if (this.closed) return;
+    this.closed = true;
+    for (const t of this.timers) clearInterval(t);
+    await this.connection?.stop();
+    this.flush();
+    await this.saving;
+    await this.save([]);
+    await this.io.archiver.drain();
+  }
+
+  nowMs(wallMs = Date.now()): number {
+    return runTime(this.persisted.clock, wallMs);
+  }
+
+  // ---------------------------------------------------------------- samples
+
+  private onReading(r: ChannelReading): void {
+    if (this.closed) return;
+    const tMs = Math.round(this.nowMs(r.wallMs));
+    const seq = ++this.persisted.lastSeq;
+    this.pending.push({ seq, tMs, channel: r.channelIndex, raw: r.raw === null ? null : toMicro(r.raw), value: r.value === null ? null : toMicro(r.value), status: SAMPLE_STATUS[r.status] });
+    if (r.value === null) return;
+    this.latest.set(r.key, r.value);
+    this.lastOkWallMs.set(r.key, r.wallMs);
+    this.persisted.lastSampleMs = tMs;
+    if (r.role === 'gauge') this.recordSettlement(tMs);
+  }
+
+  /** Manual mode: typed readings become samples like any other (raw = value: there is no device). */
+  private recordManual(command: Extract<RunCommand, { type: 'manual-reading' }>): void {
+    const wallMs = Date.now();
+    const channels = this.setup.rig.rig.channels;
+    for (const [index, c] of channels.entries()) {
+      const typed = c.role === 'gauge' ? command.gauges[c.key] : c.role === 'pressure' && command.pressureKpa !== undefined ? this.oilForPlatePressure(command.pressureKpa) : undefined;
+      if (typed === undefined || typed === null) continue;
+      this.onReading({ channelIndex: index, key: c.key, role: c.role, wallMs, raw: typed, value: typed, status: 'ok', deviceSeq: 0 });
+    }
+    this.flush();
+  }
+
+  /** A typed plate pressure, stored as the oil pressure that gives it (so every pressure sample means the same). */
+  private oilForPlatePressure(kpa: number): number | null {
+    const jack = this.setupM.jack;
+    if (!jack) return null;
+    return jackGaugePressure(jack)(Math.max(0, plateForceKn(this.setupM.plate, kpa) - this.setupM.apparatusWeightKn));
+  }
+
+  private recordSettlement(tMs: number): void {
+    const s = this.state;
+    this.measurements = this.measure();
+    const mean = this.measurements.meanSettlementMm;
+    if (mean === null || s.holdStartedAtMs === null || (s.phase !== 'holding' && s.phase !== 'hold-met')) return;
+    if (tMs - this.lastSeriesMs < SERIES_STEP_MS && this.setup.rig.rig.mode === 'serial') return;
+    this.lastSeriesMs = tMs;
+    this.series.push({ tMin: Math.max(0, (tMs - s.holdStartedAtMs) / 60_000), settlementMm: mean });
+  }
+
+  private flush(): void {
+    if (this.pending.length === 0) return;
+    const rows = this.pending;
+    this.pending = [];
+    try {
+      this.io.journal.append(rows); // on disk before anything else sees them
+    } catch (err) {
+      debug('journal append failed: %s', (err as Error).message);
+      this.pending = rows.concat(this.pending);
+      return;
+    }
+    this.io.archiver.enqueue(this.runId, rows);
+    this.io.pushSamples(this.runId, rows);
+  }
+
+  private measure(): Measurements {
+    return measure(this.setupM, this.latest, this.state.zeros, this.state.resetOffsets);
+  }
+
+  // ---------------------------------------------------------------- decisions
+
+  private evaluate(): void {
+    if (this.closed) return;
+    const now = this.nowMs();
+    this.measurements = this.measure();
+    const s = this.state;
+    const stage = this.setup.stages[s.stageIndex];
+    const q = this.measurements.pressureKpa;
+    const events: RunEventDraft[] = [];
+    const observe = (o: Parameters<typeof applyObservation>[1]) => {
+      const r = applyObservation(this.state, o, now);
+      if (r) {
+        this.persisted.lifecycle = r.state;
+        events.push(...r.events);
+      }
+    };
+
+    if (s.phase === 'pumping' && stage && q !== null && this.setup.rig.rig.mode === 'serial') {
+      this.reachedTicks = reached(q, stage.targetKpa) ? this.reachedTicks + 1 : 0;
+      if (this.reachedTicks >= 2) {
+        observe({ type: 'target-reached' });
+        this.series = [];
+        this.lastSeriesMs = -Infinity;
+        this.recordSettlement(now);
+      }
+    }
+    this.hold = null;
+    if ((this.state.phase === 'holding' || this.state.phase === 'hold-met') && this.state.holdStartedAtMs !== null && stage) {
+      const rule = stage.branch === 'seating' ? ({ kind: 'fixed', durationMin: 0.5 } as const) : this.setup.plan.holdRule;
+      try {
+        this.hold = evaluateHold(rule, this.series, {
+          nowMin: Math.max(0, (now - this.state.holdStartedAtMs) / 60_000),
+          stopLimitMm: this.stopLimit(),
+          maxHoldMin: this.setup.plan.termination.maxHoldMin,
+          procedureId: this.setup.plan.procedureId,
+          resolutionMm: 0.01,
+        });
+        if (this.hold.verdict === 'satisfied') observe({ type: 'hold-met' });
+      } catch (err) {
+        debug('hold evaluation: %s', (err as Error).message);
+      }
+    }
+    this.updateAlarms(now, events);
+    if (events.length > 0) this.queueSave(events);
+    this.io.pushView(this.runId, this.view());
+  }
+
+  private stopLimit(): number {
+    return stopLimitMm(this.setup.plan.termination, this.setup.plan.plate.sizeMm);
+  }
+
+  private currentAlarms(nowWall: number): Alarm[] {
+    const m = this.measurements;
+    const s = this.state;
+    const stage = this.setup.stages[s.stageIndex];
+    const alarms: Alarm[] = [];
+    const during = s.phase === 'holding' || s.phase === 'hold-met';
+    if (during && stage && m.pressureKpa !== null) alarms.push(loadDriftAlarm({ targetKpa: stage.targetKpa, actualKpa: m.pressureKpa }));
+    const placed = this.setup.rig.rig.channels.flatMap((c) => {
+      const g = m.gauges.find((x) => x.key === c.key);
+      return c.gauge && g?.settlementMm != null ? [{ xMm: c.gauge.xMm, yMm: c.gauge.yMm, settlementMm: g.settlementMm }] : [];
+    });
+    if (placed.length >= 2) alarms.push(tiltAlarm({ gauges: placed }));
+    for (const c of this.setup.rig.rig.channels) {
+      const reading = this.latest.get(c.key);
+      if (c.gauge && reading != null) alarms.push({ ...gaugeTravelAlarm({ gauge: c.key, readingMm: reading, travelMm: c.gauge.travelMm, sign: c.gauge.direction }) });
+      if (this.setup.rig.rig.mode === 'serial' && s.phase !== 'preparing') {
+        alarms.push(signalLostAlarm({ channel: c.key, lastSampleAtMs: this.lastOkWallMs.get(c.key) ?? null, nowMs: nowWall }));
+      }
+    }
+    if (m.meanSettlementMm !== null && s.phase !== 'preparing') alarms.push(stopLimitAlarm({ meanSettlementMm: m.meanSettlementMm, stopLimitMm: this.stopLimit() }));
+    if (m.jackForceKn !== null) alarms.push(reactionCapacityAlarm({ jackForceKn: m.jackForceKn, capacityKn: this.setup.plan.reaction.capacityKn }));
+    return alarms;
+  }
+
+  private updateAlarms(now: number, events: RunEventDraft[]): void {
+    const seen = new Set<string>();
+    const apply = (key: string, action: AlarmAction) => {
+      const r = reduceAlarm(this.persisted.alarms[key] ?? null, action);
+      if (!r.ok) return;
+      this.persisted.alarms[key] = r.record;
+      events.push({ kind: `alarm-${action.type}`, atMs: now, userId: null, payload: { key, message: r.record.alarm.message } });
+    };
+    for (const alarm of this.currentAlarms(Date.now())) {
+      const key = alarmKey(alarm);
+      seen.add(key);
+      const record = this.persisted.alarms[key];
+      if (alarm.active && (!record || record.state === 'cleared')) apply(key, { type: 'raise', atMs: now, alarm });
+      else if (!alarm.active && record && record.state !== 'cleared') apply(key, { type: 'clear', atMs: now });
+      else if (record && alarm.active) record.alarm = alarm; // keep the figures fresh
+      if (record?.state === 'shelved' && record.shelvedUntilMs !== null && now >= record.shelvedUntilMs) apply(key, { type: 'unshelve-expired', atMs: now });
+    }
+    for (const [key, record] of Object.entries(this.persisted.alarms)) {
+      if (!seen.has(key) && record.state !== 'cleared') apply(key, { type: 'clear', atMs: now });
+    }
+  }
+
+  // ---------------------------------------------------------------- commands
+
+  /** Applies a person's command, or throws CommandRefused with the reason. */
+  async command(command: RunCommand, actor: Actor, version: number): Promise<RunView> {
+    if (version !== this.state.version) throw new CommandRefused('conflict', `The run changed (now version ${this.state.version}); look again and retry.`);
+    const now = this.nowMs();
+    if (command.type === 'acknowledge-alarm' || command.type === 'shelve-alarm') this.alarmCommand(command, actor, now);
+    const gaugeReadings = Object.fromEntries(this.setup.rig.rig.channels.filter((c) => c.role === 'gauge' && this.latest.get(c.key) != null).map((c) => [c.key, this.latest.get(c.key)!]));
+    const r = applyCommand(this.state, command, { nowMs: now, actor, stages: this.setup.stages, gaugeReadings, overdueInstruments: this.setup.overdueInstruments });
+    if (!r.ok) throw new CommandRefused(r.code, r.message);
+    const before = this.state;
+    this.persisted.lifecycle = r.state;
+    if (command.type === 'manual-reading') this.recordManual(command);
+    if (r.state.stageIndex !== before.stageIndex || (before.phase === 'preparing' && r.state.phase === 'pumping')) {
+      this.series = [];
+      this.reachedTicks = 0;
+    }
+    if (command.type === 'stage-reached') this.recordSettlement(now);
+    this.drive(command, r.state);
+    await this.queueSave(r.events);
+    if (!this.isActive) void this.closeAfterCommand();
+    const view = this.view();
+    this.io.pushView(this.runId, view);
+    return view;
+  }
+
+  private alarmCommand(command: Extract<RunCommand, { type: 'acknowledge-alarm' | 'shelve-alarm' }>, actor: Actor, now: number): void {
+    const record = this.persisted.alarms[command.key];
+    const action: AlarmAction = command.type === 'acknowledge-alarm' ? { type: 'acknowledge', atMs: now, by: actor.name } : { type: 'shelve', atMs: now, by: actor.name, untilMs: now + command.minutes * 60_000, reason: command.reason };
+    const r = reduceAlarm(record ?? null, action);
+    if (!r.ok) throw new CommandRefused('invalid', r.error);
+    this.persisted.alarms[command.key] = r.record;
+  }
+
+  /** A simulated rig does what the operator's hands would do. */
+  private drive(command: RunCommand, state: RunState): void {
+    const sim = this.io.simulator;
+    if (!sim) return;
+    const stage = this.setup.stages[state.stageIndex];
+    if ((command.type === 'start' || command.type === 'advance') && stage) {
+      if (stage.targetKpa === 0) sim('release', {});
+      else sim('pump', { pressureKpa: stage.targetKpa });
+    } else if (command.type === 'top-up') sim('top-up', {});
+    else if (command.type === 'finish' || command.type === 'stop') sim('release', {});
+  }
+
+  private async closeAfterCommand(): Promise<void> {
+    await this.stop();
+  }
+
+  private queueSave(events: RunEventDraft[]): Promise<void> {
+    this.saving = this.saving.then(() => this.save(events)).catch((err) => debug('save failed: %s', (err as Error).message));
+    return this.saving;
+  }
+
+  private save(events: RunEventDraft[]): Promise<void> {
+    return this.io.save(this.runId, structuredClone(this.persisted), events);
+  }
+
+  // ---------------------------------------------------------------- views
+
+  setWatchers(watchers: { id: number; name: string; role: string }[]): void {
+    this.watchers = new Map(watchers.map((w) => [String(w.id), w]));
+  }
+
+  view(): RunView {
+    const s = this.state;
+    const m = this.measurements;
+    const now = this.nowMs();
+    const stages = this.setup.stages;
+    const promptStage = s.phase === 'pumping' || s.phase === 'preparing' ? stages[s.stageIndex] : s.phase === 'hold-met' ? stages[s.stageIndex + 1] : undefined;
+    const jack = this.setup.rig.jack;
+    const prompt = promptStage
+      ? nextStepPrompt({ stage: promptStage, plate: this.setup.plan.plate, apparatusWeightKn: this.setup.plan.apparatusWeightKn, forceToGaugePressure: jackGaugePressure(jack?.calibration ?? null), gaugeUnit: jack?.calibration?.inputUnit ?? '—' })
+      : null;
+    const holdMin = s.holdStartedAtMs === null ? null : (now - s.holdStartedAtMs) / 60_000;
+    return {
+      id: this.runId,
+      planId: this.setup.planId,
+      planName: this.setup.planName,
+      procedureId: this.setup.plan.procedureId,
+      rigId: this.setup.rig.rig.id,
+      rigName: this.setup.rig.rig.name,
+      manual: this.setup.rig.rig.mode === 'manual',
+      phase: s.phase,
+      version: s.version,
+      stageIndex: s.stageIndex,
+      stages,
+      controller: s.controller,
+      calibrationOverride: s.calibrationOverride,
+      overdueInstruments: this.setup.overdueInstruments,
+      closedReason: s.closedReason,
+      clock: { nowMs: now, speed: this.persisted.clock.speed },
+      stageStartedAtMs: s.stageStartedAtMs,
+      holdStartedAtMs: s.holdStartedAtMs,
+      holdMetAtMs: s.holdMetAtMs,
+      live: {
+        atMs: this.persisted.lastSampleMs,
+        pressureKpa: m.pressureKpa,
+        plateForceKn: m.plateForceKn,
+        jackForceKn: m.jackForceKn,
+        oilPressure: m.oilPressure,
+        oilUnit: m.oilUnit,
+        pressureProblem: m.pressureProblem,
+        meanSettlementMm: m.meanSettlementMm,
+        tiltSlope: m.tilt ? Math.tan(m.tilt.tilt.radians) : null,
+        spreadMm: m.tilt?.spreadMm ?? null,
+        gauges: m.gauges.map((g) => {
+          const c = this.setup.rig.rig.channels.find((x) => x.key === g.key);
+          return { ...g, label: c?.label ?? g.key, travelMm: c?.gauge?.travelMm ?? null };
+        }),
+      },
+      hold: this.hold,
+      prompt,
+      nextReading: holdMin !== null && this.isActive ? safeNextReading(this.setup.plan, holdMin) : null,
+      alarms: Object.values(this.persisted.alarms).filter((a) => a.state !== 'cleared'),
+      watchers: [...this.watchers.values()],
+      lastSeq: this.persisted.lastSeq,
+    };
+  }
+}
+
+function safeNextReading(plan: PlanInput, elapsedMin: number) {
+  try {
+    return nextReadingDue(plan.readingSchedule, Math.max(0, elapsedMin));
+  } catch {
+    return null;
+  }
+}
+

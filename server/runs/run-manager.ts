@@ -1,0 +1,207 @@
+/**
+ * Keeps one engine per active run: creates runs from a plan and a rig, resumes unfinished runs after
+ * a restart (state from the database, samples from the journal, the outage marked as a gap), routes
+ * commands, and hands live data to the realtime layer.
+ */
+import path from 'node:path';
+import createDebug from 'debug';
+import { QueryTypes, type Sequelize } from 'sequelize';
+import { buildStageSequence } from '../../shared/plans/stages';
+import { type Actor, type RunEventDraft, initialRunState } from '../../shared/runs/lifecycle';
+import { type SampleRow, fromMicro } from '../../shared/runs/samples';
+import { ACTIVE_PHASES, type RunView } from '../../shared/schemas/runs';
+import { type RigContext, loadRigContext } from '../acquisition/rig-context';
+import { transaction } from '../db/transaction';
+import { badRequest, conflict, notFound } from '../http/errors';
+import { type PersistedRun, Run } from '../models/run';
+import { RunEvent } from '../models/run-event';
+import { TestLocation } from '../models/test-location';
+import { TestPlan } from '../models/test-plan';
+import { Archiver } from './archiver';
+import { Journal } from './journal';
+import { newRunClock, runTime } from './run-clock';
+import { type EngineIo, RunEngine } from './run-engine';
+
+const debug = createDebug('sscope:runs');
+
+export interface RunManagerOptions {
+  sequelize: Sequelize;
+  dataDir: string;
+  pushView: (runId: number, view: RunView) => void;
+  pushSamples: (runId: number, rows: SampleRow[]) => void;
+}
+
+function overdue(rig: RigContext): string[] {
+  const ids = [...rig.rig.channels.map((c) => c.instrumentId), rig.rig.jackInstrumentId].filter((id): id is number => id != null);
+  return [...new Set(ids)].filter((id) => rig.status.get(id) === 'overdue' || rig.status.get(id) === 'uncalibrated').map((id) => rig.serials.get(id) ?? `#${id}`);
+}
+
+export class RunManager {
+  private readonly engines = new Map<number, RunEngine>();
+  readonly archiver: Archiver;
+  private readonly journals = new Map<number, Journal>();
+
+  constructor(private readonly o: RunManagerOptions) {
+    this.archiver = new Archiver(o.sequelize, { onArchived: (runId, seq) => this.journals.get(runId)?.markArchived(seq) });
+  }
+
+  engine(runId: number): RunEngine | undefined {
+    return this.engines.get(runId);
+  }
+
+  /** Why a rig's ports are taken, or null. */
+  rigBusy(rigId: number): string | null {
+    for (const e of this.engines.values()) if (e.rigId === rigId && e.isActive) return `Run ${e.runId} is reading this rig.`;
+    return null;
+  }
+
+  async create(planId: number, rigId: number, actor: Actor): Promise<RunView> {
+    const plan = await TestPlan.findByPk(planId);
+    if (!plan) throw badRequest('planId: no such test plan', 'planId');
+    let rig: RigContext;
+    try {
+      rig = await loadRigContext(rigId);
+    } catch {
+      throw badRequest('rigId: no such rig', 'rigId');
+    }
+    const busy = this.rigBusy(rigId);
+    if (busy) throw conflict(`rigId: ${busy}`, 'rigId');
+    const persisted: PersistedRun = { lifecycle: initialRunState(), clock: newRunClock(rig.rig.simulator?.speed ?? 1), alarms: {}, lastSeq: 0, lastSampleMs: null };
+    const run = await transaction(async (t) => {
+      const created = await Run.create({ planId, rigId, status: 'preparing', state: persisted, startedAt: null, finishedAt: null, createdBy: actor.id }, { transaction: t });
+      await RunEvent.create({ runId: created.id, at: new Date(persisted.clock.anchorRunMs), kind: 'run-created', userId: actor.id, payload: { planId, rigId, rig: rig.rig.name } }, { transaction: t });
+      return created;
+    });
+    const engine = this.launch(run, plan, rig, persisted);
+    engine.start();
+    return engine.view();
+  }
+
+  /** Resumes every unfinished run (after a crash or restart). */
+  async resumeAll(): Promise<number> {
+    const runs = await Run.findAll({ where: { status: [...ACTIVE_PHASES] } });
+    for (const run of runs) {
+      try {
+        await this.resume(run);
+      } catch (err) {
+        debug('cannot resume run %d: %s', run.id, (err as Error).message);
+      }
+    }
+    return runs.length;
+  }
+
+  private async resume(run: Run): Promise<void> {
+    const plan = await TestPlan.findByPk(run.planId);
+    if (!plan || run.rigId == null) return;
+    const rig = await loadRigContext(run.rigId);
+    const persisted = run.state;
+    const journal = this.journal(run.id);
+    const backlog = journal.unarchived();
+    if (backlog.length > 0) {
+      persisted.lastSeq = Math.max(persisted.lastSeq, backlog[backlog.length - 1].seq);
+      persisted.lastSampleMs = Math.max(persisted.lastSampleMs ?? 0, backlog[backlog.length - 1].tMs);
+      this.archiver.enqueue(run.id, backlog);
+    }
+    const dbMax = await this.maxSeq(run.id);
+    persisted.lastSeq = Math.max(persisted.lastSeq, dbMax);
+    const engine = this.launch(run, plan, rig, persisted);
+    const now = runTime(persisted.clock, Date.now());
+    await this.saveEvents(run.id, [{ kind: 'outage', atMs: now, userId: null, payload: { fromMs: persisted.lastSampleMs, toMs: now, note: 'server restarted; no samples in this gap' } }]);
+    engine.start(await this.holdSeries(run.id, persisted, rig));
+  }
+
+  private launch(run: Run, plan: TestPlan, rig: RigContext, persisted: PersistedRun): RunEngine {
+    const input = plan.toInput();
+    const sim = rig.rig.simulator;
+    const io: EngineIo = {
+      archiver: this.archiver,
+      journal: this.journal(run.id),
+      save: (runId, state, events) => this.save(runId, state, events),
+      pushView: this.o.pushView,
+      pushSamples: this.o.pushSamples,
+      simulator: sim
+        ? (action, body) => {
+            fetch(`${sim.controlUrl}/${action}`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) }).catch((err) => debug('simulator %s: %s', action, err.message));
+          }
+        : undefined,
+    };
+    const engine = new RunEngine({ runId: run.id, planId: plan.id, planName: plan.name, plan: input, stages: buildStageSequence(input), rig, persisted, overdueInstruments: overdue(rig) }, io);
+    this.engines.set(run.id, engine);
+    return engine;
+  }
+
+  private journal(runId: number): Journal {
+    let j = this.journals.get(runId);
+    if (!j) {
+      j = new Journal({ dir: path.join(this.o.dataDir, 'journal'), runId });
+      this.journals.set(runId, j);
+    }
+    return j;
+  }
+
+  private async save(runId: number, persisted: PersistedRun, events: RunEventDraft[]): Promise<void> {
+    const phase = persisted.lifecycle.phase;
+    const closed = !ACTIVE_PHASES.includes(phase);
+    await transaction(async (t) => {
+      const run = await Run.findByPk(runId, { transaction: t });
+      if (!run) return;
+      await run.update(
+        {
+          status: phase,
+          state: persisted,
+          startedAt: run.startedAt ?? (phase !== 'preparing' ? new Date() : null),
+          finishedAt: closed ? (run.finishedAt ?? new Date()) : null,
+        },
+        { transaction: t },
+      );
+      if (events.length) await RunEvent.bulkCreate(events.map((e) => ({ runId, at: new Date(e.atMs), kind: e.kind, userId: e.userId, payload: e.payload })), { transaction: t });
+    });
+  }
+
+  private saveEvents(runId: number, events: RunEventDraft[]) {
+    return RunEvent.bulkCreate(events.map((e) => ({ runId, at: new Date(e.atMs), kind: e.kind, userId: e.userId, payload: e.payload })));
+  }
+
+  private async maxSeq(runId: number): Promise<number> {
+    const [row] = (await this.o.sequelize.query('SELECT COALESCE(MAX(seq), 0) AS m FROM samples WHERE run_id = ?', { replacements: [runId], type: QueryTypes.SELECT })) as { m: number }[];
+    return Number(row.m);
+  }
+
+  /** The current hold's mean settlement series, rebuilt from the archive (used after a restart). */
+  private async holdSeries(runId: number, persisted: PersistedRun, rig: RigContext): Promise<{ tMin: number; settlementMm: number }[]> {
+    const s = persisted.lifecycle;
+    if (s.holdStartedAtMs === null) return [];
+    await this.archiver.drain();
+    const gauges = rig.rig.channels.map((c, i) => ({ c, i })).filter(({ c }) => c.role === 'gauge' && c.gauge);
+    const rows = (await this.o.sequelize.query('SELECT t_ms AS t, channel AS ch, value AS v FROM samples WHERE run_id = ? AND t_ms >= ? AND value IS NOT NULL ORDER BY seq', {
+      replacements: [runId, s.holdStartedAtMs],
+      type: QueryTypes.SELECT,
+    })) as { t: number; ch: number; v: number }[];
+    const latest = new Map<number, number>();
+    const series: { tMin: number; settlementMm: number }[] = [];
+    let last = -Infinity;
+    for (const r of rows) {
+      const g = gauges.find((x) => x.i === r.ch);
+      if (!g) continue;
+      latest.set(r.ch, g.c.gauge!.direction * (fromMicro(r.v) - (s.zeros[g.c.key] ?? 0)) + (s.resetOffsets[g.c.key] ?? 0));
+      if (latest.size < gauges.length || r.t - last < 2000) continue;
+      last = r.t;
+      series.push({ tMin: (r.t - s.holdStartedAtMs) / 60_000, settlementMm: [...latest.values()].reduce((a, b) => a + b, 0) / latest.size });
+    }
+    return series;
+  }
+
+  /** Journaled samples not yet in the database (for a complete backfill). */
+  unarchived(runId: number, afterSeq: number): SampleRow[] {
+    return (this.journals.get(runId)?.unarchived() ?? []).filter((r) => r.seq > afterSeq);
+  }
+
+  async stopAll(): Promise<void> {
+    await Promise.all([...this.engines.values()].map((e) => e.stop()));
+    this.engines.clear();
+    await this.archiver.drain();
+    this.archiver.stop();
+  }
+}
+
+export const runNotFound = () => notFound('Run');

@@ -1,0 +1,33 @@
+import { mkdtempSync } from 'node:fs';
+import path from 'node:path';
+import { ROOT_DIR } from '../../server/config';
+import { type SimulatorProcess, startSimulator, upsertDemoRig } from '../../server/ops/simulated-rig';
+import type { RunView } from '../../shared/schemas/runs';
+import type { Client } from './api';
+
+/** A simulated rig on its own pseudo-terminals (a private folder per test file) and its rig record. */
+export async function simulatedRig(scenario: string, speed: number, name = 'Test rig (simulated)') {
+  const dir = path.relative(ROOT_DIR, mkdtempSync(path.join(ROOT_DIR, '.data', 'test-pty-')));
+  const sim: SimulatorProcess = await startSimulator({ scenario, speed, gauges: 3, controlPort: 0, dir, name: 't' });
+  const rig = await upsertDemoRig(sim, name);
+  return { sim, rig };
+}
+
+/** Sends a command quoting the current version; returns the new view or throws with the server's reason. */
+export async function command(client: Client, runId: number, cmd: object): Promise<RunView> {
+  const current = (await client.get(`/api/runs/${runId}`)).body as RunView;
+  const res = await client.post(`/api/runs/${runId}/commands`, { version: current.version, command: cmd });
+  if (res.status !== 200) throw new Error(`${JSON.stringify(cmd)} → ${res.status} ${JSON.stringify(res.body)}`);
+  return res.body;
+}
+
+/** Polls the run until `ok(view)` or the time runs out. */
+export async function waitFor(client: Client, runId: number, ok: (v: RunView) => boolean, what: string, timeoutMs = 60_000): Promise<RunView> {
+  const until = Date.now() + timeoutMs;
+  for (;;) {
+    const view = (await client.get(`/api/runs/${runId}`)).body as RunView;
+    if (ok(view)) return view;
+    if (Date.now() > until) throw new Error(`timed out waiting for ${what}; run is ${view.phase} at stage ${view.stageIndex}: ${JSON.stringify({ live: view.live, hold: view.hold?.verdict, alarms: view.alarms.map((a) => a.alarm.message) })}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
