@@ -34,7 +34,13 @@ function stagePoints(a: RecordAnalysis): string[] {
   return [
     `Load–settlement points (${rule})`,
     textTable(
-      [{ header: 'stage', align: 'right' }, { header: 'branch' }, { header: 'q (kPa)', align: 'right' }, { header: 's (mm)', align: 'right' }, { header: 't (min)', align: 'right' }],
+      [
+        { header: 'stage', align: 'right' },
+        { header: 'branch' },
+        { header: 'q (kPa)', align: 'right' },
+        { header: 's (mm)', align: 'right' },
+        { header: 't (min)', align: 'right' },
+      ],
       rows,
     ),
   ];
@@ -68,7 +74,9 @@ function footing(a: RecordAnalysis): string[] {
     finding('Safe pressure for settlement', f.settlement, (s) =>
       s.qKpa === null ? (s.reason ?? '—') : `${fixed(s.qKpa, 1)} kPa (plate settlement ${fixed(s.plateSettlementMm, 2)} mm, ratio ${fixed(s.ratio, 3)})`,
     ),
-    finding('Allowable bearing pressure', f.allowable, (q) => (q.qAllowKpa === null ? (q.reason ?? '—') : `${fixed(q.qAllowKpa, 1)} kPa (${q.governs} governs)`)),
+    finding('Allowable bearing pressure', f.allowable, (q) =>
+      q.qAllowKpa === null ? (q.reason ?? '—') : `${fixed(q.qAllowKpa, 1)} kPa (${q.governs} governs)`,
+    ),
   ];
 }
 

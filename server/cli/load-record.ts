@@ -15,7 +15,7 @@ export function detectFormat(file: string, text: string): RecordFileFormat {
   const ext = path.extname(file).toLowerCase();
   if (ext === '.json') return 'json';
   if (ext === '.csv') return 'csv';
-  return text.replace(/^\uFEFF/, '').trimStart().startsWith('{') ? 'json' : 'csv';
+  return text.trimStart().startsWith('{') ? 'json' : 'csv'; // trimStart also drops a byte-order mark
 }
 
 /** "line L, column C" of a character offset. */

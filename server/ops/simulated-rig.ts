@@ -33,7 +33,7 @@ export interface SimulatorOptions {
 export async function startSimulator(o: SimulatorOptions): Promise<SimulatorProcess> {
   await ensureDebianPackages([{ binary: 'socat', pkg: 'socat' }]);
   const args = ['simulators/cli.ts', '--scenario', o.scenario, '--speed', String(o.speed), '--gauges', String(o.gauges), '--control-port', String(o.controlPort), '--dir', o.dir, '--name', o.name];
-  const child = spawn(path.join(ROOT_DIR, 'node_modules', '.bin', 'tsx'), args, { cwd: ROOT_DIR, stdio: ['ignore', 'pipe', 'inherit'] });
+  const child = spawn(process.execPath, ['--import', 'tsx', ...args], { cwd: ROOT_DIR, stdio: ['ignore', 'pipe', 'inherit'] });
   const first = await new Promise<string>((resolve, reject) => {
     const lines = createInterface({ input: child.stdout! });
     lines.once('line', resolve);

@@ -17,7 +17,7 @@ async function assertReferences(rig: RigInput) {
   }
   if (rig.jackInstrumentId != null) {
     const jack = await Instrument.findByPk(rig.jackInstrumentId);
-    if (!jack || jack.kind !== 'jack') throw badRequest('jackInstrumentId: must name a registered jack', 'jackInstrumentId');
+    if (jack?.kind !== 'jack') throw badRequest('jackInstrumentId: must name a registered jack', 'jackInstrumentId');
   }
 }
 

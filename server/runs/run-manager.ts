@@ -15,7 +15,6 @@ import { transaction } from '../db/transaction';
 import { badRequest, conflict, notFound } from '../http/errors';
 import { type PersistedRun, Run } from '../models/run';
 import { RunEvent } from '../models/run-event';
-import { TestLocation } from '../models/test-location';
 import { TestPlan } from '../models/test-plan';
 import { Archiver } from './archiver';
 import { Journal } from './journal';
