@@ -1,7 +1,8 @@
 import { readFile, stat } from 'node:fs/promises';
 import path from 'node:path';
 import { readingsCsvToRecord } from '@shared/records/csv';
-import { formatIssue, parseTestRecord, RECORD_LIMITS, type RecordImport, type TestRecord } from '@shared/records/schema';
+import { RECORD_LIMITS, type TestRecord } from '@shared/records/schema';
+import { formatIssue, parseTestRecord, type RecordImport } from '@shared/records/validate';
 
 /** Input the command cannot use: a missing file, bad JSON or CSV, an invalid record. Exit code 2. */
 export class BadInputError extends Error {

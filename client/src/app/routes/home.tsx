@@ -1,0 +1,83 @@
+import type { Project } from '@shared/schemas/projects';
+import { Link } from 'react-router-dom';
+import { LinkButton } from '../../components/button';
+import { PageHeader } from '../../components/page-header';
+import { EmptyState, QueryResult } from '../../components/query-states';
+import { paths } from '../../config/paths';
+import { useProjects } from '../../features/projects/api/get-projects';
+import { useCan, useUser } from '../../lib/auth';
+import { formatDate } from '../../lib/format';
+
+const RECENT = 6;
+
+function RecentProjects({ projects }: { projects: Project[] }) {
+  const canCreate = useCan('projects:write');
+  if (projects.length === 0) {
+    return (
+      <EmptyState title="No projects yet">
+        {canCreate ? (
+          <LinkButton to={paths.newProject.href()} variant="primary">
+            New project
+          </LinkButton>
+        ) : (
+          'Projects you may see will appear here.'
+        )}
+      </EmptyState>
+    );
+  }
+  const recent = [...projects].sort((a, b) => b.updatedAt.localeCompare(a.updatedAt)).slice(0, RECENT);
+  return (
+    <>
+      <ul className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
+        {recent.map((p) => (
+          <li key={p.id}>
+            <Link
+              to={paths.project.href(p.id)}
+              className="flex min-h-touch flex-col rounded-md border-2 border-neutral-300 p-3 no-underline hover:border-neutral-800"
+            >
+              <span className="font-mono font-bold">{p.code}</span>
+              <span className="text-lg font-semibold">{p.name}</span>
+              <span className="text-neutral-800">
+                {p.organizationName} · {p.site}
+              </span>
+              <span className="text-sm text-neutral-800">
+                Updated <span className="font-mono">{formatDate(p.updatedAt)}</span>
+              </span>
+            </Link>
+          </li>
+        ))}
+      </ul>
+      {projects.length > RECENT && (
+        <Link to={paths.projects.href()} className="mt-3 inline-flex min-h-touch items-center font-semibold underline underline-offset-4">
+          All {projects.length} projects
+        </Link>
+      )}
+    </>
+  );
+}
+
+export function HomeRoute() {
+  const user = useUser();
+  const projects = useProjects();
+  return (
+    <>
+      <PageHeader title={user ? `Hello, ${user.name}` : 'Home'} />
+      <section aria-labelledby="my-projects" className="mb-8">
+        <h2 id="my-projects" className="mb-3 text-xl font-bold">
+          My projects
+        </h2>
+        <QueryResult query={projects} loadingLabel="Loading projects…">
+          {(items) => <RecentProjects projects={items} />}
+        </QueryResult>
+      </section>
+      <section aria-labelledby="recent-runs">
+        <h2 id="recent-runs" className="mb-3 text-xl font-bold">
+          Recent runs
+        </h2>
+        <EmptyState title="No runs listed here yet">
+          Runs are started and recorded from the rig console beside the pit. Once recorded, the latest ones will be listed here.
+        </EmptyState>
+      </section>
+    </>
+  );
+}

@@ -1,0 +1,5 @@
+/** Query keys of user accounts (admin only). */
+export const userKeys = {
+  all: ['users'] as const,
+  list: () => [...userKeys.all, 'list'] as const,
+};

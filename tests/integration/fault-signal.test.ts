@@ -1,0 +1,127 @@
+/**
+ * QUALITY R3 (a port vanishes: alarm within 2 s, reconnection, gap recorded, never interpolated),
+ * R4 (a browser offline for 30 s backfills every missed sample by sequence number) and
+ * R5 (malformed frames and bad CRCs are counted and rejected; never a wrong value in the record),
+ * with the simulated rig's fault injection on real pseudo-terminals.
+ */
+import { QueryTypes } from 'sequelize';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { RunningServer } from '../../server/main';
+import type { SimulatorProcess } from '../../server/ops/simulated-rig';
+import { findProfile } from '../../shared/procedures/profiles';
+import { SAMPLE_STATUS } from '../../shared/runs/samples';
+import type { RunView } from '../../shared/schemas/runs';
+import { Client, demoEmail } from '../support/api';
+import { connectSocket, httpSignIn, startLiveServer } from '../support/live-server';
+import { command, simulatedRig, waitFor } from '../support/sim-run';
+
+let server: RunningServer;
+let sim: SimulatorProcess;
+let rigId: number;
+const SPEED = 20;
+
+beforeAll(async () => {
+  server = await startLiveServer();
+  ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', SPEED, 'Fault rig'));
+}, 120_000);
+afterAll(async () => {
+  await server?.close();
+  await sim?.stop();
+});
+
+const fault = (body: object) => fetch(`${sim.controlUrl}/fault`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) }).then((r) => r.json());
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+
+describe('signal faults (QUALITY R3, R4, R5)', () => {
+  it('alarms a lost port within 2 s, reconnects, keeps the gap, rejects bad frames, and backfills an offline viewer', async () => {
+    const operator = await new Client(server.url).signIn(demoEmail('operator'));
+    const engineer = await new Client(server.url).signIn(demoEmail('engineer'));
+    const profile = findProfile('bearing-granular')!;
+    const plan = await engineer.post('/api/locations/1/plans', {
+      name: 'Fault plan',
+      procedureId: profile.id,
+      ...profile.defaults,
+      plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
+      apparatusWeightKn: 0.5,
+      loading: { mode: 'list', pressuresKpa: [250] },
+      holdRule: { kind: 'fixed', durationMin: 24 * 60 },
+      reaction: { kind: 'kentledge', capacityKn: 100, description: '' },
+      footing: null,
+    });
+    const runId = ((await operator.post('/api/runs', { planId: plan.body.plan.id, rigId })).body as RunView).id;
+    await waitFor(operator, runId, (v) => v.live.gauges.every((g) => g.readingMm !== null), 'first readings');
+    await command(operator, runId, { type: 'zero' });
+    await command(operator, runId, { type: 'start' });
+    await waitFor(operator, runId, (v) => v.phase === 'hold-met' && v.stageIndex === 0, 'seating');
+    await command(operator, runId, { type: 'advance' });
+    await waitFor(operator, runId, (v) => v.phase === 'holding' && v.stageIndex === 1, 'holding');
+
+    // A viewer watches, then drops off the network.
+    const { cookie } = await httpSignIn(server.url, demoEmail('engineer'));
+    const seen = new Set<number>();
+    const watch = async () => {
+      const socket = await connectSocket(server.url, cookie);
+      socket.on('run:samples', (b) => {
+        for (const s of b.seq) seen.add(s);
+      });
+      expect(await socket.emitWithAck('run:join', { runId, afterSeq: seen.size ? Math.max(...seen) : 0 })).toEqual({ ok: true });
+      return socket;
+    };
+    const viewer = await watch();
+    await sleep(1000);
+    viewer.close();
+    const offlineAt = Date.now();
+
+    // R3: gauge 1's port vanishes for 10 s.
+    const { seq: seqBefore } = { seq: (await operator.get(`/api/runs/${runId}`)).body.lastSeq as number };
+    const vanishAt = Date.now();
+    await fault({ kind: 'vanish', durationS: 10, device: 'gauge-1' });
+    const alarmed = await waitFor(operator, runId, (v) => v.alarms.some((a) => a.code === 'signal-lost' && a.subject === 'g1'), 'signal-lost alarm', 10_000);
+    expect(Date.now() - vanishAt).toBeLessThanOrEqual(2500); // 2 s rule plus one polling step of this test
+    expect(alarmed.alarms.find((a) => a.subject === 'g1')?.state).toBe('unacknowledged');
+    await waitFor(operator, runId, (v) => !v.alarms.some((a) => a.code === 'signal-lost' && a.subject === 'g1' && a.state !== 'cleared'), 'reconnection', 30_000);
+
+    // R5: garbage before every reply of gauge 2 and bad CRCs from the pressure transducer for 5 s.
+    await fault({ kind: 'garbage', durationS: 5, device: 'gauge-2' });
+    await fault({ kind: 'bad-crc', durationS: 5, device: 'pressure' });
+    await sleep(6000);
+
+    // R4: back online after 30 s; everything missed arrives by sequence number.
+    await sleep(Math.max(0, 30_000 - (Date.now() - offlineAt)));
+    const back = await watch();
+    await sleep(1500);
+    back.close();
+    const last = Math.max(...seen);
+    expect([...seen].sort((a, b) => a - b)).toEqual(Array.from({ length: last }, (_, i) => i + 1));
+
+    await command(operator, runId, { type: 'stop', reason: 'end of the fault test' });
+    await server.runs.archiver.drain();
+    const rows = (await server.sequelize.query('SELECT seq, t_ms AS t, channel, value, status FROM samples WHERE run_id = ? AND seq > ? ORDER BY seq', {
+      replacements: [runId, Math.max(0, seqBefore - 100)],
+      type: QueryTypes.SELECT,
+    })) as { seq: number; t: number; channel: number; value: number | null; status: number }[];
+
+    // R3: a disconnected marker and a real gap in gauge 1's readings, with nothing made up inside it.
+    const g1 = rows.filter((r) => r.channel === 0);
+    expect(g1.some((r) => r.status === SAMPLE_STATUS.disconnected)).toBe(true);
+    const okTimes = g1.filter((r) => r.status === SAMPLE_STATUS.ok).map((r) => Number(r.t));
+    const widest = Math.max(...okTimes.slice(1).map((t, i) => t - okTimes[i]));
+    expect(widest).toBeGreaterThanOrEqual(8_000 * SPEED); // ≥ 8 of the 10 wall seconds, in run time
+    expect(g1.filter((r) => r.status !== SAMPLE_STATUS.ok).every((r) => r.value === null)).toBe(true);
+
+    // R5: rejected frames are counted as such and carry no value; every accepted value is plausible.
+    for (const channel of [1, 3]) {
+      const bad = rows.filter((r) => r.channel === channel && r.status === SAMPLE_STATUS.rejected);
+      expect(bad.length, `rejected samples on channel ${channel}`).toBeGreaterThan(0);
+      expect(bad.every((r) => r.value === null)).toBe(true);
+    }
+    const held = rows.filter((r) => r.seq > seqBefore); // all during the hold
+    const g2 = held.filter((r) => r.channel === 1 && r.status === SAMPLE_STATUS.ok).map((r) => r.value! / 1000);
+    // A held plate creeps smoothly: no accepted reading jumps from its neighbour (random bytes would).
+    const steps = g2.slice(1).map((v, i) => Math.abs(v - g2[i]));
+    expect(Math.max(...steps)).toBeLessThan(0.1);
+    const oil = held.filter((r) => r.channel === 3 && r.status === SAMPLE_STATUS.ok).map((r) => r.value! / 1000);
+    expect(Math.min(...oil)).toBeGreaterThan(0);
+    expect(Math.max(...oil) / Math.min(...oil)).toBeLessThan(1.2); // leak and top-up, never a corrupted register
+  }, 150_000);
+});

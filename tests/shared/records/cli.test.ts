@@ -1,0 +1,119 @@
+/** `npm run analyze` run as a child process, as an engineer runs it. */
+import { execFile } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { analyzeRecord } from '@shared/interpretation/analyze-record';
+import { afterAll, describe, expect, it } from 'vitest';
+import { fixtureRecord, fixtureText } from './fixtures';
+
+const ROOT = fileURLToPath(new URL('../../../', import.meta.url));
+const TSX = path.join(ROOT, 'node_modules/.bin/tsx');
+const FIXTURES = 'tests/fixtures/records';
+const scratch = mkdtempSync(path.join(tmpdir(), 'settlescope-cli-'));
+afterAll(() => rmSync(scratch, { recursive: true, force: true }));
+
+interface Run {
+  code: number;
+  stdout: string;
+  stderr: string;
+}
+
+function analyze(...args: string[]): Promise<Run> {
+  return new Promise((resolve) => {
+    execFile(TSX, ['server/cli/analyze.ts', ...args], { cwd: ROOT, maxBuffer: 16 * 1024 * 1024 }, (error, stdout, stderr) => {
+      resolve({ code: error ? Number(error.code) : 0, stdout, stderr });
+    });
+  });
+}
+
+function scratchFile(name: string, text: string): string {
+  const file = path.join(scratch, name);
+  writeFileSync(file, text);
+  return file;
+}
+
+const ANALYSIS_KEYS = [
+  'summary',
+  'reduction',
+  'firstLoading',
+  'ultimate',
+  'chosenUltimate',
+  'footing',
+  'subgradeModulus',
+  'deformationModuli',
+  'elasticModulus',
+  'timeSettlement',
+  'scalingWarnings',
+  'cautions',
+];
+
+describe('npm run analyze', { timeout: 30_000 }, () => {
+  it('--json prints the analysis of a JSON record as valid JSON, exit 0', async () => {
+    const run = await analyze(`${FIXTURES}/sand-bearing-450-square.json`, '--json');
+    expect(run.stderr).toBe('');
+    expect(run.code).toBe(0);
+    const printed = JSON.parse(run.stdout);
+    expect(Object.keys(printed)).toEqual(ANALYSIS_KEYS);
+    expect(printed).toEqual(JSON.parse(JSON.stringify(analyzeRecord(fixtureRecord('sand-bearing-450-square.json')))));
+  });
+
+  it('reads the readings CSV by its extension, and a record without extension by its first character', async () => {
+    const csv = await analyze(`${FIXTURES}/sand-bearing-450-square.csv`, '--json');
+    expect(csv.code).toBe(0);
+    expect(JSON.parse(csv.stdout).summary.readings).toBe(90);
+    const noExtension = await analyze(scratchFile('modulus-record', fixtureText('modulus-two-cycle-300.json')), '--json');
+    expect(noExtension.code).toBe(0);
+    expect(JSON.parse(noExtension.stdout).deformationModuli.applies).toBe(true);
+  });
+
+  it('prints a readable table with units and the cautions', async () => {
+    const run = await analyze(`${FIXTURES}/modulus-two-cycle-300.json`);
+    expect(run.code).toBe(0);
+    const ev = result(analyzeRecord(fixtureRecord('modulus-two-cycle-300.json')).deformationModuli);
+    expect(run.stdout).toContain(
+      `Ev1 / Ev2 / Ev2÷Ev1                   ${ev.ev1.evMnM2?.toFixed(1)} / ${ev.ev2?.evMnM2?.toFixed(1)} MN/m² / ${ev.ratio?.toFixed(2)}`,
+    );
+    expect(run.stdout).toMatch(/^stage {2}branch {5}q \(kPa\) {2}s \(mm\) {2}t \(min\)$/m);
+    expect(run.stdout).toContain('Cautions\n  - The results describe the soil under one plate');
+  });
+
+  it('exits 2 naming the file, line and column of a broken CSV', async () => {
+    const lines = fixtureText('sand-bearing-450-square.csv').split('\n');
+    const at = lines.findIndex((l) => l.startsWith('2,loading'));
+    lines[at] = lines[at].replace(/^(([^,]*,){4})[^,]*/, '$1twelve');
+    const file = scratchFile('broken.csv', lines.join('\n'));
+    const run = await analyze(file);
+    expect(run.code).toBe(2);
+    expect(run.stdout).toBe('');
+    expect(run.stderr).toBe(`analyze: ${file}: not a valid test record\n  line ${at + 1}, column "pressure_kpa": expected a number (got "twelve")\n`);
+  });
+
+  it('exits 2 naming the field of an invalid record and the place of bad JSON', async () => {
+    const record = JSON.parse(fixtureText('modulus-two-cycle-300.json'));
+    record.stages[4].readings[1].gauges.s1 = null;
+    const invalid = await analyze(scratchFile('invalid.json', JSON.stringify(record)));
+    expect(invalid.code).toBe(2);
+    expect(invalid.stderr).toContain('  stages.4.readings.1.gauges.s1: Invalid input: expected number, received null');
+    const badJson = await analyze(scratchFile('bad.json', '{\n  "format": "settlescope-record",\n  "version": 1,,\n}'));
+    expect(badJson.code).toBe(2);
+    expect(badJson.stderr).toMatch(/bad\.json: not valid JSON \(line 3, column 16\)/);
+  });
+
+  it('exits 2 for a missing file, a missing FILE and an unknown option, quoting the option', async () => {
+    const missing = await analyze(path.join(scratch, 'nowhere.json'));
+    expect([missing.code, missing.stderr]).toEqual([2, `analyze: ${path.join(scratch, 'nowhere.json')}: cannot read it (no such file)\n`]);
+    const none = await analyze();
+    expect(none.code).toBe(2);
+    expect(none.stderr).toMatch(/^analyze: no FILE given\n\nUsage: npm run analyze -- FILE \[--json\]/);
+    const unknown = await analyze(`${FIXTURES}/sand-bearing-450-square.json`, '--fast');
+    expect(unknown.code).toBe(2);
+    expect(unknown.stderr).toContain("Unknown option '--fast'");
+  });
+});
+
+function result<T>(finding: { applies: true; result: T } | { applies: false; reason: string }): T {
+  if (!finding.applies) return expect.fail(finding.reason);
+  return finding.result;
+}
