@@ -3,6 +3,7 @@ import { SequelizeStorage, Umzug } from 'umzug';
 import * as initial from './migrations/0001-initial';
 import * as rigs from './migrations/0002-rigs';
 import * as runRig from './migrations/0003-run-rig';
+import * as interpretations from './migrations/0004-interpretations';
 
 export interface Migration {
   up(qi: QueryInterface, S: typeof Sequelize): Promise<void>;
@@ -14,6 +15,7 @@ const MIGRATIONS: [string, Migration][] = [
   ['0001-initial', initial],
   ['0002-rigs', rigs],
   ['0003-run-rig', runRig],
+  ['0004-interpretations', interpretations],
 ];
 
 export function createMigrator(sequelize: Sequelize) {
