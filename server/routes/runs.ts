@@ -12,7 +12,7 @@ import { TestPlan } from '../models/test-plan';
 import { Project } from '../models/project';
 import { CommandRefused } from '../runs/run-engine';
 import type { RunManager } from '../runs/run-manager';
-import { samplesAfter, toBatch } from '../runs/samples-query';
+import { sampleSpan, samplesAfter, summarizeSamples, toBatch } from '../runs/samples-query';
 
 const actorOf = (user: { id: number; name: string; role: 'admin' | 'engineer' | 'operator' | 'client' }) => ({ id: user.id, name: user.name, role: user.role });
 
@@ -107,6 +107,26 @@ export const runRoutes = (runs: RunManager) => [
     handler: async ({ params, query }) => {
       if (!(await Run.findByPk(params.id))) throw notFound('Run');
       return toBatch(params.id, await samplesAfter(Run.sequelize!, params.id, query.afterSeq, query.limit));
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/runs/:id/samples/summary',
+    access: STAFF,
+    summary: 'Min/max per time bucket and channel over a span (for plots and replay at any zoom)',
+    params: idParams,
+    query: z.object({
+      fromMs: z.coerce.number().int().optional(),
+      toMs: z.coerce.number().int().optional(),
+      buckets: z.coerce.number().int().min(1).max(10_000).default(1000),
+    }),
+    handler: async ({ params, query }) => {
+      if (!(await Run.findByPk(params.id))) throw notFound('Run');
+      const span = await sampleSpan(Run.sequelize!, params.id);
+      const fromMs = query.fromMs ?? span?.fromMs ?? 0;
+      const toMs = query.toMs ?? span?.toMs ?? fromMs + 1;
+      if (toMs <= fromMs) throw new HttpError(400, 'invalid_input', 'toMs: must be after fromMs', 'toMs');
+      return summarizeSamples(Run.sequelize!, params.id, fromMs, toMs, query.buckets);
     },
   }),
 ];

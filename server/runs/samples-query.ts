@@ -14,3 +14,42 @@ export async function samplesAfter(sequelize: Sequelize, runId: number, afterSeq
   })) as SampleRow[];
   return rows.map((r) => ({ ...r, seq: Number(r.seq), tMs: Number(r.tMs) }));
 }
+
+/** Per channel and time bucket: the smallest and largest value (micro-units), so a plot keeps every extreme. */
+export interface SampleSummary {
+  runId: number;
+  fromMs: number;
+  toMs: number;
+  bucketMs: number;
+  channels: { channel: number; t: number[]; min: number[]; max: number[] }[];
+}
+
+/**
+ * Server-side min/max-per-bucket reduction (the "M4" idea of Jugel et al., PVLDB 2014, reduced to
+ * min and max): a plot of any span gets at most `buckets` points per series from one grouped query
+ * on the (run_id, t_ms) index, however many samples lie behind them.
+ */
+export async function summarizeSamples(sequelize: Sequelize, runId: number, fromMs: number, toMs: number, buckets: number): Promise<SampleSummary> {
+  const bucketMs = Math.max(1, Math.ceil((toMs - fromMs) / buckets));
+  const rows = (await sequelize.query(
+    `SELECT channel, FLOOR((t_ms - ?) / ?) AS b, MIN(value) AS lo, MAX(value) AS hi
+       FROM samples WHERE run_id = ? AND t_ms >= ? AND t_ms < ? AND value IS NOT NULL
+      GROUP BY channel, b ORDER BY channel, b`,
+    { replacements: [fromMs, bucketMs, runId, fromMs, toMs], type: QueryTypes.SELECT },
+  )) as { channel: number; b: number; lo: number; hi: number }[];
+  const byChannel = new Map<number, SampleSummary['channels'][number]>();
+  for (const r of rows) {
+    let c = byChannel.get(r.channel);
+    if (!c) byChannel.set(r.channel, (c = { channel: r.channel, t: [], min: [], max: [] }));
+    c.t.push(fromMs + (Number(r.b) + 0.5) * bucketMs);
+    c.min.push(Number(r.lo));
+    c.max.push(Number(r.hi));
+  }
+  return { runId, fromMs, toMs, bucketMs, channels: [...byChannel.values()] };
+}
+
+/** First and last sample times of a run, ms (null when it has none). */
+export async function sampleSpan(sequelize: Sequelize, runId: number): Promise<{ fromMs: number; toMs: number } | null> {
+  const [r] = (await sequelize.query('SELECT MIN(t_ms) AS lo, MAX(t_ms) AS hi FROM samples WHERE run_id = ?', { replacements: [runId], type: QueryTypes.SELECT })) as { lo: number | null; hi: number | null }[];
+  return r.lo === null || r.hi === null ? null : { fromMs: Number(r.lo), toMs: Number(r.hi) + 1 };
+}
