@@ -81,6 +81,8 @@ export class RunEngine {
   private reachedTicks = 0;
   private closed = false;
   private saving: Promise<void> = Promise.resolve();
+  private unsaved: RunEventDraft[] = [];
+  private retryTimer: NodeJS.Timeout | null = null;
 
   constructor(
     private readonly setup: EngineSetup,
@@ -126,8 +128,9 @@ export class RunEngine {
     for (const t of this.timers) clearInterval(t);
     await this.connection?.stop();
     this.flush();
-    await this.saving;
-    await this.save([]);
+    await this.queueSave([]);
+    // Bounded, so a shutdown with the database away still ends; the journal keeps the samples.
+    await Promise.race([this.saved(), new Promise((r) => setTimeout(r, 10_000).unref())]);
     await this.io.archiver.drain();
   }
 
@@ -345,13 +348,37 @@ export class RunEngine {
     await this.stop();
   }
 
+  /** Saves state and events in order; while the database is away they wait here and are retried. */
   private queueSave(events: RunEventDraft[]): Promise<void> {
-    this.saving = this.saving.then(() => this.save(events)).catch((err) => debug('save failed: %s', (err as Error).message));
+    this.unsaved.push(...events);
+    this.saving = this.saving.then(() => this.flushSaves());
     return this.saving;
   }
 
-  private save(events: RunEventDraft[]): Promise<void> {
-    return this.io.save(this.runId, structuredClone(this.persisted), events);
+  private async flushSaves(): Promise<void> {
+    const events = this.unsaved;
+    this.unsaved = [];
+    try {
+      await this.io.save(this.runId, structuredClone(this.persisted), events);
+    } catch (err) {
+      this.unsaved = events.concat(this.unsaved);
+      debug('save failed (%s); %d events wait for the database', (err as Error).message, this.unsaved.length);
+      if (!this.retryTimer) {
+        this.retryTimer = setTimeout(() => {
+          this.retryTimer = null;
+          void this.queueSave([]);
+        }, 1000);
+      }
+    }
+  }
+
+  /** Resolves once every state change and event so far is in the database. */
+  async saved(): Promise<void> {
+    while (this.unsaved.length > 0 || this.retryTimer) {
+      await this.saving;
+      if (this.unsaved.length > 0 || this.retryTimer) await new Promise((r) => setTimeout(r, 200));
+    }
+    await this.saving;
   }
 
   // ---------------------------------------------------------------- views
@@ -379,6 +406,16 @@ export class RunEngine {
       rigId: this.setup.rig.rig.id,
       rigName: this.setup.rig.rig.name,
       manual: this.setup.rig.rig.mode === 'manual',
+      channels: this.setup.rig.rig.channels.map((c) => ({
+        key: c.key,
+        label: c.label,
+        role: c.role,
+        unit: channelUnit(c, c.instrumentId != null ? this.setup.rig.calibrations.get(c.instrumentId) : undefined),
+        direction: c.gauge?.direction ?? null,
+      })),
+      plate: { shape: this.setup.plan.plate.shape, sizeMm: this.setup.plan.plate.sizeMm },
+      holdRule: this.setup.plan.holdRule,
+      stopLimitMm: this.stopLimit(),
       phase: s.phase,
       version: s.version,
       stageIndex: s.stageIndex,
