@@ -40,7 +40,10 @@ export async function summarizeSamples(sequelize: Sequelize, runId: number, from
   const byChannel = new Map<number, SampleSummary['channels'][number]>();
   for (const r of rows) {
     let c = byChannel.get(r.channel);
-    if (!c) byChannel.set(r.channel, (c = { channel: r.channel, t: [], min: [], max: [] }));
+    if (!c) {
+      c = { channel: r.channel, t: [], min: [], max: [] };
+      byChannel.set(r.channel, c);
+    }
     c.t.push(fromMs + (Number(r.b) + 0.5) * bucketMs);
     c.min.push(Number(r.lo));
     c.max.push(Number(r.hi));
