@@ -12,7 +12,9 @@ import { HttpError, errorHandler } from './http/errors';
 import { type RouteSpec, mount } from './http/route';
 import { authRoutes } from './routes/auth';
 import { healthRoutes } from './routes/health';
+import { importRoutes } from './routes/imports';
 import { instrumentRoutes } from './routes/instruments';
+import { interpretationRoutes } from './routes/interpretation';
 import { planRoutes } from './routes/plans';
 import { projectRoutes } from './routes/projects';
 import { rigRoutes } from './routes/rigs';
@@ -83,6 +85,8 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, deps: AppD
     ...instrumentRoutes(config.dataDir),
     ...rigRoutes,
     ...runRoutes(deps.runs),
+    ...interpretationRoutes,
+    ...importRoutes,
   ];
   mount(api, routes);
   api.use('/api', (_req, _res, next) => next(new HttpError(404, 'not_found', 'No such API route.')));

@@ -4,7 +4,7 @@
  * authority over its run's state; everything it decides is persisted and pushed to watchers.
  */
 import createDebug from 'debug';
-import { plateForceKn } from '../../shared/domain/plate';
+import { plateAreaM2, plateForceKn } from '../../shared/domain/plate';
 import { type AlarmAction, alarmKey, reduceAlarm } from '../../shared/hold/alarm-lifecycle';
 import { type Alarm, gaugeTravelAlarm, loadDriftAlarm, reactionCapacityAlarm, signalLostAlarm, stopLimitAlarm, stopLimitMm, tiltAlarm } from '../../shared/hold/alarms';
 import { evaluateHold } from '../../shared/hold/evaluate';
@@ -197,7 +197,12 @@ export class RunEngine {
   }
 
   private measure(): Measurements {
-    return measure(this.setupM, this.latest, this.state.zeros, this.state.resetOffsets);
+    return measure(this.setupM, this.latest, this.state.zeros, this.state.resetOffsets, this.jackBranch(this.state.stageIndex));
+  }
+
+  /** Unloading stages read the jack on its falling branch. */
+  private jackBranch(stageIndex: number): 'rising' | 'falling' {
+    return this.setup.stages[stageIndex]?.branch === 'unloading' ? 'falling' : 'rising';
   }
 
   // ---------------------------------------------------------------- decisions
@@ -219,7 +224,7 @@ export class RunEngine {
     };
 
     if (s.phase === 'pumping' && stage && q !== null && this.setup.rig.rig.mode === 'serial') {
-      this.reachedTicks = reached(q, stage.targetKpa) ? this.reachedTicks + 1 : 0;
+      this.reachedTicks = reached(q, this.effectiveTarget(stage.targetKpa)) ? this.reachedTicks + 1 : 0;
       if (this.reachedTicks >= 2) {
         observe({ type: 'target-reached' });
         this.series = [];
@@ -248,6 +253,11 @@ export class RunEngine {
     this.io.pushView(this.runId, this.view());
   }
 
+  /** With the jack released the plate still carries the apparatus: no target can be below that pressure. */
+  private effectiveTarget(targetKpa: number): number {
+    return Math.max(targetKpa, this.setup.plan.apparatusWeightKn / plateAreaM2(this.setup.plan.plate));
+  }
+
   private stopLimit(): number {
     return stopLimitMm(this.setup.plan.termination, this.setup.plan.plate.sizeMm);
   }
@@ -258,7 +268,7 @@ export class RunEngine {
     const stage = this.setup.stages[s.stageIndex];
     const alarms: Alarm[] = [];
     const during = s.phase === 'holding' || s.phase === 'hold-met';
-    if (during && stage && m.pressureKpa !== null) alarms.push(loadDriftAlarm({ targetKpa: stage.targetKpa, actualKpa: m.pressureKpa }));
+    if (during && stage && m.pressureKpa !== null) alarms.push(loadDriftAlarm({ targetKpa: this.effectiveTarget(stage.targetKpa), actualKpa: m.pressureKpa }));
     const placed = this.setup.rig.rig.channels.flatMap((c) => {
       const g = m.gauges.find((x) => x.key === c.key);
       return c.gauge && g?.settlementMm != null ? [{ xMm: c.gauge.xMm, yMm: c.gauge.yMm, settlementMm: g.settlementMm }] : [];
@@ -395,7 +405,7 @@ export class RunEngine {
     const promptStage = s.phase === 'pumping' || s.phase === 'preparing' ? stages[s.stageIndex] : s.phase === 'hold-met' ? stages[s.stageIndex + 1] : undefined;
     const jack = this.setup.rig.jack;
     const prompt = promptStage
-      ? nextStepPrompt({ stage: promptStage, plate: this.setup.plan.plate, apparatusWeightKn: this.setup.plan.apparatusWeightKn, forceToGaugePressure: jackGaugePressure(jack?.calibration ?? null), gaugeUnit: jack?.calibration?.inputUnit ?? '—' })
+      ? nextStepPrompt({ stage: promptStage, plate: this.setup.plan.plate, apparatusWeightKn: this.setup.plan.apparatusWeightKn, forceToGaugePressure: jackGaugePressure(jack?.calibration ?? null, this.jackBranch(promptStage.index)), gaugeUnit: jack?.calibration?.inputUnit ?? '—' })
       : null;
     const holdMin = s.holdStartedAtMs === null ? null : (now - s.holdStartedAtMs) / 60_000;
     return {

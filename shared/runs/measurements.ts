@@ -3,7 +3,7 @@
  * direction and reset offsets applied), their mean and tilt, and the mean pressure under the plate
  * from the jack's oil pressure through its calibration plus the apparatus weight (DOMAIN §B.1).
  */
-import { applyCalibration } from '../calibration/evaluate';
+import { type Branch, applyCalibration } from '../calibration/evaluate';
 import { inverseCalibration } from '../calibration/inverse';
 import type { Calibration } from '../calibration/schema';
 import { convertPressure, isPressureUnit } from '../calibration/units';
@@ -42,7 +42,11 @@ export interface MeasurementSetup {
   pressureUnit: string | null;
 }
 
-export function measure(setup: MeasurementSetup, latest: ReadonlyMap<string, number | null>, zeros: Record<string, number>, offsets: Record<string, number>): Measurements {
+/**
+ * `branch`: which side of the jack's calibration applies — 'falling' while unloading, when seal
+ * friction makes the same oil pressure give a different force (DOMAIN §D.1).
+ */
+export function measure(setup: MeasurementSetup, latest: ReadonlyMap<string, number | null>, zeros: Record<string, number>, offsets: Record<string, number>, branch: Branch = 'rising'): Measurements {
   const gauges: GaugeNow[] = [];
   const placed: { xMm: number; yMm: number; settlementMm: number }[] = [];
   for (const c of setup.channels) {
@@ -66,7 +70,7 @@ export function measure(setup: MeasurementSetup, latest: ReadonlyMap<string, num
   } else if (oilPressure !== null) {
     const oil = oilToJackUnit(setup, oilPressure);
     if (typeof oil === 'string') pressureProblem = oil;
-    else jackForceKn = Math.max(0, applyCalibration(setup.jack!, oil));
+    else jackForceKn = Math.max(0, applyCalibration(setup.jack!, oil, branch));
   } else if (!pressureChannel) {
     pressureProblem = 'The rig has no pressure or load channel.';
   }
@@ -86,9 +90,9 @@ function oilToJackUnit(setup: MeasurementSetup, oil: number): number | string {
 }
 
 /** The jack's gauge pressure (its calibration input unit) for a jack force; null where it cannot say. */
-export function jackGaugePressure(jack: Calibration | null): (jackForceKn: number) => number | null {
+export function jackGaugePressure(jack: Calibration | null, branch: Branch = 'rising'): (jackForceKn: number) => number | null {
   if (!jack) return () => null;
-  const inverse = inverseCalibration(jack);
+  const inverse = inverseCalibration(jack, branch);
   return (force) => {
     try {
       const p = inverse(force);

@@ -1,0 +1,301 @@
+/**
+ * A stored run as a test record ('settlescope-record' v1), so that the interpretation, the exports and
+ * the command line all read runs and imported tests the same way. Imported runs carry their record whole;
+ * a recorded run's record is rebuilt from its plan, its events and its archived samples.
+ */
+import { QueryTypes, type Sequelize } from 'sequelize';
+import { buildStageSequence, type PlannedStage } from '../../shared/plans/stages';
+import { type MeasurementSetup, measure } from '../../shared/runs/measurements';
+import { fromMicro } from '../../shared/runs/samples';
+import { type RECORD_EVENT_KINDS, RECORD_FORMAT, RECORD_LIMITS, RECORD_VERSION, type RecordStage, type TestRecord } from '../../shared/records/schema';
+import { formatIssue, parseTestRecord } from '../../shared/records/validate';
+import type { PlanInput } from '../../shared/schemas/plans';
+import { type RigContext, loadRigContext } from '../acquisition/rig-context';
+import { channelUnit } from '../acquisition/rig-connection';
+import { HttpError, notFound } from '../http/errors';
+import { RunRecord } from '../models/interpretation';
+import { Project } from '../models/project';
+import { Run } from '../models/run';
+import { RunEvent } from '../models/run-event';
+import { TestLocation } from '../models/test-location';
+import { TestPlan } from '../models/test-plan';
+
+/** A run event as the record builder needs it (run clock ms). */
+export interface TimedEvent {
+  atMs: number;
+  kind: string;
+  payload: Record<string, unknown>;
+}
+
+/** One archived sample: run clock ms, rig channel index, calibrated value in micro-units (null when none was trusted). */
+export interface TimedSample {
+  tMs: number;
+  channel: number;
+  value: number | null;
+}
+
+/** What a run's record is built from besides its samples. */
+export interface RunRecordSource {
+  plan: PlanInput;
+  stages: readonly PlannedStage[];
+  /** The rig's channels, jack calibration and plate, as the run engine measures with them. */
+  setup: MeasurementSetup;
+  /** Every run event, oldest first. */
+  events: readonly TimedEvent[];
+  metadata?: TestRecord['metadata'];
+  ground?: TestRecord['ground'];
+}
+
+/** Fewest milliseconds of run time between two readings kept per stage: 5 s (stage ends are always kept). */
+export const MIN_READING_STEP_MS = 5000;
+
+/** Run-time step between kept readings: 5 s, or longer when the holds are so long that 5 s would pass the record's reading limits. */
+export function readingStepMs(heldMs: number, longestStageMs: number): number {
+  // 10 % headroom for the extra reading at each stage's end.
+  const byTotal = heldMs / (0.9 * RECORD_LIMITS.readingsTotal);
+  const byStage = longestStageMs / (0.9 * RECORD_LIMITS.readingsPerStage);
+  return Math.max(MIN_READING_STEP_MS, Math.ceil(Math.max(byTotal, byStage)));
+}
+
+/** The measurement setup of a run on a rig, as the run engine builds it. */
+export function measurementSetup(plan: PlanInput, rig: RigContext): MeasurementSetup {
+  const pressureChannel = rig.rig.channels.find((c) => c.role === 'pressure');
+  return {
+    channels: rig.rig.channels,
+    plate: plan.plate,
+    apparatusWeightKn: plan.apparatusWeightKn,
+    jack: rig.jack?.calibration ?? null,
+    pressureUnit: pressureChannel ? channelUnit(pressureChannel, pressureChannel.instrumentId != null ? rig.calibrations.get(pressureChannel.instrumentId) : undefined) : null,
+  };
+}
+
+interface StageWindow {
+  stage: PlannedStage;
+  fromMs: number;
+  toMs: number;
+}
+
+const STAGE_ENDS = new Set(['stage-advanced', 'run-completed', 'run-stopped']);
+
+/** Each held stage from its 'target-reached' (t = 0) to the next 'stage-advanced', finish or stop (or open-ended). */
+export function stageWindows(stages: readonly PlannedStage[], events: readonly TimedEvent[]): StageWindow[] {
+  const windows: StageWindow[] = [];
+  for (const [i, e] of events.entries()) {
+    if (e.kind !== 'target-reached') continue;
+    const stage = stages[Number(e.payload.stageIndex)];
+    if (!stage) continue;
+    const end = events.slice(i + 1).find((x) => STAGE_ENDS.has(x.kind));
+    windows.push({ stage, fromMs: e.atMs, toMs: end?.atMs ?? Number.POSITIVE_INFINITY });
+  }
+  return windows;
+}
+
+const round = (x: number, places: number) => Math.round(x * 10 ** places) / 10 ** places;
+
+/** What a run event means in the record's events log, or null when the log has no place for it. */
+function recordEvent(e: TimedEvent): { kind: (typeof RECORD_EVENT_KINDS)[number]; text: string } | null {
+  const p = e.payload;
+  if (e.kind === 'note') return { kind: 'note', text: String(p.text ?? '').slice(0, 2000) };
+  if (e.kind === 'top-up') return { kind: 'top-up', text: 'Load topped up' };
+  if (e.kind === 'gauge-reset') return { kind: 'gauge-reset', text: `Gauge ${p.channel} reset: read ${p.beforeMm} mm before, ${p.afterMm} mm after` };
+  return null;
+}
+
+/**
+ * Builds the record of a recorded run while its samples stream past (oldest first), so that a run of
+ * millions of samples never sits in memory. Settlement = direction × (reading − zero) + reset offset with the
+ * zero and offsets in force at each sample (from the 'gauges-zeroed' and 'gauge-reset' events); plate pressure
+ * from the oil pressure through the jack calibration plus the apparatus weight (both by `measure()`).
+ * Readings are kept at most one per {@link readingStepMs} of run time per stage, plus each stage's last.
+ */
+export class RunRecordBuilder {
+  private readonly windows: StageWindow[];
+  private readonly stepMs: number;
+  private readonly latest = new Map<string, number | null>();
+  private zeros: Record<string, number> = {};
+  private offsets: Record<string, number> = {};
+  private nextEvent = 0;
+  private window = -1;
+  private readonly readings = new Map<number, RecordStage['readings']>();
+  private lastKeptMs = Number.NEGATIVE_INFINITY;
+  private lastSeenMs: number | null = null;
+
+  constructor(private readonly source: RunRecordSource) {
+    this.windows = stageWindows(source.stages, source.events);
+    const lastMs = source.events.length ? source.events[source.events.length - 1].atMs : 0;
+    const lengths = this.windows.map((w) => Math.max(0, (Number.isFinite(w.toMs) ? w.toMs : lastMs) - w.fromMs));
+    this.stepMs = readingStepMs(
+      lengths.reduce((a, b) => a + b, 0),
+      Math.max(0, ...lengths),
+    );
+  }
+
+  /** Takes the next sample (samples must come in sequence order). */
+  add(sample: TimedSample): void {
+    this.advanceTo(sample.tMs);
+    const channel = this.source.setup.channels[sample.channel];
+    if (!channel || sample.value === null) return;
+    this.latest.set(channel.key, fromMicro(sample.value));
+    const w = this.windows[this.window];
+    if (!w || sample.tMs >= w.toMs) return;
+    this.lastSeenMs = sample.tMs;
+    if (sample.tMs - this.lastKeptMs >= this.stepMs) this.keep(sample.tMs);
+  }
+
+  /** The record; stages that were never held or have no complete reading are left out. */
+  finish(): TestRecord {
+    this.advanceTo(Number.POSITIVE_INFINITY);
+    const { plan, metadata, ground } = this.source;
+    const stages = this.windows.flatMap(({ stage }) => {
+      const readings = this.readings.get(stage.index);
+      return readings?.length ? [{ index: stage.index, branch: stage.branch, targetKpa: stage.targetKpa, readings }] : [];
+    });
+    const events = this.recordEvents(new Set(stages.map((s) => s.index)));
+    return {
+      format: RECORD_FORMAT,
+      version: RECORD_VERSION,
+      ...(metadata ? { metadata } : {}),
+      plate: { shape: plan.plate.shape, sizeMm: plan.plate.sizeMm },
+      plan: { procedureId: plan.procedureId, seatingPressureKpa: plan.seatingPressureKpa, holdRule: plan.holdRule },
+      ...(ground ? { ground } : {}),
+      ...(plan.footing ? { footing: { shape: plan.footing.shape, widthM: plan.footing.widthM, soilBehaviour: plan.footing.soilBehaviour } } : {}),
+      gauges: this.source.setup.channels
+        .filter((c) => c.role === 'gauge' && c.gauge)
+        .map((c) => ({ key: c.key, label: c.label, xMm: c.gauge!.xMm, yMm: c.gauge!.yMm })),
+      stages,
+      ...(events.length ? { events } : {}),
+    };
+  }
+
+  /** Applies the events up to time `tMs`: zeros, reset offsets, stage openings (t = 0 reading) and closings (last reading). */
+  private advanceTo(tMs: number): void {
+    for (;;) {
+      const w = this.windows[this.window];
+      const event = this.source.events[this.nextEvent];
+      const closeAt = w ? w.toMs : Number.POSITIVE_INFINITY;
+      if (w && closeAt <= tMs && (!event || closeAt <= event.atMs)) {
+        this.closeStage();
+        continue;
+      }
+      if (!event || event.atMs > tMs) return;
+      this.nextEvent++;
+      if (event.kind === 'gauges-zeroed') {
+        this.zeros = { ...(event.payload.readings as Record<string, number>) };
+        this.offsets = {};
+      } else if (event.kind === 'gauge-reset') {
+        this.offsets = { ...this.offsets, [String(event.payload.channel)]: Number(event.payload.offsetMm) };
+      } else if (event.kind === 'target-reached') {
+        const next = this.windows.findIndex((x) => x.fromMs === event.atMs && x.stage.index === Number(event.payload.stageIndex));
+        if (next >= 0) this.openStage(next, event.atMs);
+      }
+    }
+  }
+
+  private openStage(index: number, atMs: number): void {
+    if (this.window >= 0 && this.window !== index) this.closeStage();
+    this.window = index;
+    this.lastKeptMs = Number.NEGATIVE_INFINITY;
+    this.lastSeenMs = null;
+    this.keep(atMs); // the t = 0 reading, from the latest values at the moment the target was reached
+  }
+
+  private closeStage(): void {
+    if (this.lastSeenMs !== null && this.lastSeenMs > this.lastKeptMs) this.keep(this.lastSeenMs);
+    this.window = -1;
+  }
+
+  /** Keeps a reading at `tMs` from the latest values, when every gauge and the pressure are known. */
+  private keep(tMs: number): void {
+    const w = this.windows[this.window];
+    const m = measure(this.source.setup, this.latest, this.zeros, this.offsets);
+    if (!w || m.pressureKpa === null || m.gauges.length === 0 || m.gauges.some((g) => g.settlementMm === null)) return;
+    const tMin = (tMs - w.fromMs) / 60_000;
+    if (tMin > RECORD_LIMITS.stageMinutes) return;
+    const list = this.readings.get(w.stage.index) ?? [];
+    list.push({
+      tMin: round(tMin, 4),
+      pressureKpa: round(m.pressureKpa, 2),
+      gauges: Object.fromEntries(m.gauges.map((g) => [g.key, round(g.settlementMm as number, 4)])),
+    });
+    this.readings.set(w.stage.index, list);
+    this.lastKeptMs = tMs;
+  }
+
+  private recordEvents(kept: Set<number>): NonNullable<TestRecord['events']> {
+    const out: NonNullable<TestRecord['events']> = [];
+    for (const e of this.source.events) {
+      const entry = recordEvent(e);
+      const w = this.windows.find((x) => e.atMs >= x.fromMs && e.atMs < x.toMs);
+      if (!entry || !w || !kept.has(w.stage.index) || out.length >= RECORD_LIMITS.events) continue;
+      out.push({ stage: w.stage.index, tMin: round((e.atMs - w.fromMs) / 60_000, 4), ...entry });
+    }
+    return out;
+  }
+}
+
+/** A text cut to one line of at most `max` characters (record metadata fields are single lines). */
+const oneLine = (text: string, max: number) => text.replace(/[\r\n]+/g, ' ').trim().slice(0, max);
+
+/** Who, where and when, from the plan's location and project. */
+async function runMetadata(run: Run, plan: TestPlan): Promise<Pick<RunRecordSource, 'metadata' | 'ground'>> {
+  const location = await TestLocation.findByPk(plan.locationId, { include: [{ model: Project, as: 'project' }] });
+  const metadata: NonNullable<TestRecord['metadata']> = { pit: location ? oneLine(location.pitId, 80) : undefined };
+  if (location?.project) Object.assign(metadata, { project: oneLine(location.project.name, 200), site: oneLine(location.project.site, 200) });
+  if (run.startedAt) metadata.testDate = run.startedAt.toISOString().slice(0, 10);
+  if (!location) return { metadata };
+  const below = location.waterTableDepthM === null ? undefined : location.waterTableDepthM - location.testDepthM;
+  const ground = {
+    ...(location.soilDescription ? { description: oneLine(location.soilDescription, 300) } : {}),
+    testDepthM: location.testDepthM,
+    ...(below !== undefined && below >= 0 ? { waterTableBelowTestM: below } : {}),
+  };
+  return { metadata, ground };
+}
+
+const SAMPLE_PAGE = 20_000;
+
+/** Streams a run's archived samples into the builder, a page at a time. */
+async function feedSamples(sequelize: Sequelize, runId: number, builder: RunRecordBuilder): Promise<void> {
+  for (let after = 0; ; ) {
+    const rows = (await sequelize.query('SELECT seq, t_ms AS tMs, channel, value FROM samples WHERE run_id = ? AND seq > ? ORDER BY seq LIMIT ?', {
+      replacements: [runId, after, SAMPLE_PAGE],
+      type: QueryTypes.SELECT,
+    })) as { seq: number; tMs: number; channel: number; value: number | null }[];
+    for (const r of rows) builder.add({ tMs: Number(r.tMs), channel: r.channel, value: r.value });
+    if (rows.length < SAMPLE_PAGE) return;
+    after = Number(rows[rows.length - 1].seq);
+  }
+}
+
+export const recordUnavailable = (message: string) => new HttpError(409, 'record_unavailable', message);
+
+/** Rebuilds a recorded run's record from its plan, events and samples. */
+async function recordedRunRecord(run: Run): Promise<TestRecord> {
+  const plan = await TestPlan.findByPk(run.planId);
+  if (!plan) throw notFound('Test plan of the run');
+  if (run.rigId === null) throw recordUnavailable('The run has neither a rig nor a stored record to interpret.');
+  const input = plan.toInput();
+  const events = (await RunEvent.findAll({ where: { runId: run.id }, order: [['id', 'ASC']] })).map((e) => ({ atMs: e.at.getTime(), kind: e.kind, payload: e.payload }));
+  const builder = new RunRecordBuilder({
+    plan: input,
+    stages: buildStageSequence(input),
+    setup: measurementSetup(input, await loadRigContext(run.rigId)),
+    events,
+    ...(await runMetadata(run, plan)),
+  });
+  await feedSamples(Run.sequelize!, run.id, builder);
+  const record = builder.finish();
+  if (record.stages.length === 0) throw recordUnavailable('The run has no held stage with complete readings yet.');
+  const checked = parseTestRecord(record);
+  if (!checked.ok) throw recordUnavailable(`The run's data do not make a valid record: ${formatIssue(checked.errors[0])}`);
+  return checked.record;
+}
+
+/** The test record of a run: the stored one of an imported run, else rebuilt from the run's data. 404 for an unknown run. */
+export async function loadRunRecord(runId: number): Promise<TestRecord> {
+  const stored = await RunRecord.findByPk(runId);
+  if (stored) return stored.record;
+  const run = await Run.findByPk(runId);
+  if (!run) throw notFound('Run');
+  return recordedRunRecord(run);
+}
