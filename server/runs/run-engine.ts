@@ -4,12 +4,13 @@
  * authority over its run's state; everything it decides is persisted and pushed to watchers.
  */
 import createDebug from 'debug';
+import { convertPressure, isPressureUnit } from '../../shared/calibration/units';
 import { plateAreaM2, plateForceKn } from '../../shared/domain/plate';
 import { type AlarmAction, alarmKey, reduceAlarm } from '../../shared/hold/alarm-lifecycle';
 import { type Alarm, gaugeTravelAlarm, loadDriftAlarm, reactionCapacityAlarm, signalLostAlarm, stopLimitAlarm, stopLimitMm, tiltAlarm } from '../../shared/hold/alarms';
 import { evaluateHold } from '../../shared/hold/evaluate';
 import { nextStepPrompt } from '../../shared/hold/next-step';
-import { nextReadingDue } from '../../shared/hold/schedule';
+import { lateReadings, nextReadingDue } from '../../shared/hold/schedule';
 import type { HoldEvaluation } from '../../shared/hold/verdict';
 import type { PlannedStage } from '../../shared/plans/stages';
 import { type Actor, type RunEventDraft, type RunState, applyCommand, applyObservation } from '../../shared/runs/lifecycle';
@@ -79,6 +80,8 @@ export class RunEngine {
   private readonly timers: NodeJS.Timeout[] = [];
   private watchers = new Map<string, { id: number; name: string; role: string }>();
   private reachedTicks = 0;
+  /** Manual mode: when readings were typed in this hold, minutes since the target was reached. */
+  private manualTimes: number[] = [];
   private closed = false;
   private saving: Promise<void> = Promise.resolve();
   private unsaved: RunEventDraft[] = [];
@@ -155,20 +158,26 @@ export class RunEngine {
   /** Manual mode: typed readings become samples like any other (raw = value: there is no device). */
   private recordManual(command: Extract<RunCommand, { type: 'manual-reading' }>): void {
     const wallMs = Date.now();
+    const held = this.state.holdStartedAtMs;
+    if (held !== null) this.manualTimes.push(Math.max(0, (this.nowMs(wallMs) - held) / 60_000));
     const channels = this.setup.rig.rig.channels;
     for (const [index, c] of channels.entries()) {
       const typed = c.role === 'gauge' ? command.gauges[c.key] : c.role === 'pressure' && command.pressureKpa !== undefined ? this.oilForPlatePressure(command.pressureKpa) : undefined;
       if (typed === undefined || typed === null) continue;
       this.onReading({ channelIndex: index, key: c.key, role: c.role, wallMs, raw: typed, value: typed, status: 'ok', deviceSeq: 0 });
     }
+    this.measurements = this.measure();
     this.flush();
   }
 
-  /** A typed plate pressure, stored as the oil pressure that gives it (so every pressure sample means the same). */
+  /** A typed plate pressure, stored as the oil pressure (in the pressure channel's unit) that gives it, so every pressure sample means the same. */
   private oilForPlatePressure(kpa: number): number | null {
     const jack = this.setupM.jack;
     if (!jack) return null;
-    return jackGaugePressure(jack)(Math.max(0, plateForceKn(this.setupM.plate, kpa) - this.setupM.apparatusWeightKn));
+    const oil = jackGaugePressure(jack, this.jackBranch(this.state.stageIndex))(Math.max(0, plateForceKn(this.setupM.plate, kpa) - this.setupM.apparatusWeightKn));
+    const unit = this.setupM.pressureUnit;
+    if (oil === null || !unit || unit === jack.inputUnit) return oil;
+    return isPressureUnit(unit) && isPressureUnit(jack.inputUnit) ? convertPressure(oil, jack.inputUnit, unit) : null;
   }
 
   private recordSettlement(tMs: number): void {
@@ -324,6 +333,7 @@ export class RunEngine {
     if (r.state.stageIndex !== before.stageIndex || (before.phase === 'preparing' && r.state.phase === 'pumping')) {
       this.series = [];
       this.reachedTicks = 0;
+      this.manualTimes = [];
     }
     if (command.type === 'stage-reached') this.recordSettlement(now);
     this.drive(command, r.state);
@@ -457,6 +467,8 @@ export class RunEngine {
       hold: this.hold,
       prompt,
       nextReading: holdMin !== null && this.isActive ? safeNextReading(this.setup.plan, holdMin) : null,
+      // Manual mode: scheduled readings not typed in on time (1 min grace, common practice).
+      readingFlags: holdMin !== null && this.isActive && this.setup.rig.rig.mode === 'manual' ? lateReadings(this.setup.plan.readingSchedule, this.manualTimes, holdMin, 1) : [],
       alarms: Object.values(this.persisted.alarms).filter((a) => a.state !== 'cleared'),
       watchers: [...this.watchers.values()],
       lastSeq: this.persisted.lastSeq,

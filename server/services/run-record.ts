@@ -291,11 +291,31 @@ async function recordedRunRecord(run: Run): Promise<TestRecord> {
   return checked.record;
 }
 
+/** Recently built records by run, with what they were built from, so that trying settings does not re-read a long run each time. */
+const built = new Map<number, { key: string; record: TestRecord }>();
+const BUILT_KEPT = 8;
+
+/** Changes whenever the run's data can have changed: its saved state, its samples, its events. */
+async function dataKey(run: Run): Promise<string> {
+  const [row] = (await Run.sequelize!.query('SELECT (SELECT COALESCE(MAX(seq), 0) FROM samples WHERE run_id = :id) AS seq, (SELECT COUNT(*) FROM run_events WHERE run_id = :id) AS events', {
+    replacements: { id: run.id },
+    type: QueryTypes.SELECT,
+  })) as { seq: number; events: number }[];
+  return `${run.status}|${run.updatedAt.getTime()}|${Number(row.seq)}|${Number(row.events)}`;
+}
+
 /** The test record of a run: the stored one of an imported run, else rebuilt from the run's data. 404 for an unknown run. */
 export async function loadRunRecord(runId: number): Promise<TestRecord> {
   const stored = await RunRecord.findByPk(runId);
   if (stored) return stored.record;
   const run = await Run.findByPk(runId);
   if (!run) throw notFound('Run');
-  return recordedRunRecord(run);
+  const key = await dataKey(run);
+  const cached = built.get(runId);
+  if (cached?.key === key) return cached.record;
+  const record = await recordedRunRecord(run);
+  built.delete(runId);
+  built.set(runId, { key, record });
+  if (built.size > BUILT_KEPT) built.delete(built.keys().next().value as number);
+  return record;
 }

@@ -1,5 +1,7 @@
+import type { HoldRule } from './plans';
 import type { AlarmRecord } from '../hold/alarm-lifecycle';
 import type { NextStepPrompt } from '../hold/next-step';
+import type { ReadingFlag } from '../hold/schedule';
 import type { HoldEvaluation } from '../hold/verdict';
 import type { PlannedStage } from '../plans/stages';
 import { z } from 'zod';
@@ -69,6 +71,12 @@ export interface RunView {
   rigId: number | null;
   rigName: string;
   manual: boolean;
+  /** The rig's channels in sample order: `run:samples` rows name them by index. Values are micro-units (µm, or 1/1000 of `unit`). */
+  channels: { key: string; label: string; role: 'gauge' | 'pressure' | 'load'; unit: string; direction: 1 | -1 | null }[];
+  /** Plate and plan facts the console shows. */
+  plate: { shape: 'circular' | 'square'; sizeMm: number };
+  holdRule: HoldRule;
+  stopLimitMm: number;
   phase: RunPhase;
   version: number;
   stageIndex: number;
@@ -98,6 +106,8 @@ export interface RunView {
   /** While pumping: the current target; once the hold is met: the next one (null after the last stage). */
   prompt: NextStepPrompt | null;
   nextReading: { atMin: number; inMin: number } | null;
+  /** Manual mode: scheduled readings that were typed in late or not at all. */
+  readingFlags: ReadingFlag[];
   alarms: AlarmRecord[];
   watchers: { id: number; name: string; role: string }[];
   lastSeq: number;

@@ -14,6 +14,7 @@ import { freshDatabase } from './test-database';
 export interface TestApp extends AppParts {
   config: ServerConfig;
   sequelize: Sequelize;
+  runs: RunManager;
   stop(): Promise<void>;
 }
 
@@ -30,6 +31,7 @@ export async function startTestApp(overrides: Partial<ServerConfig> = {}): Promi
     ...parts,
     config,
     sequelize,
+    runs,
     stop: async () => {
       await runs.stopAll();
       parts.close();

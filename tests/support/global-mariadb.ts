@@ -3,12 +3,23 @@
  * Test files create their own databases in it (see test-database.ts).
  */
 import { rmSync } from 'node:fs';
+import { type AddressInfo, createServer } from 'node:net';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
 import { ROOT_DIR } from '../../server/config';
 import { ensureMariadbInstalled, startMariadb } from '../../server/ops/mariadb';
 
-const PORTS: Record<string, number> = { integration: 3317, e2e: 3318, faults: 3319 };
+/** A port nobody listens on now (so parallel test runs on one machine do not collide). */
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const probe = createServer();
+    probe.once('error', reject);
+    probe.listen(0, '127.0.0.1', () => {
+      const { port } = probe.address() as AddressInfo;
+      probe.close(() => resolve(port));
+    });
+  });
+}
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -18,8 +29,8 @@ declare module 'vitest' {
 
 export default async function setup(project: TestProject) {
   const name = project.name;
-  const port = Number(process.env.SSCOPE_TEST_DB_PORT ?? PORTS[name] ?? 3320);
-  const baseDir = path.join(ROOT_DIR, '.data', `test-${name}`);
+  const port = Number(process.env.SSCOPE_TEST_DB_PORT ?? (await freePort()));
+  const baseDir = path.join(ROOT_DIR, '.data', `test-${name}-${process.pid}`);
   rmSync(baseDir, { recursive: true, force: true });
   await ensureMariadbInstalled();
   const db = await startMariadb({ baseDir, port, bufferPool: '64M' });
