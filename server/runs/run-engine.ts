@@ -325,7 +325,8 @@ export class RunEngine {
     const now = this.nowMs();
     if (command.type === 'acknowledge-alarm' || command.type === 'shelve-alarm') this.alarmCommand(command, actor, now);
     const gaugeReadings = Object.fromEntries(this.setup.rig.rig.channels.filter((c) => c.role === 'gauge' && this.latest.get(c.key) != null).map((c) => [c.key, this.latest.get(c.key)!]));
-    const r = applyCommand(this.state, command, { nowMs: now, actor, stages: this.setup.stages, gaugeReadings, overdueInstruments: this.setup.overdueInstruments });
+    const gaugeSigns = Object.fromEntries(this.setup.rig.rig.channels.flatMap((c) => (c.gauge ? [[c.key, c.gauge.direction]] : [])));
+    const r = applyCommand(this.state, command, { nowMs: now, actor, stages: this.setup.stages, gaugeReadings, overdueInstruments: this.setup.overdueInstruments, gaugeSigns });
     if (!r.ok) throw new CommandRefused(r.code, r.message);
     const before = this.state;
     this.persisted.lifecycle = r.state;

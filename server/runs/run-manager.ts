@@ -6,6 +6,7 @@
 import path from 'node:path';
 import createDebug from 'debug';
 import { QueryTypes, type Sequelize } from 'sequelize';
+import { gaugeSettlement } from '../../shared/hold/gauge-reset';
 import { buildStageSequence } from '../../shared/plans/stages';
 import { type Actor, type RunEventDraft, initialRunState } from '../../shared/runs/lifecycle';
 import { type SampleRow, fromMicro } from '../../shared/runs/samples';
@@ -182,7 +183,7 @@ export class RunManager {
     for (const r of rows) {
       const g = gauges.find((x) => x.i === r.ch);
       if (!g) continue;
-      latest.set(r.ch, g.c.gauge!.direction * (fromMicro(r.v) - (s.zeros[g.c.key] ?? 0)) + (s.resetOffsets[g.c.key] ?? 0));
+      latest.set(r.ch, gaugeSettlement(fromMicro(r.v), s.zeros[g.c.key] ?? 0, g.c.gauge!.direction, [s.resetOffsets[g.c.key] ?? 0]));
       if (latest.size < gauges.length || r.t - last < 2000) continue;
       last = r.t;
       series.push({ tMin: (r.t - s.holdStartedAtMs) / 60_000, settlementMm: [...latest.values()].reduce((a, b) => a + b, 0) / latest.size });

@@ -3,6 +3,17 @@ import { requireFinite, requirePositive } from '../interpretation/input-checks';
 /** +1 when the gauge's reading grows as the plate settles, −1 when it falls (stem extending). */
 export type GaugeSign = 1 | -1;
 
+/** How the stem moves as the plate settles. */
+export type StemTravel = 'retracts' | 'extends';
+
+/**
+ * Sign that turns a reading change into settlement. Indicators count up as the stem is pushed in
+ * (common practice), so a stem that retracts as the plate settles reads settlement directly.
+ */
+export function settlementSign(stem: StemTravel): GaugeSign {
+  return stem === 'retracts' ? 1 : -1;
+}
+
 /**
  * Settlement seen by one gauge: sign × (reading − zero) + Σ reset offsets (DOMAIN §B.1 [CP]).
  * Offsets are in settlement terms, as {@link resetOffset} returns them.

@@ -3,6 +3,7 @@
  * (people) and observations (the engine). Every accepted change yields run events for the record;
  * a command that does not fit the state is refused with a reason, never half-applied.
  */
+import { type GaugeSign, resetOffset } from '../hold/gauge-reset';
 import type { PlannedStage } from '../plans/stages';
 import type { RunCommand, RunPhase } from '../schemas/runs';
 import type { Role } from '../schemas/users';
@@ -48,6 +49,8 @@ export interface CommandContext {
   gaugeReadings: Record<string, number>;
   /** Instruments chosen for the run whose calibration is overdue (serial numbers). */
   overdueInstruments: readonly string[];
+  /** Each gauge's direction (+1 reading grows as the plate settles, −1 it falls), by channel key. */
+  gaugeSigns?: Record<string, GaugeSign>;
 }
 
 export type CommandResult = { ok: true; state: RunState; events: RunEventDraft[] } | { ok: false; code: 'conflict' | 'forbidden' | 'invalid'; message: string };
@@ -143,7 +146,7 @@ export function applyCommand(state: RunState, command: RunCommand, ctx: CommandC
     case 'gauge-reset': {
       if (state.phase !== 'holding' && state.phase !== 'hold-met') return refuse('Reset a gauge only while the load is held constant.');
       if (!(command.channel in state.zeros)) return refuse(`Unknown gauge "${command.channel}".`, 'invalid');
-      const offset = (state.resetOffsets[command.channel] ?? 0) + (command.beforeMm - command.afterMm);
+      const offset = (state.resetOffsets[command.channel] ?? 0) + resetOffset(command.beforeMm, command.afterMm, ctx.gaugeSigns?.[command.channel] ?? 1);
       return next({ resetOffsets: { ...state.resetOffsets, [command.channel]: offset } }, [
         event('gauge-reset', { channel: command.channel, beforeMm: command.beforeMm, afterMm: command.afterMm, offsetMm: offset }),
       ]);

@@ -2,6 +2,7 @@ import { mkdtempSync } from 'node:fs';
 import path from 'node:path';
 import { ROOT_DIR } from '../../server/config';
 import { type SimulatorProcess, startSimulator, upsertDemoRig } from '../../server/ops/simulated-rig';
+import { findProfile } from '../../shared/procedures/profiles';
 import type { RunView } from '../../shared/schemas/runs';
 import type { Client } from './api';
 
@@ -30,4 +31,36 @@ export async function waitFor(client: Client, runId: number, ok: (v: RunView) =>
     if (Date.now() > until) throw new Error(`timed out waiting for ${what}; run is ${view.phase} at stage ${view.stageIndex}: ${JSON.stringify({ live: view.live, hold: view.hold?.verdict, alarms: view.alarms.map((a) => a.alarm.message) })}`);
     await new Promise((r) => setTimeout(r, 200));
   }
+}
+
+/**
+ * Writes a test plan for the simulated rig's 300 mm plate (its grounds are quoted for that plate)
+ * from a procedure profile's defaults, with the given changes; returns the plan id.
+ */
+export async function simPlan(engineer: Client, profileId: string, changes: object, locationId = 1): Promise<number> {
+  const profile = findProfile(profileId);
+  if (!profile) throw new Error(`unknown profile ${profileId}`);
+  const res = await engineer.post(`/api/locations/${locationId}/plans`, {
+    name: `${profileId} test plan`,
+    procedureId: profile.id,
+    ...profile.defaults,
+    plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
+    apparatusWeightKn: 0.5,
+    reaction: { kind: 'kentledge', capacityKn: 100, description: '' },
+    footing: null,
+    ...changes,
+  });
+  if (res.status !== 201) throw new Error(`plan refused: ${JSON.stringify(res.body)}`);
+  return res.body.plan.id;
+}
+
+/** Creates a run of a plan on a rig, waits for readings, zeroes, and starts the seating stage. */
+export async function startedRun(operator: Client, planId: number, rigId: number): Promise<number> {
+  const created = await operator.post('/api/runs', { planId, rigId });
+  if (created.status !== 201) throw new Error(`run refused: ${JSON.stringify(created.body)}`);
+  const runId = (created.body as RunView).id;
+  await waitFor(operator, runId, (v) => v.live.gauges.every((g) => g.readingMm !== null), 'first readings');
+  await command(operator, runId, { type: 'zero' });
+  await command(operator, runId, { type: 'start' });
+  return runId;
 }

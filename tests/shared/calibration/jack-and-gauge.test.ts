@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { plateForceKn } from '@shared/domain/plate';
 import { calibrationSchema } from '@shared/calibration/schema';
-import { gaugeSettlementMm, resetOffsetMm, settlementSign } from '@shared/calibration/gauge';
+import { gaugeSettlement, resetOffset, settlementSign } from '@shared/hold/gauge-reset';
 import { createForceToGaugePressure, idealJackCalibration, idealJackForceKn, idealJackPressure, plateForceFromGaugeKn } from '@shared/calibration/jack';
 import { convertPressure } from '@shared/calibration/units';
 
@@ -77,19 +77,19 @@ describe('DOMAIN C12: gauge reset and direction', () => {
   it('reading 24.30 → 1.15 at reset gives offset 23.15 mm; later 3.00 mm → 26.15 mm settlement', () => {
     // DOMAIN.md C12 [calc/CP].
     const sign = settlementSign('retracts');
-    const offset = resetOffsetMm(sign, 24.3, 1.15);
+    const offset = resetOffset(24.3, 1.15, sign);
     expect(offset).toBeCloseTo(23.15, 12);
-    expect(gaugeSettlementMm(3.0, 0, sign, offset)).toBeCloseTo(26.15, 12);
+    expect(gaugeSettlement(3.0, 0, sign, [offset])).toBeCloseTo(26.15, 12);
     // Continuity: just before and just after the reset the settlement is the same.
-    expect(gaugeSettlementMm(1.15, 0, sign, offset)).toBeCloseTo(gaugeSettlementMm(24.3, 0, sign), 12);
+    expect(gaugeSettlement(1.15, 0, sign, [offset])).toBeCloseTo(gaugeSettlement(24.3, 0, sign), 12);
   });
 
   it('the same test on a gauge whose stem extends: readings fall as the plate settles', () => {
     // C12 mirrored about a 25.00 mm zero [calc]: 0.70 → 23.85 at reset, later 22.00.
     const sign = settlementSign('extends');
     expect(sign).toBe(-1);
-    const offset = resetOffsetMm(sign, 0.7, 23.85);
+    const offset = resetOffset(0.7, 23.85, sign);
     expect(offset).toBeCloseTo(23.15, 12);
-    expect(gaugeSettlementMm(22.0, 25.0, sign, offset)).toBeCloseTo(26.15, 12);
+    expect(gaugeSettlement(22.0, 25.0, sign, [offset])).toBeCloseTo(26.15, 12);
   });
 });
