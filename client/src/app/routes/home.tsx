@@ -5,6 +5,9 @@ import { PageHeader } from '../../components/page-header';
 import { EmptyState, QueryResult } from '../../components/query-states';
 import { paths } from '../../config/paths';
 import { useProjects } from '../../features/projects/api/get-projects';
+import { useRuns } from '../../features/runs/api/get-runs';
+import { RunBoard } from '../../features/runs/components/run-board';
+import { runPaths } from '../../features/runs/run-paths';
 import { useCan, useUser } from '../../lib/auth';
 import { formatDate } from '../../lib/format';
 
@@ -56,9 +59,20 @@ function RecentProjects({ projects }: { projects: Project[] }) {
   );
 }
 
+/** Runs in progress and finished, refreshed every few seconds. */
+function RunsOnBoard() {
+  const runs = useRuns();
+  return (
+    <QueryResult query={runs} loadingLabel="Loading runs…">
+      {(items) => <RunBoard runs={items} />}
+    </QueryResult>
+  );
+}
+
 export function HomeRoute() {
   const user = useUser();
   const projects = useProjects();
+  const canRun = useCan('plans:read');
   return (
     <>
       <PageHeader title={user ? `Hello, ${user.name}` : 'Home'} />
@@ -70,14 +84,19 @@ export function HomeRoute() {
           {(items) => <RecentProjects projects={items} />}
         </QueryResult>
       </section>
-      <section aria-labelledby="recent-runs">
-        <h2 id="recent-runs" className="mb-3 text-xl font-bold">
-          Recent runs
-        </h2>
-        <EmptyState title="No runs listed here yet">
-          Runs are started and recorded from the rig console beside the pit. Once recorded, the latest ones will be listed here.
-        </EmptyState>
-      </section>
+      {canRun && (
+        <section aria-labelledby="runs-board">
+          <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
+            <h2 id="runs-board" className="text-xl font-bold">
+              Runs
+            </h2>
+            <LinkButton to={runPaths.newRun.href()} variant="primary">
+              Set up a run
+            </LinkButton>
+          </div>
+          <RunsOnBoard />
+        </section>
+      )}
     </>
   );
 }

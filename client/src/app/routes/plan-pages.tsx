@@ -1,5 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { Link, type LoaderFunctionArgs, useNavigate, useParams } from 'react-router-dom';
+import { LinkButton } from '../../components/button';
 import { ConfirmButton } from '../../components/confirm-button';
 import { FormError } from '../../components/form-alert';
 import { PageHeader } from '../../components/page-header';
@@ -9,6 +10,7 @@ import { locationQueryOptions, useLocation } from '../../features/locations/api/
 import { useDeletePlan } from '../../features/plans/api/delete-plan';
 import { planQueryOptions, usePlan } from '../../features/plans/api/get-plan';
 import { PlanForm } from '../../features/plans/components/plan-form';
+import { runPaths } from '../../features/runs/run-paths';
 import { useCan } from '../../lib/auth';
 import { requirePermission, routeId } from '../route-guards';
 
@@ -64,17 +66,22 @@ export function PlanDetailRoute() {
                 title={p.name}
                 context={<Link to={paths.location.href(l.id)}>Pit {l.pitId}</Link>}
                 actions={
-                  canWrite && (
-                    <>
-                      <ConfirmButton
-                        label="Delete plan"
-                        question={`Delete the plan “${p.name}”?`}
-                        busy={remove.isPending}
-                        onConfirm={() => remove.mutate(p, { onSuccess: () => navigate(paths.location.href(l.id)) })}
-                      />
-                      <FormError message={remove.error?.message} />
-                    </>
-                  )
+                  <>
+                    <LinkButton to={runPaths.newRun.href(p.id)} variant="primary">
+                      Run this plan
+                    </LinkButton>
+                    {canWrite && (
+                      <>
+                        <ConfirmButton
+                          label="Delete plan"
+                          question={`Delete the plan “${p.name}”?`}
+                          busy={remove.isPending}
+                          onConfirm={() => remove.mutate(p, { onSuccess: () => navigate(paths.location.href(l.id)) })}
+                        />
+                        <FormError message={remove.error?.message} />
+                      </>
+                    )}
+                  </>
                 }
               />
               {!canWrite && <p className="mb-4 text-neutral-800">Read only: your role can view this plan but not change it.</p>}

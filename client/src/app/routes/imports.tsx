@@ -1,0 +1,27 @@
+import type { QueryClient } from '@tanstack/react-query';
+import type { LoaderFunctionArgs } from 'react-router-dom';
+import { PageHeader } from '../../components/page-header';
+import { ImportForm } from '../../features/imports/components/import-form';
+import { projectsQueryOptions } from '../../features/projects/api/get-projects';
+import { requirePermission } from '../route-guards';
+
+export const importsLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await requirePermission(queryClient, request, 'plans:write');
+    return queryClient.ensureQueryData(projectsQueryOptions());
+  };
+
+/** Import of a test recorded elsewhere (a legacy paper test typed into a CSV, or a Settlescope record). */
+export function ImportsRoute() {
+  return (
+    <>
+      <PageHeader title="Import a test" />
+      <p className="mb-4 max-w-3xl text-neutral-800">
+        A test recorded elsewhere becomes a completed run of the chosen location, with a plan that describes it, ready to interpret and report. The whole file is
+        checked first: if anything is wrong, nothing is imported and every problem is listed with its line or field.
+      </p>
+      <ImportForm />
+    </>
+  );
+}

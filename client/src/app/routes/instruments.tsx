@@ -1,0 +1,81 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { Link, type LoaderFunctionArgs, useNavigate, useParams } from 'react-router-dom';
+import { LinkButton } from '../../components/button';
+import { PageHeader } from '../../components/page-header';
+import { EmptyState, QueryResult } from '../../components/query-states';
+import { instrumentQueryOptions, instrumentsQueryOptions, useInstrument, useInstruments } from '../../features/instruments/api/get-instruments';
+import { InstrumentForm } from '../../features/instruments/components/instrument-form';
+import { InstrumentsTable } from '../../features/instruments/components/instruments-table';
+import { instrumentPaths } from '../../features/instruments/instrument-paths';
+import { requireRegisterAccess, useCanEditRegister } from '../../features/instruments/register-access';
+import { routeId } from '../route-guards';
+
+export const instrumentsLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await requireRegisterAccess(queryClient, request);
+    return queryClient.ensureQueryData(instrumentsQueryOptions());
+  };
+
+export const newInstrumentLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await requireRegisterAccess(queryClient, request, true);
+    return null;
+  };
+
+export const editInstrumentLoader =
+  (queryClient: QueryClient) =>
+  async ({ request, params }: LoaderFunctionArgs) => {
+    await requireRegisterAccess(queryClient, request, true);
+    return queryClient.ensureQueryData(instrumentQueryOptions(routeId(params, 'instrumentId')));
+  };
+
+export function InstrumentsRoute() {
+  const instruments = useInstruments();
+  const canEdit = useCanEditRegister();
+  return (
+    <>
+      <PageHeader
+        title="Instruments"
+        actions={
+          canEdit && (
+            <LinkButton to={instrumentPaths.newInstrument.href()} variant="primary">
+              Register instrument
+            </LinkButton>
+          )
+        }
+      />
+      <QueryResult query={instruments} loadingLabel="Loading the instrument register…">
+        {(items) => (items.length === 0 ? <EmptyState title="No instruments registered yet" /> : <InstrumentsTable instruments={items} />)}
+      </QueryResult>
+    </>
+  );
+}
+
+export function NewInstrumentRoute() {
+  const navigate = useNavigate();
+  return (
+    <>
+      <PageHeader title="Register instrument" context={<Link to={instrumentPaths.instruments.href()}>Instruments</Link>} />
+      <InstrumentForm onSaved={(i) => navigate(instrumentPaths.instrument.href(i.id))} onCancel={() => navigate(-1)} />
+    </>
+  );
+}
+
+export function EditInstrumentRoute() {
+  const navigate = useNavigate();
+  const instrumentId = Number(useParams().instrumentId);
+  const instrument = useInstrument(instrumentId);
+  const back = () => navigate(instrumentPaths.instrument.href(instrumentId));
+  return (
+    <QueryResult query={instrument} loadingLabel="Loading instrument…">
+      {(i) => (
+        <>
+          <PageHeader title={`Edit ${i.serialNumber}`} context={<Link to={instrumentPaths.instrument.href(i.id)}>{i.makeModel}</Link>} />
+          <InstrumentForm instrument={i} onSaved={back} onCancel={back} />
+        </>
+      )}
+    </QueryResult>
+  );
+}

@@ -1,0 +1,22 @@
+import type { Finding } from '@shared/interpretation/analyze-record';
+import type { ReactNode } from 'react';
+
+/** A method's result, or the reason it does not apply, in the same place. */
+export function FindingView<T>({ finding, children }: { finding: Finding<T>; children: (result: T) => ReactNode }) {
+  if (!finding.applies) return <p className="text-neutral-800">Not determined: {finding.reason}</p>;
+  return <>{children(finding.result)}</>;
+}
+
+/** The formula and source every figure carries. */
+export function Provenance({ formula, source }: { formula: string; source: string }) {
+  return (
+    <p className="text-sm text-neutral-700">
+      <span className="font-mono">{formula}</span> — {source}
+    </p>
+  );
+}
+
+/** A number with its unit, or "—". */
+export function figure(value: number | null | undefined, unit: string, digits = 1): string {
+  return value == null || !Number.isFinite(value) ? '—' : `${value.toFixed(digits)} ${unit}`;
+}

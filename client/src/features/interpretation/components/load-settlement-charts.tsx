@@ -1,0 +1,16 @@
+import type { RecordAnalysis } from '@shared/interpretation/analyze-record';
+import { useMemo } from 'react';
+import { arithmeticPlot, logLogPlot } from '../utils/plot-data';
+import { XyChart } from './xy-chart';
+
+/** The load–settlement curve on arithmetic axes with the hyperbola, and on log–log axes with the two lines of the log–log method. */
+export function LoadSettlementCharts({ analysis }: { analysis: RecordAnalysis }) {
+  const arithmetic = useMemo(() => arithmeticPlot(analysis), [analysis]);
+  const logLog = useMemo(() => logLogPlot(analysis), [analysis]);
+  return (
+    <div className="grid gap-4 lg:grid-cols-2">
+      <XyChart label="Load–settlement curve, arithmetic axes" data={arithmetic} xLabel="Plate pressure q, kPa" yLabel="Settlement s, mm" />
+      <XyChart label="Load–settlement curve, log–log axes" data={logLog} xLabel="log10 q (q in kPa)" yLabel="log10 s (s in mm)" />
+    </div>
+  );
+}

@@ -1,0 +1,105 @@
+import type { RunView } from '@shared/schemas/runs';
+import { useMemo, useRef } from 'react';
+import type uPlot from 'uplot';
+import type { LiveStore } from '../live-store';
+import { LiveChart } from './live-chart';
+
+const INK = '#0a0a0a';
+const GRID = '#d4d4d4';
+const axis = (label: string): uPlot.Axis => ({ label, stroke: INK, grid: { stroke: GRID, width: 1 }, ticks: { stroke: GRID } });
+/** Settlement grows downwards, as on a hand-drawn curve. */
+const SETTLEMENT_SCALE: uPlot.Scale = { dir: -1 };
+
+/**
+ * Mean settlement against minutes since the current hold started (or the stage started, while
+ * pumping), from the store's columns. The x column is filled into one preallocated array.
+ */
+export function SettlementTimeChart({ store }: { store: LiveStore }) {
+  const xs = useRef(new Float64Array(store.series.capacity));
+  const options = useMemo<Omit<uPlot.Options, 'width' | 'height'>>(
+    () => ({
+      scales: { x: { time: false }, y: SETTLEMENT_SCALE },
+      axes: [axis('minutes since the hold started'), axis('mean settlement, mm')],
+      series: [{ label: 'min' }, { label: 'Mean settlement (mm)', stroke: INK, width: 2, points: { show: false } }],
+      legend: { show: false },
+    }),
+    [],
+  );
+  const origin = () => {
+    const view = store.getSnapshot().view;
+    const stage = view?.stageStartedAtMs ?? 0;
+    const hold = view?.holdStartedAtMs ?? null;
+    // A hold start from before this stage belongs to the previous stage: count from the stage start until the new hold begins.
+    return hold !== null && hold >= stage ? hold : stage;
+  };
+  return (
+    <LiveChart
+      label="Mean settlement against time in the current stage"
+      options={options}
+      version={() => `${store.seriesVersion}@${origin()}`}
+      read={() => {
+        const start = origin();
+        const from = store.series.lowerBound(0, start);
+        const t = store.series.column(0);
+        const n = t.length - from;
+        const x = xs.current;
+        for (let i = 0; i < n; i++) x[i] = (t[from + i] - start) / 60_000;
+        return [x.subarray(0, n), store.series.column(1).subarray(from)];
+      }}
+    />
+  );
+}
+
+/** Pressure against settlement: one point where each stage ended, plus where the run stands now. */
+export function LoadSettlementChart({ store, maxPressureKpa }: { store: LiveStore; maxPressureKpa: number }) {
+  const options = useMemo<Omit<uPlot.Options, 'width' | 'height'>>(
+    () => ({
+      // Unloading runs the pressure back down, so x is not sorted: fix the x range rather than take it from the ends.
+      scales: {
+        x: { time: false, range: () => [0, Math.max(1, maxPressureKpa) * 1.05] },
+        // From zero settlement to a little past the deepest point: a single early point should not fill the plot.
+        y: { ...SETTLEMENT_SCALE, range: (_u, min, max) => [Math.min(0, min), Math.max(1, max) * 1.1] },
+      },
+      axes: [axis('plate pressure, kPa'), axis('mean settlement, mm')],
+      series: [{ label: 'kPa' }, { label: 'Mean settlement (mm)', stroke: INK, width: 2, points: { show: true, size: 8, fill: INK } }],
+      legend: { show: false },
+    }),
+    [maxPressureKpa],
+  );
+  return (
+    <LiveChart
+      label="Load–settlement curve so far"
+      options={options}
+      version={() => store.getSnapshot().viewReceivedAtMs ?? 0}
+      read={() => {
+        const points = store.curve();
+        const live = store.getSnapshot().view;
+        const current = points.find((p) => p.stageIndex === live?.stageIndex);
+        const pressure = points.map((p) => p.pressureKpa);
+        const settlement = points.map((p) => p.settlementMm);
+        // While pumping the current stage has no point yet: show where the plate stands now.
+        if (!current && live?.live.pressureKpa != null && live.live.meanSettlementMm != null) {
+          pressure.push(live.live.pressureKpa);
+          settlement.push(live.live.meanSettlementMm);
+        }
+        return [pressure, settlement];
+      }}
+    />
+  );
+}
+
+/** Both live plots of a run. Loaded lazily by the console page, so uPlot downloads only where it is drawn. */
+export function RunCharts({ store, view }: { store: LiveStore; view: RunView }) {
+  const maxKpa = useMemo(() => Math.max(0, ...view.stages.map((s) => s.targetKpa)), [view.stages]);
+  return (
+    <section aria-labelledby="plots-heading" className="flex flex-col gap-2">
+      <h2 id="plots-heading" className="text-xl font-bold">
+        Plots
+      </h2>
+      <h3 className="font-semibold">Settlement against time, this stage</h3>
+      <SettlementTimeChart store={store} />
+      <h3 className="font-semibold">Load–settlement curve so far</h3>
+      <LoadSettlementChart store={store} maxPressureKpa={maxKpa} />
+    </section>
+  );
+}

@@ -1,0 +1,128 @@
+// First: uPlot needs the canvas stubs while its module loads (TOOLCHAIN.md pitfall 6).
+import '../runs/canvas-stubs';
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import { analyzeRecord, STANDING_CAUTIONS } from '@shared/interpretation/analyze-record';
+import type { TestRecord } from '@shared/records/schema';
+import { screen, waitFor, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { InterpretationPage } from '../../../client/src/features/interpretation/components/interpretation-page';
+import { arithmeticPlot, logLogPlot } from '../../../client/src/features/interpretation/utils/plot-data';
+import { json, requests, stubFetch } from '../support/fetch-stub';
+import { aUser } from '../support/fixtures';
+import { renderWithProviders } from '../support/render';
+
+// The invented sand test of the fixtures (tests/fixtures/records/README.md).
+const record = JSON.parse(readFileSync(path.join(import.meta.dirname, '../../fixtures/records/sand-bearing-450-square.json'), 'utf8')) as TestRecord;
+const analysis = JSON.parse(JSON.stringify(analyzeRecord(record)));
+const ENGINEER = aUser('engineer', 'Mira Castellane', 'mira@example.test');
+const OPERATOR = aUser('operator', 'Tobin Reyes', 'tobin@example.test');
+
+function stubRun(user = ENGINEER, versions: unknown[][] = [[]]) {
+  return stubFetch({
+    'GET /api/auth/me': json(200, { user, csrfToken: 'token-1' }),
+    'GET /api/runs/7/interpretation': json(200, analysis),
+    'GET /api/runs/7/interpretations': versions.map((items) => json(200, { items })),
+    'POST /api/runs/7/interpretations': json(201, { id: 31, runId: 7, version: 1 }),
+  });
+}
+
+describe('interpretation page', () => {
+  it('shows every ultimate method side by side with its value, fit, formula and source', async () => {
+    stubRun();
+    renderWithProviders(<InterpretationPage runId={7} record={record} />);
+    const table = await screen.findByRole('table', { name: 'Ultimate-pressure methods' });
+    const methods = analysis.ultimate.result as { label: string; qUltKpa: number | null; formula: string; source: string }[];
+    expect(methods.length).toBeGreaterThanOrEqual(4);
+    for (const m of methods) {
+      const row = within(table).getByText(m.label).closest('tr') as HTMLElement;
+      expect(within(row).getAllByRole('cell')[1].textContent).toBe(m.qUltKpa === null ? '—' : `${m.qUltKpa.toFixed(1)} kPa`);
+      expect(within(row).getByText(m.formula)).toBeTruthy();
+      expect(within(row).getByText(m.source)).toBeTruthy();
+    }
+    // No method chosen: the lowest value is carried, and the page says so.
+    expect(screen.getByText(/the lowest value any method gives/)).toBeTruthy();
+  });
+
+  it('shows the cautions of the analysis prominently, before the figures', async () => {
+    stubRun();
+    renderWithProviders(<InterpretationPage runId={7} record={record} />);
+    const cautions = await screen.findByRole('region', { name: /Read these before using any figure/ });
+    for (const c of STANDING_CAUTIONS) expect(within(cautions).getByText(c.message)).toBeTruthy();
+    const table = screen.getByRole('table', { name: 'Ultimate-pressure methods' });
+    expect(cautions.compareDocumentPosition(table) & Node.DOCUMENT_POSITION_FOLLOWING).toBeTruthy();
+  });
+
+  it('draws the load–settlement plots and the time–settlement plots of a stage', async () => {
+    stubRun();
+    renderWithProviders(<InterpretationPage runId={7} record={record} />);
+    expect(await screen.findByRole('img', { name: 'Load–settlement curve, arithmetic axes' })).toBeTruthy();
+    expect(screen.getByRole('img', { name: 'Load–settlement curve, log–log axes' })).toBeTruthy();
+    expect(screen.getByRole('img', { name: 'Settlement against root time, stage 1' })).toBeTruthy();
+  });
+
+  it('saves the chosen method and the reason, and asks for a reason first', async () => {
+    const fetchMock = stubRun(ENGINEER, [[], [{ id: 31, runId: 7, version: 1, options: {}, chosenMethod: 'hyperbolic', reason: 'Smooth curve.', createdBy: 4, createdByName: 'Mira Castellane', createdAt: '2026-03-02T10:00:00Z', qUltKpa: 812.4, allowableKpa: 190 }]]);
+    const { user } = renderWithProviders(<InterpretationPage runId={7} record={record} />);
+    const form = await screen.findByRole('form', { name: 'Save interpretation' });
+    await user.selectOptions(within(form).getByLabelText('Chosen ultimate method'), 'hyperbolic');
+    await user.click(within(form).getByRole('button', { name: 'Save interpretation' }));
+    expect(within(form).getByText('Say why you chose it.')).toBeTruthy();
+    expect(requests(fetchMock).some((r) => r.key === 'POST /api/runs/7/interpretations')).toBe(false);
+
+    await user.type(within(form).getByLabelText('Reason'), 'Smooth curve, no clear break.');
+    await user.click(within(form).getByRole('button', { name: 'Save interpretation' }));
+    await within(form).findByText('Saved as version 1.');
+    const post = requests(fetchMock).find((r) => r.key === 'POST /api/runs/7/interpretations');
+    expect(post?.body).toEqual({ options: {}, chosenMethod: 'hyperbolic', reason: 'Smooth curve, no clear break.' });
+    expect(post?.headers['x-csrf-token']).toBe('token-1');
+    // The list of versions is fetched again and shows the new one.
+    const versions = await screen.findByRole('table', { name: 'Saved interpretations' });
+    await waitFor(() => expect(within(versions).getByText('Smooth curve.')).toBeTruthy());
+  });
+
+  it('offers no save form to an operator', async () => {
+    stubRun(OPERATOR);
+    renderWithProviders(<InterpretationPage runId={7} record={record} />);
+    await screen.findByRole('table', { name: 'Ultimate-pressure methods' });
+    await waitFor(() => expect(screen.queryByRole('form', { name: 'Save interpretation' })).toBeNull());
+  });
+
+  it('asks the server again with the engineer’s settings', async () => {
+    const stub = stubFetch({
+      'GET /api/auth/me': json(200, { user: ENGINEER, csrfToken: 'token-1' }),
+      'GET /api/runs/7/interpretation': json(200, analysis),
+      'GET /api/runs/7/interpretation?factorOfSafety=2.5&footingWidthM=3': json(200, analysis),
+      'GET /api/runs/7/interpretations': json(200, { items: [] }),
+    });
+    const { user } = renderWithProviders(<InterpretationPage runId={7} record={record} />);
+    const form = await screen.findByRole('form', { name: 'Interpretation settings' });
+    await user.type(within(form).getByLabelText('Footing width'), '3');
+    await user.type(within(form).getByLabelText('Factor of safety'), '0.5');
+    expect(within(form).getByText('Enter a number from 1 to 10.')).toBeTruthy();
+    await user.clear(within(form).getByLabelText('Factor of safety'));
+    await user.type(within(form).getByLabelText('Factor of safety'), '2.5');
+    await user.click(within(form).getByRole('button', { name: 'Apply settings' }));
+    await waitFor(() => expect(requests(stub).map((r) => r.key)).toContain('GET /api/runs/7/interpretation?factorOfSafety=2.5&footingWidthM=3'));
+  });
+});
+
+describe('plot data', () => {
+  it('draws the hyperbola of the hyperbolic method: every fitted point satisfies s/q = a + b·s (Kondner 1963)', () => {
+    const { a, b } = analysis.ultimate.result.find((r: { method: string }) => r.method === 'hyperbolic').details;
+    const plot = arithmeticPlot(analysis);
+    const fit = plot.series.find((s) => s.label === 'Hyperbola fit');
+    expect(fit).toBeDefined();
+    const pairs = plot.x.map((q, i) => [q, fit!.values[i]] as const).filter(([q, s]) => s !== null && q > 0);
+    expect(pairs.length).toBeGreaterThan(10);
+    for (const [q, s] of pairs) expect((s as number) / q).toBeCloseTo(a + b * (s as number), 9);
+  });
+
+  it('puts the measured first loading on log10 axes beside the two fitted lines', () => {
+    const plot = logLogPlot(analysis);
+    expect(plot.series.map((s) => s.label)).toEqual(['First loading (log10)', 'Line 1', 'Line 2']);
+    const measured = analysis.firstLoading.filter((p: { pressureKpa: number; settlementMm: number }) => p.pressureKpa > 0 && p.settlementMm > 0);
+    const values = plot.series[0].values.filter((v) => v !== null);
+    expect(values).toEqual(measured.map((p: { settlementMm: number }) => Math.log10(p.settlementMm)));
+  });
+});

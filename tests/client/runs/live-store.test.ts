@@ -1,0 +1,99 @@
+import { describe, expect, it } from 'vitest';
+import { createLiveStore } from '../../../client/src/features/live/live-store';
+import { createColumnBuffer } from '../../../client/src/features/live/utils/column-buffer';
+import { linkStatus, STALE_AFTER_MS } from '../../../client/src/features/live/components/link-badge';
+import { aBatch, aRunView } from './run-fixtures';
+
+describe('column buffer', () => {
+  it('keeps memory bounded and rows in order while taking far more rows than it holds', () => {
+    const buffer = createColumnBuffer({ columns: 2, capacity: 1000 });
+    const total = 50_000;
+    for (let i = 0; i < total; i++) buffer.push(i * 100, i * 0.001);
+    expect(buffer.length).toBeLessThanOrEqual(1000);
+    expect(buffer.length).toBeGreaterThan(500);
+    const t = buffer.column(0);
+    const v = buffer.column(1);
+    for (let i = 1; i < t.length; i++) expect(t[i]).toBeGreaterThan(t[i - 1]);
+    // Thinned, not truncated: the start of the hold and the newest row are both still there, rows kept in pairs.
+    expect(t[0]).toBe(0);
+    expect(t[t.length - 1]).toBe((total - 1) * 100);
+    for (let i = 0; i < t.length; i++) expect(v[i]).toBeCloseTo(t[i] / 100_000, 9);
+    expect(buffer.stride).toBeGreaterThan(1);
+    // The columns are views on the one preallocated block: no array grew.
+    expect(t.buffer.byteLength).toBe(1000 * 8);
+  });
+
+  it('finds the first row at or after a time', () => {
+    const buffer = createColumnBuffer({ columns: 1, capacity: 8 });
+    for (const t of [10, 20, 30, 40]) buffer.push(t);
+    expect(buffer.lowerBound(0, 25)).toBe(2);
+    expect(buffer.lowerBound(0, 10)).toBe(0);
+    expect(buffer.lowerBound(0, 99)).toBe(4);
+  });
+
+  it('refuses a capacity it cannot honour, naming the option', () => {
+    expect(() => createColumnBuffer({ columns: 2, capacity: 1 })).toThrow('"capacity"');
+    expect(() => createColumnBuffer({ columns: 0 })).toThrow('"columns"');
+  });
+});
+
+describe('live store', () => {
+  it('turns gauge samples into mean settlement with the offsets the view implies', () => {
+    const store = createLiveStore();
+    store.setView(aRunView());
+    // West gauge (+1): settlement = reading + (3.8 − 13.8) = reading − 10.
+    // East gauge (−1): settlement = −reading + (3.04 + 23.41) = 26.45 − reading.
+    store.ingest(
+      aBatch([
+        [1001, 3_600_100, 0, 13_900], // west reads 13.900 mm → 3.900 mm
+        [1002, 3_600_100, 1, 23_300], // east reads 23.300 mm → 3.150 mm
+        [1003, 3_600_100, 2, 28_100], // jack pressure: not a settlement
+      ]),
+    );
+    const t = store.series.column(0);
+    const mean = store.series.column(1);
+    expect(Array.from(t)).toEqual([3_600_100, 3_600_100]);
+    expect(mean[0]).toBeCloseTo((3.9 + 3.04) / 2, 9); // east still at its last view value
+    expect(mean[1]).toBeCloseTo((3.9 + 3.15) / 2, 9);
+    expect(store.lastSeq).toBe(1003);
+  });
+
+  it('ignores rows it already has, as a backfill after reconnecting overlaps', () => {
+    const store = createLiveStore();
+    store.setView(aRunView());
+    store.ingest(aBatch([[1001, 3_600_100, 0, 13_900]]));
+    const version = store.seriesVersion;
+    store.ingest(aBatch([[1001, 3_600_100, 0, 13_900]]));
+    expect(store.series.length).toBe(1);
+    expect(store.seriesVersion).toBe(version);
+  });
+
+  it('never steps back to an older view', () => {
+    const store = createLiveStore();
+    store.setView(aRunView({ version: 43 }));
+    store.setView(aRunView({ version: 42, phase: 'pumping' }));
+    expect(store.getSnapshot().view?.version).toBe(43);
+  });
+
+  it('keeps one load–settlement point per stage held', () => {
+    const store = createLiveStore();
+    const live = aRunView().live;
+    store.setView(aRunView({ stageIndex: 1, version: 1, live: { ...live, pressureKpa: 100, meanSettlementMm: 1.2 } }));
+    store.setView(aRunView({ stageIndex: 1, version: 2, live: { ...live, pressureKpa: 100.4, meanSettlementMm: 1.5 } }));
+    store.setView(aRunView({ stageIndex: 2, version: 3, phase: 'pumping', live: { ...live, pressureKpa: 150, meanSettlementMm: 1.9 } }));
+    store.setView(aRunView({ stageIndex: 2, version: 4, live: { ...live, pressureKpa: 199.6, meanSettlementMm: 3.42 } }));
+    expect(store.curve()).toEqual([
+      { stageIndex: 1, pressureKpa: 100.4, settlementMm: 1.5 },
+      { stageIndex: 2, pressureKpa: 199.6, settlementMm: 3.42 },
+    ]);
+  });
+});
+
+describe('link status', () => {
+  it('says stale when no view came for more than five seconds, even with the socket up', () => {
+    const at = 1_000_000;
+    expect(linkStatus({ link: 'live', viewReceivedAtMs: at }, at + STALE_AFTER_MS)).toBe('live');
+    expect(linkStatus({ link: 'live', viewReceivedAtMs: at }, at + STALE_AFTER_MS + 1)).toBe('stale');
+    expect(linkStatus({ link: 'reconnecting', viewReceivedAtMs: at }, at)).toBe('reconnecting');
+  });
+});
