@@ -1,7 +1,7 @@
 import { type CreationOptional, DataTypes, type InferAttributes, type InferCreationAttributes, Model, type Sequelize } from 'sequelize';
 import type { AlarmRecord } from '../../shared/hold/alarm-lifecycle';
 import type { RunState } from '../../shared/runs/lifecycle';
-import type { RunPhase } from '../../shared/schemas/runs';
+import type { RunPhase, StagePointLive } from '../../shared/schemas/runs';
 import { jsonColumn } from './json';
 
 /** What a run keeps between server restarts (the journal keeps the samples). */
@@ -13,6 +13,8 @@ export interface PersistedRun {
   lastSeq: number;
   /** Run time of the last sample, ms, for marking an outage after a restart. */
   lastSampleMs: number | null;
+  /** End-of-hold points of the stages done so far (the load–settlement curve). */
+  stagePoints?: StagePointLive[];
 }
 
 export class Run extends Model<InferAttributes<Run>, InferCreationAttributes<Run>> {

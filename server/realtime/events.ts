@@ -44,7 +44,7 @@ export const socketEvents = (monitor: RigMonitor, runs: RunManager, io: Server) 
     access: STAFF,
     input: runJoinInput,
     handler: async (socket, { runId, afterSeq }) => {
-      const engine = runs.engine(runId);
+      const engine = await runs.load(runId);
       if (!engine) throw notFound('Run');
       await socket.join(runRoom(runId));
       socket.once('disconnect', () => void updateWatchers(io, runs, runId));

@@ -64,9 +64,9 @@ export const runRoutes = (runs: RunManager) => [
     access: STAFF,
     summary: 'A run as the console shows it',
     params: idParams,
-    handler: ({ params }) => {
-      const engine = runs.engine(params.id);
-      if (!engine) throw notFound('Run (not loaded on this server)');
+    handler: async ({ params }) => {
+      const engine = await runs.load(params.id);
+      if (!engine) throw notFound('Run');
       return engine.view();
     },
   }),

@@ -4,7 +4,7 @@
  * authority over its run's state; everything it decides is persisted and pushed to watchers.
  */
 import createDebug from 'debug';
-import { convertPressure, isPressureUnit } from '../../shared/calibration/units';
+import { type PressureUnit, convertPressure, isPressureUnit } from '../../shared/calibration/units';
 import { plateAreaM2, plateForceKn } from '../../shared/domain/plate';
 import { type AlarmAction, alarmKey, reduceAlarm } from '../../shared/hold/alarm-lifecycle';
 import { type Alarm, gaugeTravelAlarm, loadDriftAlarm, reactionCapacityAlarm, signalLostAlarm, stopLimitAlarm, stopLimitMm, tiltAlarm } from '../../shared/hold/alarms';
@@ -262,6 +262,23 @@ export class RunEngine {
     this.io.pushView(this.runId, this.view());
   }
 
+  /**
+   * What to pump to for a stage, in the unit the operator reads at the rig: the pressure channel's
+   * (the transducer or gauge on the jack), converted from the jack calibration's input unit.
+   */
+  private prompt(stage: PlannedStage) {
+    const jack = this.setup.rig.jack?.calibration ?? null;
+    const toJackUnit = jackGaugePressure(jack, this.jackBranch(stage.index));
+    const shown = this.setupM.pressureUnit;
+    const convertible = jack && shown && shown !== jack.inputUnit && isPressureUnit(shown) && isPressureUnit(jack.inputUnit);
+    const forceToGaugePressure = (force: number) => {
+      const p = toJackUnit(force);
+      return p !== null && convertible ? convertPressure(p, jack.inputUnit as PressureUnit, shown as PressureUnit) : p;
+    };
+    const gaugeUnit = convertible ? shown : (jack?.inputUnit ?? '—');
+    return nextStepPrompt({ stage, plate: this.setup.plan.plate, apparatusWeightKn: this.setup.plan.apparatusWeightKn, forceToGaugePressure, gaugeUnit });
+  }
+
   /** With the jack released the plate still carries the apparatus: no target can be below that pressure. */
   private effectiveTarget(targetKpa: number): number {
     return Math.max(targetKpa, this.setup.plan.apparatusWeightKn / plateAreaM2(this.setup.plan.plate));
@@ -331,6 +348,9 @@ export class RunEngine {
     const before = this.state;
     this.persisted.lifecycle = r.state;
     if (command.type === 'manual-reading') this.recordManual(command);
+    if ((before.phase === 'holding' || before.phase === 'hold-met') && (r.state.stageIndex !== before.stageIndex || !ACTIVE_PHASES.includes(r.state.phase))) {
+      this.recordStagePoint(before.stageIndex, now);
+    }
     if (r.state.stageIndex !== before.stageIndex || (before.phase === 'preparing' && r.state.phase === 'pumping')) {
       this.series = [];
       this.reachedTicks = 0;
@@ -343,6 +363,14 @@ export class RunEngine {
     const view = this.view();
     this.io.pushView(this.runId, view);
     return view;
+  }
+
+  /** The point a finished stage leaves on the load–settlement curve (its end of hold). */
+  private recordStagePoint(stageIndex: number, atMs: number): void {
+    const stage = this.setup.stages[stageIndex];
+    const m = this.measurements;
+    if (!stage || m.pressureKpa === null || m.meanSettlementMm === null) return;
+    this.persisted.stagePoints = [...(this.persisted.stagePoints ?? []), { stageIndex, branch: stage.branch, targetKpa: stage.targetKpa, pressureKpa: m.pressureKpa, settlementMm: m.meanSettlementMm, atMs }];
   }
 
   private alarmCommand(command: Extract<RunCommand, { type: 'acknowledge-alarm' | 'shelve-alarm' }>, actor: Actor, now: number): void {
@@ -414,10 +442,7 @@ export class RunEngine {
     const now = this.nowMs();
     const stages = this.setup.stages;
     const promptStage = s.phase === 'pumping' || s.phase === 'preparing' ? stages[s.stageIndex] : s.phase === 'hold-met' ? stages[s.stageIndex + 1] : undefined;
-    const jack = this.setup.rig.jack;
-    const prompt = promptStage
-      ? nextStepPrompt({ stage: promptStage, plate: this.setup.plan.plate, apparatusWeightKn: this.setup.plan.apparatusWeightKn, forceToGaugePressure: jackGaugePressure(jack?.calibration ?? null, this.jackBranch(promptStage.index)), gaugeUnit: jack?.calibration?.inputUnit ?? '—' })
-      : null;
+    const prompt = promptStage ? this.prompt(promptStage) : null;
     const holdMin = s.holdStartedAtMs === null ? null : (now - s.holdStartedAtMs) / 60_000;
     return {
       id: this.runId,
@@ -473,6 +498,7 @@ export class RunEngine {
       alarms: Object.values(this.persisted.alarms).filter((a) => a.state !== 'cleared'),
       watchers: [...this.watchers.values()],
       lastSeq: this.persisted.lastSeq,
+      stagePoints: this.persisted.stagePoints ?? [],
     };
   }
 }

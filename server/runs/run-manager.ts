@@ -49,6 +49,20 @@ export class RunManager {
     return this.engines.get(runId);
   }
 
+  /**
+   * The engine of a run, loading a closed run's (without reading its rig) so its console view can
+   * still be shown. Undefined for unknown runs and for imported ones (they have no rig).
+   */
+  async load(runId: number): Promise<RunEngine | undefined> {
+    const loaded = this.engines.get(runId);
+    if (loaded) return loaded;
+    const run = await Run.findByPk(runId);
+    if (!run || run.rigId == null || ACTIVE_PHASES.includes(run.status)) return undefined;
+    const plan = await TestPlan.findByPk(run.planId);
+    if (!plan) return undefined;
+    return this.launch(run, plan, await loadRigContext(run.rigId), run.state);
+  }
+
   /** Why a rig's ports are taken, or null. */
   rigBusy(rigId: number): string | null {
     for (const e of this.engines.values()) if (e.rigId === rigId && e.isActive) return `Run ${e.runId} is reading this rig.`;

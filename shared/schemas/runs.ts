@@ -62,6 +62,16 @@ export const runCommandEnvelope = z.object({
 export const runParams = z.object({ id: idSchema });
 
 
+/** Where a finished stage's hold ended: one point of the load–settlement curve. */
+export interface StagePointLive {
+  stageIndex: number;
+  branch: PlannedStage['branch'];
+  targetKpa: number;
+  pressureKpa: number;
+  settlementMm: number;
+  atMs: number;
+}
+
 /** A run as the console shows it: one authoritative snapshot, pushed on every change. */
 export interface RunView {
   id: number;
@@ -111,4 +121,5 @@ export interface RunView {
   alarms: AlarmRecord[];
   watchers: { id: number; name: string; role: string }[];
   lastSeq: number;
+  stagePoints: StagePointLive[];
 }

@@ -12,11 +12,9 @@ import { initModels } from '../../server/db/models';
 import { createSequelize } from '../../server/db/sequelize';
 import type { SimulatorProcess } from '../../server/ops/simulated-rig';
 import { seedDemo } from '../../server/seed/demo';
-import { findProfile } from '../../shared/procedures/profiles';
-import type { RunView } from '../../shared/schemas/runs';
 import { Client, demoEmail } from '../support/api';
 import { spawnServer } from '../support/server-process';
-import { command, simulatedRig, waitFor } from '../support/sim-run';
+import { command, simPlan, simulatedRig, startedRun, waitFor } from '../support/sim-run';
 import { freshDatabase } from '../support/test-database';
 
 const config = await freshDatabase();
@@ -56,23 +54,12 @@ describe('server killed mid-hold (QUALITY R1)', () => {
   it('resumes the run where it was and loses no journaled sample', async () => {
     let server = await spawnServer(config, PORT);
     let client = await new Client(server.url).signIn(demoEmail('operator'));
-    const profile = findProfile('bearing-granular')!;
     const engineer = await new Client(server.url).signIn(demoEmail('engineer'));
-    const created = await engineer.post('/api/locations/1/plans', {
-      name: 'Crash plan',
-      procedureId: profile.id,
-      ...profile.defaults,
-      plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
-      apparatusWeightKn: 0.5,
+    const planId = await simPlan(engineer, 'bearing-granular', {
       loading: { mode: 'list', pressuresKpa: [200, 400] },
       holdRule: { kind: 'rate', maxRateMmPerMin: 0.02, windowMin: 10, minHoldMin: 600 }, // a long hold to be killed in
-      reaction: { kind: 'kentledge', capacityKn: 100, description: '' },
-      footing: null,
     });
-    const runId = ((await client.post('/api/runs', { planId: created.body.plan.id, rigId })).body as RunView).id;
-    await waitFor(client, runId, (v) => v.live.gauges.every((g) => g.readingMm !== null), 'first readings');
-    await command(client, runId, { type: 'zero' });
-    await command(client, runId, { type: 'start' });
+    const runId = await startedRun(client, planId, rigId);
     await waitFor(client, runId, (v) => v.phase === 'hold-met' && v.stageIndex === 0, 'seating');
     await command(client, runId, { type: 'advance' });
     const before = await waitFor(client, runId, (v) => v.phase === 'holding' && v.stageIndex === 1 && v.lastSeq > 200, 'holding stage 1');

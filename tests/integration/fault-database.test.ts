@@ -11,11 +11,10 @@ import { type RunningServer, startServer } from '../../server/main';
 import { type MariadbInstance, ensureDatabase, startMariadb } from '../../server/ops/mariadb';
 import type { SimulatorProcess } from '../../server/ops/simulated-rig';
 import { seedDemo } from '../../server/seed/demo';
-import { findProfile } from '../../shared/procedures/profiles';
 import type { RunView } from '../../shared/schemas/runs';
 import { Client, demoEmail } from '../support/api';
 import { connectSocket, httpSignIn } from '../support/live-server';
-import { command, simulatedRig, waitFor } from '../support/sim-run';
+import { command, simPlan, simulatedRig, startedRun, waitFor } from '../support/sim-run';
 
 const OUTAGE_MS = Number(process.env.SSCOPE_R2_OUTAGE_MS ?? 60_000);
 const baseDir = path.join(ROOT_DIR, '.data', `test-r2-${process.pid}`);
@@ -44,22 +43,11 @@ describe('database outage during a run (QUALITY R2)', () => {
   it('keeps acquiring and deciding while MariaDB is away, then archives everything exactly once', async () => {
     const operator = await new Client(server.url).signIn(demoEmail('operator'));
     const engineer = await new Client(server.url).signIn(demoEmail('engineer'));
-    const profile = findProfile('bearing-granular')!;
-    const plan = await engineer.post('/api/locations/1/plans', {
-      name: 'Outage plan',
-      procedureId: profile.id,
-      ...profile.defaults,
-      plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
-      apparatusWeightKn: 0.5,
+    const planId = await simPlan(engineer, 'bearing-granular', {
       loading: { mode: 'list', pressuresKpa: [200, 400] },
       holdRule: { kind: 'rate', maxRateMmPerMin: 0.02, windowMin: 5, minHoldMin: 20 },
-      reaction: { kind: 'kentledge', capacityKn: 100, description: '' },
-      footing: null,
     });
-    const runId = ((await operator.post('/api/runs', { planId: plan.body.plan.id, rigId })).body as RunView).id;
-    await waitFor(operator, runId, (v) => v.live.gauges.every((g) => g.readingMm !== null), 'first readings');
-    await command(operator, runId, { type: 'zero' });
-    await command(operator, runId, { type: 'start' });
+    const runId = await startedRun(operator, planId, rigId);
     await waitFor(operator, runId, (v) => v.phase === 'hold-met', 'seating');
     await command(operator, runId, { type: 'advance' });
     await waitFor(operator, runId, (v) => v.phase === 'holding' && v.stageIndex === 1, 'holding');

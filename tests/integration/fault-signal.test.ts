@@ -8,12 +8,10 @@ import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { RunningServer } from '../../server/main';
 import type { SimulatorProcess } from '../../server/ops/simulated-rig';
-import { findProfile } from '../../shared/procedures/profiles';
 import { SAMPLE_STATUS } from '../../shared/runs/samples';
-import type { RunView } from '../../shared/schemas/runs';
 import { Client, demoEmail } from '../support/api';
 import { connectSocket, httpSignIn, startLiveServer } from '../support/live-server';
-import { command, simulatedRig, waitFor } from '../support/sim-run';
+import { command, simPlan, simulatedRig, startedRun, waitFor } from '../support/sim-run';
 
 let server: RunningServer;
 let sim: SimulatorProcess;
@@ -36,22 +34,11 @@ describe('signal faults (QUALITY R3, R4, R5)', () => {
   it('alarms a lost port within 2 s, reconnects, keeps the gap, rejects bad frames, and backfills an offline viewer', async () => {
     const operator = await new Client(server.url).signIn(demoEmail('operator'));
     const engineer = await new Client(server.url).signIn(demoEmail('engineer'));
-    const profile = findProfile('bearing-granular')!;
-    const plan = await engineer.post('/api/locations/1/plans', {
-      name: 'Fault plan',
-      procedureId: profile.id,
-      ...profile.defaults,
-      plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
-      apparatusWeightKn: 0.5,
+    const planId = await simPlan(engineer, 'bearing-granular', {
       loading: { mode: 'list', pressuresKpa: [250] },
       holdRule: { kind: 'fixed', durationMin: 24 * 60 },
-      reaction: { kind: 'kentledge', capacityKn: 100, description: '' },
-      footing: null,
     });
-    const runId = ((await operator.post('/api/runs', { planId: plan.body.plan.id, rigId })).body as RunView).id;
-    await waitFor(operator, runId, (v) => v.live.gauges.every((g) => g.readingMm !== null), 'first readings');
-    await command(operator, runId, { type: 'zero' });
-    await command(operator, runId, { type: 'start' });
+    const runId = await startedRun(operator, planId, rigId);
     await waitFor(operator, runId, (v) => v.phase === 'hold-met' && v.stageIndex === 0, 'seating');
     await command(operator, runId, { type: 'advance' });
     await waitFor(operator, runId, (v) => v.phase === 'holding' && v.stageIndex === 1, 'holding');

@@ -7,12 +7,11 @@ import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { RunningServer } from '../../server/main';
 import type { SimulatorProcess } from '../../server/ops/simulated-rig';
-import { findProfile } from '../../shared/procedures/profiles';
 import type { SampleBatch } from '../../shared/realtime/events';
 import type { RunView } from '../../shared/schemas/runs';
 import { Client, demoEmail } from '../support/api';
 import { connectSocket, httpSignIn, startLiveServer } from '../support/live-server';
-import { command, simulatedRig, waitFor } from '../support/sim-run';
+import { command, simPlan, simulatedRig, waitFor } from '../support/sim-run';
 
 let server: RunningServer;
 let sim: SimulatorProcess;
@@ -32,21 +31,12 @@ afterAll(async () => {
 describe('a bearing test on dense sand, plan to finish through the API', () => {
   it('zeroes, seats, holds each increment until the rate rule is met, prompts the next target, and archives every sample once', async () => {
     const engineer = await new Client(server.url).signIn(demoEmail('engineer'));
-    const profile = findProfile('bearing-granular')!;
-    const plan = await engineer.post('/api/locations/1/plans', {
-      name: 'Integration sand plan',
-      procedureId: profile.id,
-      ...profile.defaults,
-      plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
-      apparatusWeightKn: 0.5,
+    const planId = await simPlan(engineer, 'bearing-granular', {
       loading: { mode: 'list', pressuresKpa: [150, 300, 450] },
       holdRule: { kind: 'rate', maxRateMmPerMin: 0.02, windowMin: 5, minHoldMin: 10 },
-      reaction: { kind: 'kentledge', capacityKn: 100, description: '' },
-      footing: null,
     });
-    expect(plan.status).toBe(201);
 
-    const created = await operator.post('/api/runs', { planId: plan.body.plan.id, rigId });
+    const created = await operator.post('/api/runs', { planId, rigId });
     expect(created.status).toBe(201);
     const runId = (created.body as RunView).id;
 
@@ -75,8 +65,9 @@ describe('a bearing test on dense sand, plan to finish through the API', () => {
       expect(Math.abs(view.live.pressureKpa! - stages[i].targetKpa)).toBeLessThan(Math.max(0.05 * stages[i].targetKpa, 5));
       if (i < stages.length - 1) {
         // The prompt names the next target, the plate force and the jack gauge pressure to pump to (C10-style conversion).
-        expect(view.prompt).toMatchObject({ stageIndex: i + 1, targetKpa: stages[i + 1].targetKpa, gaugeUnit: 'MPa' });
-        expect(view.prompt!.gaugePressure).toBeCloseTo((view.prompt!.plateForceKn - 0.5) / 4.926, 6);
+        // In the unit of the jack's pressure transducer (bar), through the jack calibration in MPa (1 MPa = 10 bar).
+        expect(view.prompt).toMatchObject({ stageIndex: i + 1, targetKpa: stages[i + 1].targetKpa, gaugeUnit: 'bar' });
+        expect(view.prompt!.gaugePressure).toBeCloseTo(((view.prompt!.plateForceKn - 0.5) / 4.926) * 10, 6);
         if (stages[i].branch !== 'seating') {
           const evidence = view.hold!.evidence;
           expect(evidence.kind).toBe('rate');
@@ -92,6 +83,10 @@ describe('a bearing test on dense sand, plan to finish through the API', () => {
     expect(settlements).toBeGreaterThan(0.2);
     view = await command(operator, runId, { type: 'finish' });
     expect(view.phase).toBe('completed');
+    // One end-of-hold point per stage: the load–settlement curve, rising with pressure.
+    expect(view.stagePoints.map((p) => p.targetKpa)).toEqual([7, 150, 300, 450]);
+    const curve = view.stagePoints.map((p) => p.settlementMm);
+    expect(curve).toEqual([...curve].sort((a, b) => a - b));
 
     // Every sample journaled is in the database exactly once.
     await new Promise((r) => setTimeout(r, 500));
@@ -111,5 +106,5 @@ describe('a bearing test on dense sand, plan to finish through the API', () => {
     expect(seen.length).toBeGreaterThan(100);
     expect(seen).toEqual([...seen].sort((a, b) => a - b));
     socket.close();
-  });
+  }, 240_000);
 });

@@ -15,6 +15,18 @@ export const paths = {
   organizations: { pattern: '/organizations', href: () => '/organizations' },
   users: { pattern: '/users', href: () => '/users' },
   account: { pattern: '/account', href: () => '/account' },
+  newRun: { pattern: '/runs/new', href: (planId?: number) => (planId ? `/runs/new?planId=${planId}` : '/runs/new') },
+  run: { pattern: '/runs/:runId', href: (id: number) => `/runs/${id}` },
+  interpretation: { pattern: '/runs/:runId/interpretation', href: (runId: number) => `/runs/${runId}/interpretation` },
+  imports: { pattern: '/imports', href: () => '/imports' },
+  instruments: { pattern: '/instruments', href: () => '/instruments' },
+  newInstrument: { pattern: '/instruments/new', href: () => '/instruments/new' },
+  instrument: { pattern: '/instruments/:instrumentId', href: (id: number) => `/instruments/${id}` },
+  editInstrument: { pattern: '/instruments/:instrumentId/edit', href: (id: number) => `/instruments/${id}/edit` },
+  rigs: { pattern: '/rigs', href: () => '/rigs' },
+  newRig: { pattern: '/rigs/new', href: () => '/rigs/new' },
+  editRig: { pattern: '/rigs/:rigId/edit', href: (id: number) => `/rigs/${id}/edit` },
+  rigCheck: { pattern: '/rigs/:rigId/check', href: (id: number) => `/rigs/${id}/check` },
 } as const;
 
 /** Where to go after sign-in: only a path on this site, never another origin. */

@@ -1,5 +1,5 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { User } from '@shared/schemas/users';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api, isApiError } from './api-client';
 import { can, type Permission } from './permissions';
 

@@ -62,7 +62,24 @@ describe('interpretation page', () => {
   });
 
   it('saves the chosen method and the reason, and asks for a reason first', async () => {
-    const fetchMock = stubRun(ENGINEER, [[], [{ id: 31, runId: 7, version: 1, options: {}, chosenMethod: 'hyperbolic', reason: 'Smooth curve.', createdBy: 4, createdByName: 'Mira Castellane', createdAt: '2026-03-02T10:00:00Z', qUltKpa: 812.4, allowableKpa: 190 }]]);
+    const fetchMock = stubRun(ENGINEER, [
+      [],
+      [
+        {
+          id: 31,
+          runId: 7,
+          version: 1,
+          options: {},
+          chosenMethod: 'hyperbolic',
+          reason: 'Smooth curve.',
+          createdBy: 4,
+          createdByName: 'Mira Castellane',
+          createdAt: '2026-03-02T10:00:00Z',
+          qUltKpa: 812.4,
+          allowableKpa: 190,
+        },
+      ],
+    ]);
     const { user } = renderWithProviders(<InterpretationPage runId={7} record={record} />);
     const form = await screen.findByRole('form', { name: 'Save interpretation' });
     await user.selectOptions(within(form).getByLabelText('Chosen ultimate method'), 'hyperbolic');

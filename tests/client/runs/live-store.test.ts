@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
+import { linkStatus, STALE_AFTER_MS } from '../../../client/src/features/live/components/link-badge';
 import { createLiveStore } from '../../../client/src/features/live/live-store';
 import { createColumnBuffer } from '../../../client/src/features/live/utils/column-buffer';
-import { linkStatus, STALE_AFTER_MS } from '../../../client/src/features/live/components/link-badge';
 import { aBatch, aRunView } from './run-fixtures';
 
 describe('column buffer', () => {
@@ -75,13 +75,13 @@ describe('live store', () => {
     expect(store.getSnapshot().view?.version).toBe(43);
   });
 
-  it('keeps one load–settlement point per stage held', () => {
+  it('draws the server’s end-of-hold points plus the stage now held', () => {
     const store = createLiveStore();
     const live = aRunView().live;
-    store.setView(aRunView({ stageIndex: 1, version: 1, live: { ...live, pressureKpa: 100, meanSettlementMm: 1.2 } }));
-    store.setView(aRunView({ stageIndex: 1, version: 2, live: { ...live, pressureKpa: 100.4, meanSettlementMm: 1.5 } }));
-    store.setView(aRunView({ stageIndex: 2, version: 3, phase: 'pumping', live: { ...live, pressureKpa: 150, meanSettlementMm: 1.9 } }));
-    store.setView(aRunView({ stageIndex: 2, version: 4, live: { ...live, pressureKpa: 199.6, meanSettlementMm: 3.42 } }));
+    const ended = { stageIndex: 1, branch: 'loading' as const, targetKpa: 100, pressureKpa: 100.4, settlementMm: 1.5, atMs: 0 };
+    store.setView(aRunView({ stageIndex: 2, version: 3, phase: 'pumping', stagePoints: [ended], live: { ...live, pressureKpa: 150, meanSettlementMm: 1.9 } }));
+    expect(store.curve()).toEqual([{ stageIndex: 1, pressureKpa: 100.4, settlementMm: 1.5 }]); // pumping: no point yet
+    store.setView(aRunView({ stageIndex: 2, version: 4, stagePoints: [ended], live: { ...live, pressureKpa: 199.6, meanSettlementMm: 3.42 } }));
     expect(store.curve()).toEqual([
       { stageIndex: 1, pressureKpa: 100.4, settlementMm: 1.5 },
       { stageIndex: 2, pressureKpa: 199.6, settlementMm: 3.42 },

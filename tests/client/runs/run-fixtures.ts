@@ -124,6 +124,7 @@ export function aRunView(fields: Partial<RunView> = {}): RunView {
     alarms: [],
     watchers: [{ id: 9, name: 'Ines Okafor', role: 'engineer' }],
     lastSeq: 1000,
+    stagePoints: [],
     ...fields,
   };
 }

@@ -4,9 +4,6 @@ import { CautionNotice } from '../../components/caution-notice';
 import { LoadingState } from '../../components/query-states';
 import { paths } from '../../config/paths';
 import { HealthStatus } from '../../features/health/components/health-status';
-import { instrumentPaths } from '../../features/instruments/instrument-paths';
-import { rigPaths } from '../../features/rigs/rig-paths';
-import { runPaths } from '../../features/runs/run-paths';
 import { ROLE_LABELS } from '../../features/users/components/role-labels';
 import { useUser } from '../../lib/auth';
 import { can, type Permission } from '../../lib/permissions';
@@ -20,12 +17,12 @@ interface NavItem {
 
 const NAV: NavItem[] = [
   { to: paths.home.href(), label: 'Home', end: true },
-  { to: runPaths.newRun.href(), label: 'New run', permission: 'plans:read' },
+  { to: paths.newRun.href(), label: 'New run', permission: 'plans:read' },
   { to: paths.projects.href(), label: 'Projects' },
   { to: paths.organizations.href(), label: 'Organisations', permission: 'organizations:read' },
   // 'plans:read' grants the staff roles (admin, engineer, operator), who are the register's readers.
-  { to: instrumentPaths.instruments.href(), label: 'Instruments', permission: 'plans:read' },
-  { to: rigPaths.rigs.href(), label: 'Rigs', permission: 'plans:read' },
+  { to: paths.instruments.href(), label: 'Instruments', permission: 'plans:read' },
+  { to: paths.rigs.href(), label: 'Rigs', permission: 'plans:read' },
   { to: paths.users.href(), label: 'Users', permission: 'users:manage' },
   { to: paths.account.href(), label: 'My account' },
 ];

@@ -7,7 +7,6 @@ import { paths } from '../../config/paths';
 import { useProjects } from '../../features/projects/api/get-projects';
 import { useRuns } from '../../features/runs/api/get-runs';
 import { RunBoard } from '../../features/runs/components/run-board';
-import { runPaths } from '../../features/runs/run-paths';
 import { useCan, useUser } from '../../lib/auth';
 import { formatDate } from '../../lib/format';
 
@@ -90,7 +89,7 @@ export function HomeRoute() {
             <h2 id="runs-board" className="text-xl font-bold">
               Runs
             </h2>
-            <LinkButton to={runPaths.newRun.href()} variant="primary">
+            <LinkButton to={paths.newRun.href()} variant="primary">
               Set up a run
             </LinkButton>
           </div>

@@ -18,8 +18,8 @@ export function ImportsRoute() {
     <>
       <PageHeader title="Import a test" />
       <p className="mb-4 max-w-3xl text-neutral-800">
-        A test recorded elsewhere becomes a completed run of the chosen location, with a plan that describes it, ready to interpret and report. The whole file is
-        checked first: if anything is wrong, nothing is imported and every problem is listed with its line or field.
+        A test recorded elsewhere becomes a completed run of the chosen location, with a plan that describes it, ready to interpret and report. The whole file
+        is checked first: if anything is wrong, nothing is imported and every problem is listed with its line or field.
       </p>
       <ImportForm />
     </>

@@ -5,11 +5,11 @@ import { Button, LinkButton } from '../../components/button';
 import { FormNotice } from '../../components/form-alert';
 import { PageHeader } from '../../components/page-header';
 import { QueryResult } from '../../components/query-states';
+import { paths } from '../../config/paths';
 import { type InstrumentDetail, instrumentQueryOptions, useInstrument } from '../../features/instruments/api/get-instruments';
 import { CalibrationForm } from '../../features/instruments/components/calibration-form';
 import { CalibrationHistory } from '../../features/instruments/components/calibration-history';
 import { CalibrationBadge, KIND_LABELS } from '../../features/instruments/components/calibration-status';
-import { instrumentPaths } from '../../features/instruments/instrument-paths';
 import { requireRegisterAccess, useCanEditRegister } from '../../features/instruments/register-access';
 import { formatRange } from '../../features/instruments/utils/instrument-text';
 import { routeId } from '../route-guards';
@@ -68,8 +68,8 @@ export function InstrumentDetailRoute() {
         <>
           <PageHeader
             title={`${i.serialNumber} · ${i.makeModel}`}
-            context={<Link to={instrumentPaths.instruments.href()}>Instruments</Link>}
-            actions={canEdit && <LinkButton to={instrumentPaths.editInstrument.href(i.id)}>Edit instrument</LinkButton>}
+            context={<Link to={paths.instruments.href()}>Instruments</Link>}
+            actions={canEdit && <LinkButton to={paths.editInstrument.href(i.id)}>Edit instrument</LinkButton>}
           />
           <InstrumentFacts instrument={i} />
           <section aria-labelledby="calibrations-title" className="flex flex-col gap-4">

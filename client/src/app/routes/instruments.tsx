@@ -3,10 +3,10 @@ import { Link, type LoaderFunctionArgs, useNavigate, useParams } from 'react-rou
 import { LinkButton } from '../../components/button';
 import { PageHeader } from '../../components/page-header';
 import { EmptyState, QueryResult } from '../../components/query-states';
+import { paths } from '../../config/paths';
 import { instrumentQueryOptions, instrumentsQueryOptions, useInstrument, useInstruments } from '../../features/instruments/api/get-instruments';
 import { InstrumentForm } from '../../features/instruments/components/instrument-form';
 import { InstrumentsTable } from '../../features/instruments/components/instruments-table';
-import { instrumentPaths } from '../../features/instruments/instrument-paths';
 import { requireRegisterAccess, useCanEditRegister } from '../../features/instruments/register-access';
 import { routeId } from '../route-guards';
 
@@ -40,7 +40,7 @@ export function InstrumentsRoute() {
         title="Instruments"
         actions={
           canEdit && (
-            <LinkButton to={instrumentPaths.newInstrument.href()} variant="primary">
+            <LinkButton to={paths.newInstrument.href()} variant="primary">
               Register instrument
             </LinkButton>
           )
@@ -57,8 +57,8 @@ export function NewInstrumentRoute() {
   const navigate = useNavigate();
   return (
     <>
-      <PageHeader title="Register instrument" context={<Link to={instrumentPaths.instruments.href()}>Instruments</Link>} />
-      <InstrumentForm onSaved={(i) => navigate(instrumentPaths.instrument.href(i.id))} onCancel={() => navigate(-1)} />
+      <PageHeader title="Register instrument" context={<Link to={paths.instruments.href()}>Instruments</Link>} />
+      <InstrumentForm onSaved={(i) => navigate(paths.instrument.href(i.id))} onCancel={() => navigate(-1)} />
     </>
   );
 }
@@ -67,12 +67,12 @@ export function EditInstrumentRoute() {
   const navigate = useNavigate();
   const instrumentId = Number(useParams().instrumentId);
   const instrument = useInstrument(instrumentId);
-  const back = () => navigate(instrumentPaths.instrument.href(instrumentId));
+  const back = () => navigate(paths.instrument.href(instrumentId));
   return (
     <QueryResult query={instrument} loadingLabel="Loading instrument…">
       {(i) => (
         <>
-          <PageHeader title={`Edit ${i.serialNumber}`} context={<Link to={instrumentPaths.instrument.href(i.id)}>{i.makeModel}</Link>} />
+          <PageHeader title={`Edit ${i.serialNumber}`} context={<Link to={paths.instrument.href(i.id)}>{i.makeModel}</Link>} />
           <InstrumentForm instrument={i} onSaved={back} onCancel={back} />
         </>
       )}

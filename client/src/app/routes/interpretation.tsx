@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
+import { lazy, Suspense } from 'react';
 import { type LoaderFunctionArgs, useParams } from 'react-router-dom';
 import { PageHeader } from '../../components/page-header';
-import { lazy, Suspense } from 'react';
 import { LoadingState, QueryResult } from '../../components/query-states';
 import { interpretationQueryOptions, runRecordQueryOptions, useRunRecord } from '../../features/interpretation/api/get-interpretation';
 import { requirePermission, routeId } from '../route-guards';

@@ -10,7 +10,6 @@ import { locationQueryOptions, useLocation } from '../../features/locations/api/
 import { useDeletePlan } from '../../features/plans/api/delete-plan';
 import { planQueryOptions, usePlan } from '../../features/plans/api/get-plan';
 import { PlanForm } from '../../features/plans/components/plan-form';
-import { runPaths } from '../../features/runs/run-paths';
 import { useCan } from '../../lib/auth';
 import { requirePermission, routeId } from '../route-guards';
 
@@ -67,7 +66,7 @@ export function PlanDetailRoute() {
                 context={<Link to={paths.location.href(l.id)}>Pit {l.pitId}</Link>}
                 actions={
                   <>
-                    <LinkButton to={runPaths.newRun.href(p.id)} variant="primary">
+                    <LinkButton to={paths.newRun.href(p.id)} variant="primary">
                       Run this plan
                     </LinkButton>
                     {canWrite && (

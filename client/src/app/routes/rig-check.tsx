@@ -2,11 +2,11 @@ import type { QueryClient } from '@tanstack/react-query';
 import { Link, type LoaderFunctionArgs, useParams } from 'react-router-dom';
 import { PageHeader } from '../../components/page-header';
 import { QueryResult } from '../../components/query-states';
+import { paths } from '../../config/paths';
 import { requireRegisterAccess } from '../../features/instruments/register-access';
 import { rigQueryOptions, useRig } from '../../features/rigs/api/get-rigs';
 import { useRigLive } from '../../features/rigs/api/use-rig-live';
 import { DeviceCheck } from '../../features/rigs/components/device-check';
-import { rigPaths } from '../../features/rigs/rig-paths';
 import { routeId } from '../route-guards';
 
 export const rigCheckLoader =
@@ -25,7 +25,7 @@ export function RigCheckRoute() {
     <QueryResult query={rig} loadingLabel="Loading rig…">
       {(r) => (
         <>
-          <PageHeader title={`Device check: ${r.name}`} context={<Link to={rigPaths.rigs.href()}>Rigs</Link>} />
+          <PageHeader title={`Device check: ${r.name}`} context={<Link to={paths.rigs.href()}>Rigs</Link>} />
           <DeviceCheck feed={feed} />
         </>
       )}

@@ -3,12 +3,12 @@ import { Link, type LoaderFunctionArgs, useNavigate, useParams } from 'react-rou
 import { LinkButton } from '../../components/button';
 import { PageHeader } from '../../components/page-header';
 import { EmptyState, QueryResult } from '../../components/query-states';
+import { paths } from '../../config/paths';
 import { instrumentsQueryOptions, useInstruments } from '../../features/instruments/api/get-instruments';
 import { requireRegisterAccess, useCanEditRegister } from '../../features/instruments/register-access';
 import { deviceProfilesQueryOptions, rigQueryOptions, rigsQueryOptions, useDeviceProfiles, useRig, useRigs } from '../../features/rigs/api/get-rigs';
 import { RigForm } from '../../features/rigs/components/rig-form';
 import { RigsTable } from '../../features/rigs/components/rigs-table';
-import { rigPaths } from '../../features/rigs/rig-paths';
 import { routeId } from '../route-guards';
 
 export const rigsLoader =
@@ -40,7 +40,7 @@ export function RigsRoute() {
         title="Rigs"
         actions={
           canEdit && (
-            <LinkButton to={rigPaths.newRig.href()} variant="primary">
+            <LinkButton to={paths.newRig.href()} variant="primary">
               New rig
             </LinkButton>
           )
@@ -57,7 +57,7 @@ function RigFormPage({ rigId }: { rigId?: number }) {
   const navigate = useNavigate();
   const instruments = useInstruments();
   const profiles = useDeviceProfiles();
-  const toList = () => navigate(rigPaths.rigs.href());
+  const toList = () => navigate(paths.rigs.href());
   return (
     <QueryResult query={instruments} loadingLabel="Loading the instrument register…">
       {(register) => (
@@ -87,7 +87,7 @@ function EditRigForm({ rigId, onDone, ...lists }: { rigId: number; onDone: () =>
 export function NewRigRoute() {
   return (
     <>
-      <PageHeader title="New rig" context={<Link to={rigPaths.rigs.href()}>Rigs</Link>} />
+      <PageHeader title="New rig" context={<Link to={paths.rigs.href()}>Rigs</Link>} />
       <RigFormPage />
     </>
   );
@@ -99,8 +99,8 @@ export function EditRigRoute() {
     <>
       <PageHeader
         title="Edit rig"
-        context={<Link to={rigPaths.rigs.href()}>Rigs</Link>}
-        actions={<LinkButton to={rigPaths.rigCheck.href(rigId)}>Check devices</LinkButton>}
+        context={<Link to={paths.rigs.href()}>Rigs</Link>}
+        actions={<LinkButton to={paths.rigCheck.href(rigId)}>Check devices</LinkButton>}
       />
       <RigFormPage rigId={rigId} />
     </>

@@ -17,7 +17,6 @@ import { useRigs } from '../../features/runs/api/get-rigs';
 import { runQueryOptions } from '../../features/runs/api/get-run';
 import { RunConsole } from '../../features/runs/components/run-console';
 import { RunSetupForm } from '../../features/runs/components/run-setup-form';
-import { runPaths } from '../../features/runs/run-paths';
 import { useNow } from '../../features/runs/utils/use-now';
 import { requirePermission, routeId } from '../route-guards';
 
@@ -112,7 +111,7 @@ export function RunSetupRoute() {
       {given ? <ChosenPlan planId={given} /> : <PlanPicker onPick={setPicked} />}
       <div className="mt-4">
         <QueryResult query={rigs} loadingLabel="Loading rigs…">
-          {(items) => <RunSetupForm planId={planId} rigs={items} onCreated={(view) => navigate(runPaths.run.href(view.id))} />}
+          {(items) => <RunSetupForm planId={planId} rigs={items} onCreated={(view) => navigate(paths.run.href(view.id))} />}
         </QueryResult>
       </div>
     </>

@@ -42,7 +42,6 @@ const HOLD_PHASES = new Set<RunView['phase']>(['holding', 'hold-met', 'completed
 export function createLiveStore({ capacity = 200_000, now = Date.now }: LiveStoreOptions = {}) {
   const listeners = new Set<() => void>();
   const series = createColumnBuffer({ columns: 2, capacity });
-  const stageEnds = new Map<number, CurvePoint>();
   let snapshot: LiveSnapshot = { view: null, link: 'connecting', viewReceivedAtMs: null, linkError: null };
   let lastSeq = 0;
   let seriesVersion = 0;
@@ -71,12 +70,6 @@ export function createLiveStore({ capacity = 200_000, now = Date.now }: LiveStor
     });
   }
 
-  function recordStageEnd(view: RunView) {
-    const { pressureKpa, meanSettlementMm } = view.live;
-    if (!HOLD_PHASES.has(view.phase) || pressureKpa === null || meanSettlementMm === null) return;
-    stageEnds.set(view.stageIndex, { stageIndex: view.stageIndex, pressureKpa, settlementMm: meanSettlementMm });
-  }
-
   function meanOfLatest(): number {
     let sum = 0;
     let n = 0;
@@ -100,7 +93,6 @@ export function createLiveStore({ capacity = 200_000, now = Date.now }: LiveStor
       // A command's answer and a pushed view may arrive out of order: never step back in version.
       if (snapshot.view && snapshot.view.id === view.id && view.version < snapshot.view.version) return;
       updateOffsets(view);
-      recordStageEnd(view);
       publish({ view, viewReceivedAtMs: now() });
     },
     setLink(link: LinkState, linkError: string | null = null): void {
@@ -140,9 +132,15 @@ export function createLiveStore({ capacity = 200_000, now = Date.now }: LiveStor
     },
     /** Mean settlement (mm) over run-clock time (ms). */
     series,
-    /** The load–settlement curve so far: one point per stage seen holding, in stage order. */
+    /** The load–settlement curve so far: the server's end-of-hold point of every finished stage, plus the stage now held. */
     curve(): CurvePoint[] {
-      return [...stageEnds.values()].sort((a, b) => a.stageIndex - b.stageIndex);
+      const view = snapshot.view;
+      if (!view) return [];
+      const points: CurvePoint[] = view.stagePoints.map((p) => ({ stageIndex: p.stageIndex, pressureKpa: p.pressureKpa, settlementMm: p.settlementMm }));
+      const { pressureKpa, meanSettlementMm } = view.live;
+      const held = HOLD_PHASES.has(view.phase) && !points.some((p) => p.stageIndex === view.stageIndex);
+      if (held && pressureKpa !== null && meanSettlementMm !== null) points.push({ stageIndex: view.stageIndex, pressureKpa, settlementMm: meanSettlementMm });
+      return points;
     },
   };
 }

@@ -1,5 +1,5 @@
-import { useMutation } from '@tanstack/react-query';
 import type { ChangePasswordInput } from '@shared/schemas/users';
+import { useMutation } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 
 export function changePassword(input: ChangePasswordInput): Promise<void> {

@@ -1,5 +1,5 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { LoginInput, User } from '@shared/schemas/users';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { authKeys, type Session } from '../../../lib/auth';
 

@@ -4,8 +4,8 @@ import { Link } from 'react-router-dom';
 import { Button } from '../../../components/button';
 import { FormError, FormNotice } from '../../../components/form-alert';
 import { FieldShell, SelectField, TextAreaField, TextField } from '../../../components/form-field';
+import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
-import { interpretationPaths } from '../../interpretation/interpretation-paths';
 import { locationsQueryOptions } from '../../locations/api/get-locations';
 import { useProjects } from '../../projects/api/get-projects';
 import { IMPORT_MAX_BYTES, ImportRejected, type ImportRequest, useImportRecord } from '../api/import-record';
@@ -132,7 +132,7 @@ export function ImportForm() {
       {submitImport.isSuccess && (
         <FormNotice>
           Imported as run {submitImport.data.runId} ({submitImport.data.stages} stages, {submitImport.data.readings} readings), plan “
-          {submitImport.data.planName}”. <Link to={interpretationPaths.interpretation.href(submitImport.data.runId)}>Interpret it</Link>
+          {submitImport.data.planName}”. <Link to={paths.interpretation.href(submitImport.data.runId)}>Interpret it</Link>
         </FormNotice>
       )}
     </div>

@@ -1,6 +1,6 @@
 import type { Instrument } from '@shared/schemas/instruments';
 import { CellLink, DataTable, type DataTableColumns, MonoCell, tableColumns } from '../../../components/data-table';
-import { instrumentPaths } from '../instrument-paths';
+import { paths } from '../../../config/paths';
 import { formatRange } from '../utils/instrument-text';
 import { CalibrationBadge, KIND_LABELS } from './calibration-status';
 
@@ -14,7 +14,7 @@ const columns: DataTableColumns<Instrument> = [
     header: 'Serial',
     sortFn: 'alphanumeric',
     cell: (info) => (
-      <CellLink to={instrumentPaths.instrument.href(info.row.original.id)} mono>
+      <CellLink to={paths.instrument.href(info.row.original.id)} mono>
         <span className="whitespace-nowrap">{info.getValue()}</span>
       </CellLink>
     ),

@@ -1,5 +1,5 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { TestLocation } from '@shared/schemas/projects';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { locationKeys } from './location-keys';
 

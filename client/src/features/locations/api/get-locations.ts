@@ -1,6 +1,6 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ListResponse } from '@shared/schemas/common';
 import type { TestLocation } from '@shared/schemas/projects';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { locationKeys } from './location-keys';
 

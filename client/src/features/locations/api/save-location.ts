@@ -1,5 +1,5 @@
-import { type QueryClient, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { LocationInput, TestLocation } from '@shared/schemas/projects';
+import { type QueryClient, useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { locationKeys } from './location-keys';
 

@@ -1,5 +1,5 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { PlanCheck, TestPlan } from '@shared/schemas/plans';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { planKeys } from './plan-keys';
 

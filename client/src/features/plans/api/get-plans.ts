@@ -1,6 +1,6 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ListResponse } from '@shared/schemas/common';
 import type { TestPlan } from '@shared/schemas/plans';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { planKeys } from './plan-keys';
 

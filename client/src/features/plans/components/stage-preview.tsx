@@ -1,4 +1,4 @@
-import { plateForceKn, type Plate } from '@shared/domain/plate';
+import { type Plate, plateForceKn } from '@shared/domain/plate';
 import type { PlannedStage } from '@shared/plans/stages';
 import { Readout } from '../../../components/readout';
 

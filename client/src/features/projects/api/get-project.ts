@@ -1,5 +1,5 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Project } from '@shared/schemas/projects';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { projectKeys } from './project-keys';
 

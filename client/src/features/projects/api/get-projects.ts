@@ -1,6 +1,6 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ListResponse } from '@shared/schemas/common';
 import type { Project } from '@shared/schemas/projects';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { projectKeys } from './project-keys';
 

@@ -1,6 +1,6 @@
 import type { Rig } from '@shared/schemas/instruments';
 import { CellLink, DataTable, type DataTableColumns, MonoCell, tableColumns } from '../../../components/data-table';
-import { rigPaths } from '../rig-paths';
+import { paths } from '../../../config/paths';
 
 const column = tableColumns<Rig>();
 
@@ -10,7 +10,7 @@ const baseColumns: DataTableColumns<Rig> = [
   column.accessor('name', {
     header: 'Rig',
     sortFn: 'text',
-    cell: (info) => <CellLink to={rigPaths.rigCheck.href(info.row.original.id)}>{info.getValue()}</CellLink>,
+    cell: (info) => <CellLink to={paths.rigCheck.href(info.row.original.id)}>{info.getValue()}</CellLink>,
   }),
   column.accessor((r) => MODE_WORDS[r.mode], { id: 'mode', header: 'Readings', sortFn: 'text' }),
   column.accessor((r) => r.channels.map((c) => c.key).join(', '), {
@@ -23,7 +23,7 @@ const baseColumns: DataTableColumns<Rig> = [
 
 const editorColumns: DataTableColumns<Rig> = [
   ...baseColumns,
-  column.display({ id: 'edit', header: 'Set-up', cell: (info) => <CellLink to={rigPaths.editRig.href(info.row.original.id)}>Edit rig</CellLink> }),
+  column.display({ id: 'edit', header: 'Set-up', cell: (info) => <CellLink to={paths.editRig.href(info.row.original.id)}>Edit rig</CellLink> }),
 ];
 
 /** Rigs; the name opens the live device check, and editors also get a link to the set-up. */

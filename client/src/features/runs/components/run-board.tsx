@@ -1,9 +1,9 @@
 import { ACTIVE_PHASES } from '@shared/schemas/runs';
 import { Link } from 'react-router-dom';
 import { EmptyState } from '../../../components/query-states';
+import { paths } from '../../../config/paths';
 import { formatDate } from '../../../lib/format';
 import type { RunSummary } from '../api/get-runs';
-import { runPaths } from '../run-paths';
 import { PHASE_LABELS, VERDICTS } from '../utils/run-format';
 
 function stageText(run: RunSummary): string {
@@ -14,7 +14,7 @@ function ActiveRun({ run }: { run: RunSummary }) {
   const verdict = run.verdict ? VERDICTS[run.verdict] : null;
   return (
     <Link
-      to={runPaths.run.href(run.id)}
+      to={paths.run.href(run.id)}
       aria-label={`Run ${run.id}: ${run.planName}`}
       className="flex min-h-touch flex-col gap-1 rounded-md border-2 border-neutral-800 p-3 no-underline hover:bg-neutral-100"
     >
@@ -66,7 +66,9 @@ export function RunBoard({ runs }: { runs: RunSummary[] }) {
           <ul aria-label="Finished runs" className="divide-y divide-neutral-300 rounded-md border-2 border-neutral-300">
             {finished.map((r) => (
               <li key={r.id} className="flex flex-wrap items-center gap-x-3 px-3 py-1">
-                <span className="inline-flex min-h-touch items-center font-mono font-bold">Run {r.id}</span>
+                <Link to={paths.run.href(r.id)} className="inline-flex min-h-touch items-center font-mono font-bold underline underline-offset-4">
+                  Run {r.id}
+                </Link>
                 <span>{r.planName}</span>
                 <span className="text-neutral-800">
                   {r.projectCode} · pit {r.pitId} · {PHASE_LABELS[r.phase]}
@@ -77,6 +79,9 @@ export function RunBoard({ runs }: { runs: RunSummary[] }) {
                     </>
                   )}
                 </span>
+                <Link to={paths.interpretation.href(r.id)} className="inline-flex min-h-touch items-center font-bold underline underline-offset-4">
+                  Interpretation
+                </Link>
               </li>
             ))}
           </ul>

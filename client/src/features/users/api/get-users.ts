@@ -1,6 +1,6 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ListResponse } from '@shared/schemas/common';
 import type { User } from '@shared/schemas/users';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { userKeys } from './user-keys';
 

@@ -1,8 +1,8 @@
 import { type Organization, roleSchema, type User } from '@shared/schemas/users';
 import { useId, useMemo } from 'react';
 import { Button } from '../../../components/button';
-import { CONTROL_CLASS } from '../../../components/form-field';
 import { DataTable, type DataTableColumns, MonoCell, tableColumns } from '../../../components/data-table';
+import { CONTROL_CLASS } from '../../../components/form-field';
 import { useUser } from '../../../lib/auth';
 import { formatDate } from '../../../lib/format';
 import { useUpdateUser } from '../api/save-user';
