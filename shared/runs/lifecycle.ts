@@ -99,10 +99,11 @@ export function applyCommand(state: RunState, command: RunCommand, ctx: CommandC
       return next({ controller: { id: ctx.actor.id, name: ctx.actor.name } }, [event('control-taken', { from: state.controller?.name ?? null })]);
     case 'note':
       return next({}, [event('note', { text: command.text })]);
+    // The alarm reducer (shared/hold/alarm-lifecycle) decides whether these apply; the run records who and when.
     case 'acknowledge-alarm':
+      return next({}, [event('alarm-acknowledge', { key: command.key })]);
     case 'shelve-alarm':
-      // The alarm reducer decides; the run only records that the state changed.
-      return next({}, []);
+      return next({}, [event('alarm-shelve', { key: command.key, minutes: command.minutes, reason: command.reason })]);
     case 'zero': {
       const zeroable = state.phase === 'preparing' || (state.phase === 'hold-met' && stage?.branch === 'seating');
       if (!zeroable) return refuse('Gauges are zeroed before the test or after seating, not during a stage.');

@@ -1,6 +1,12 @@
 import { screen, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { ImportForm } from '../../../client/src/features/imports/components/import-form';
+import { getLocations } from '../../../client/src/features/locations/api/get-locations';
+import { useProjects } from '../../../client/src/features/projects/api/get-projects';
+
+/** The form as the import page composes it. */
+const Form = () => <ImportForm projects={useProjects()} fetchLocations={getLocations} />;
+
 import { json, requests, stubFetch } from '../support/fetch-stub';
 import { aProject } from '../support/fixtures';
 import { renderWithProviders } from '../support/render';
@@ -43,7 +49,7 @@ describe('import page', () => {
         omitted: 3,
       }),
     );
-    const { user } = renderWithProviders(<ImportForm />);
+    const { user } = renderWithProviders(<Form />);
     await pasteCsv(user);
 
     const problems = await screen.findByRole('alert');
@@ -59,7 +65,7 @@ describe('import page', () => {
 
   it('links the created run to its interpretation', async () => {
     stubImport(json(201, { runId: 41, planId: 77, planName: 'Imported test TP-12', stages: 1, readings: 2 }));
-    const { user } = renderWithProviders(<ImportForm />);
+    const { user } = renderWithProviders(<Form />);
     await pasteCsv(user);
     const link = await screen.findByRole('link', { name: 'Interpret it' });
     expect(link.getAttribute('href')).toBe('/runs/41/interpretation');
@@ -68,7 +74,7 @@ describe('import page', () => {
 
   it('asks for a location and a file before sending anything', async () => {
     const fetchMock = stubImport(json(500, {}));
-    const { user } = renderWithProviders(<ImportForm />);
+    const { user } = renderWithProviders(<Form />);
     await screen.findByRole('option', { name: 'QB-07 Quarry Bank depot' });
     await user.click(screen.getByRole('button', { name: 'Import' }));
     expect(screen.getByText('Choose the test location the test belongs to.')).toBeTruthy();

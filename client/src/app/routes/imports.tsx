@@ -2,7 +2,8 @@ import type { QueryClient } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
 import { PageHeader } from '../../components/page-header';
 import { ImportForm } from '../../features/imports/components/import-form';
-import { projectsQueryOptions } from '../../features/projects/api/get-projects';
+import { getLocations } from '../../features/locations/api/get-locations';
+import { projectsQueryOptions, useProjects } from '../../features/projects/api/get-projects';
 import { requirePermission } from '../route-guards';
 
 export const importsLoader =
@@ -21,7 +22,7 @@ export function ImportsRoute() {
         A test recorded elsewhere becomes a completed run of the chosen location, with a plan that describes it, ready to interpret and report. The whole file
         is checked first: if anything is wrong, nothing is imported and every problem is listed with its line or field.
       </p>
-      <ImportForm />
+      <ImportForm projects={useProjects()} fetchLocations={getLocations} />
     </>
   );
 }

@@ -2,6 +2,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, type LoaderFunctionArgs, useParams } from 'react-router-dom';
 import { Button, LinkButton } from '../../components/button';
+import { CalibrationBadge, KIND_LABELS } from '../../components/calibration-status';
 import { FormNotice } from '../../components/form-alert';
 import { PageHeader } from '../../components/page-header';
 import { QueryResult } from '../../components/query-states';
@@ -9,9 +10,8 @@ import { paths } from '../../config/paths';
 import { type InstrumentDetail, instrumentQueryOptions, useInstrument } from '../../features/instruments/api/get-instruments';
 import { CalibrationForm } from '../../features/instruments/components/calibration-form';
 import { CalibrationHistory } from '../../features/instruments/components/calibration-history';
-import { CalibrationBadge, KIND_LABELS } from '../../features/instruments/components/calibration-status';
 import { requireRegisterAccess, useCanEditRegister } from '../../features/instruments/register-access';
-import { formatRange } from '../../features/instruments/utils/instrument-text';
+import { formatRange } from '../../lib/instrument-text';
 import { routeId } from '../route-guards';
 
 export const instrumentLoader =

@@ -1,7 +1,7 @@
 import type { ApiErrorBody } from '@shared/schemas/common';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { ApiError, api } from '../../../lib/api-client';
-import { runKeys } from '../../runs/api/run-keys';
+import { runKeys } from '../../../lib/run-keys';
 
 /** One problem the server found in an imported record: the field, or the CSV line and column. */
 export interface ImportIssue {

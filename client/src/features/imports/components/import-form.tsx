@@ -1,4 +1,5 @@
-import { useQuery } from '@tanstack/react-query';
+import type { Project, TestLocation } from '@shared/schemas/projects';
+import { type UseQueryResult, useQuery } from '@tanstack/react-query';
 import { type FormEvent, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { Button } from '../../../components/button';
@@ -6,8 +7,6 @@ import { FormError, FormNotice } from '../../../components/form-alert';
 import { FieldShell, SelectField, TextAreaField, TextField } from '../../../components/form-field';
 import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
-import { locationsQueryOptions } from '../../locations/api/get-locations';
-import { useProjects } from '../../projects/api/get-projects';
 import { IMPORT_MAX_BYTES, ImportRejected, type ImportRequest, useImportRecord } from '../api/import-record';
 import { ImportIssues } from './import-issues';
 
@@ -23,11 +22,20 @@ export function importFileProblem(file: Pick<File, 'name' | 'size'>): string | n
   return null;
 }
 
+/** Where an import can go: the projects, and a query for a project's test locations (the page composes them). */
+export interface ImportTargets {
+  projects: UseQueryResult<Project[]>;
+  fetchLocations: (projectId: number, signal?: AbortSignal) => Promise<TestLocation[]>;
+}
+
 /** Imports a test recorded elsewhere into a chosen test location, as a completed run ready to interpret. */
-export function ImportForm() {
-  const projects = useProjects();
+export function ImportForm({ projects, fetchLocations }: ImportTargets) {
   const [projectId, setProjectId] = useState('');
-  const locations = useQuery({ ...locationsQueryOptions(Number(projectId)), enabled: projectId !== '' });
+  const locations = useQuery({
+    queryKey: ['imports', 'locations-of', projectId],
+    queryFn: ({ signal }) => fetchLocations(Number(projectId), signal),
+    enabled: projectId !== '',
+  });
   const [locationId, setLocationId] = useState('');
   const [source, setSource] = useState<'file' | 'paste'>('file');
   const [file, setFile] = useState<File | null>(null);

@@ -3,12 +3,12 @@ import { INSTRUMENT_KINDS, type Instrument, type InstrumentInput, instrumentInpu
 import { useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
 import { FormActions } from '../../../components/button';
+import { KIND_LABELS } from '../../../components/calibration-status';
 import { FormError } from '../../../components/form-alert';
 import { NumberField, SelectField, TextAreaField, TextField } from '../../../components/form-field';
 import { readableErrors, withServerErrors } from '../../../lib/form-errors';
 import { emptyAsNull } from '../../../lib/form-values';
 import { useSaveInstrument } from '../api/save-instrument';
-import { KIND_LABELS } from './calibration-status';
 
 const FIELDS = ['kind', 'makeModel', 'serialNumber', 'rangeMin', 'rangeMax', 'unit', 'resolution', 'travelMm', 'notes'] as const;
 const KIND_OPTIONS = INSTRUMENT_KINDS.map((kind) => ({ value: kind, label: KIND_LABELS[kind] }));

@@ -1,8 +1,8 @@
 import type { Instrument } from '@shared/schemas/instruments';
+import { CalibrationBadge, KIND_LABELS } from '../../../components/calibration-status';
 import { CellLink, DataTable, type DataTableColumns, MonoCell, tableColumns } from '../../../components/data-table';
 import { paths } from '../../../config/paths';
-import { formatRange } from '../utils/instrument-text';
-import { CalibrationBadge, KIND_LABELS } from './calibration-status';
+import { formatRange } from '../../../lib/instrument-text';
 
 const column = tableColumns<Instrument>();
 

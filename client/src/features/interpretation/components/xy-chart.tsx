@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 import type uPlot from 'uplot';
-import { LiveChart } from '../../live/components/live-chart';
+import { LiveChart } from '../../../components/live-chart';
 import type { PlotData } from '../utils/plot-data';
 
 const STROKES = ['#171717', '#1d4ed8', '#047857', '#a14d07', '#7e22ce'];

@@ -1,8 +1,8 @@
 import type { RunView } from '@shared/schemas/runs';
 import { useMemo, useRef } from 'react';
 import type uPlot from 'uplot';
+import { LiveChart } from '../../../components/live-chart';
 import type { LiveStore } from '../live-store';
-import { LiveChart } from './live-chart';
 
 const INK = '#0a0a0a';
 const GRID = '#d4d4d4';

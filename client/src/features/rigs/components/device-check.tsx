@@ -1,8 +1,8 @@
 import type { ChannelLive, RigLive } from '@shared/realtime/events';
 import { useEffect, useState } from 'react';
 import { Button } from '../../../components/button';
+import { CalibrationBadge } from '../../../components/calibration-status';
 import { LoadingState } from '../../../components/query-states';
-import { CalibrationBadge } from '../../instruments/components/calibration-status';
 import type { RigLiveFeed } from '../api/use-rig-live';
 import { formatAge, formatRaw, formatReading, LINK_WORDS, movementSince, SAMPLE_WORDS, STALE_AFTER_MS } from '../utils/live-format';
 import { StateWord } from './state-word';

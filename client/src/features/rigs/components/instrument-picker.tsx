@@ -1,8 +1,8 @@
 import type { Instrument, InstrumentKind } from '@shared/schemas/instruments';
 import type { ComponentProps } from 'react';
+import { calibrationWord, needsCalibration } from '../../../components/calibration-status';
 import { SelectField } from '../../../components/form-field';
-import { calibrationWord, needsCalibration } from '../../instruments/components/calibration-status';
-import { instrumentName } from '../../instruments/utils/instrument-text';
+import { instrumentName } from '../../../lib/instrument-text';
 
 /** The warning beside a chosen instrument that is overdue or was never calibrated. */
 export function CalibrationFlag({ instrument }: { instrument: Instrument | undefined }) {

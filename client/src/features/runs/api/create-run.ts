@@ -1,7 +1,7 @@
 import type { RunCreateInput, RunView } from '@shared/schemas/runs';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { runKeys } from './run-keys';
+import { runKeys } from '../../../lib/run-keys';
 
 export function createRun(input: RunCreateInput): Promise<RunView> {
   return api.post<RunView>('/api/runs', input);

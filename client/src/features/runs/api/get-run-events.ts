@@ -1,7 +1,7 @@
 import type { ListResponse } from '@shared/schemas/common';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { runKeys } from './run-keys';
+import { runKeys } from '../../../lib/run-keys';
 
 /** One entry of a run's log: commands, notes, alarms, phase changes. */
 export interface RunEvent {

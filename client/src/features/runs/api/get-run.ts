@@ -1,7 +1,7 @@
 import type { RunView } from '@shared/schemas/runs';
 import { queryOptions } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { runKeys } from './run-keys';
+import { runKeys } from '../../../lib/run-keys';
 
 export function getRun(id: number, signal?: AbortSignal): Promise<RunView> {
   return api.get<RunView>(`/api/runs/${id}`, signal);

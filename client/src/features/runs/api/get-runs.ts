@@ -3,7 +3,7 @@ import type { ListResponse } from '@shared/schemas/common';
 import type { RunPhase } from '@shared/schemas/runs';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { runKeys } from './run-keys';
+import { runKeys } from '../../../lib/run-keys';
 
 /** A run as the list of runs shows it. `stageCount` and `verdict` are known only while the run is live on the server. */
 export interface RunSummary {
