@@ -233,8 +233,10 @@ export class RunEngine {
     };
 
     if (s.phase === 'pumping' && stage && q !== null && this.setup.rig.rig.mode === 'serial') {
+      // The hold starts the first time the pressure arrives; drifting off afterwards is the load-drift
+      // alarm's business (top up), not a reason to keep the hold clock waiting.
       this.reachedTicks = reached(q, this.effectiveTarget(stage.targetKpa)) ? this.reachedTicks + 1 : 0;
-      if (this.reachedTicks >= 2) {
+      if (this.reachedTicks >= 1) {
         observe({ type: 'target-reached' });
         this.series = [];
         this.lastSeriesMs = -Infinity;

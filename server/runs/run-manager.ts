@@ -133,11 +133,7 @@ export class RunManager {
       save: (runId, state, events) => this.save(runId, state, events),
       pushView: this.o.pushView,
       pushSamples: this.o.pushSamples,
-      simulator: sim
-        ? (action, body) => {
-            fetch(`${sim.controlUrl}/${action}`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) }).catch((err) => debug('simulator %s: %s', action, err.message));
-          }
-        : undefined,
+      simulator: sim ? (action, body) => void tellSimulator(sim.controlUrl, action, body) : undefined,
     };
     const engine = new RunEngine({ runId: run.id, planId: plan.id, planName: plan.name, plan: input, stages: buildStageSequence(input), rig, persisted, overdueInstruments: overdue(rig) }, io);
     this.engines.set(run.id, engine);
@@ -219,3 +215,21 @@ export class RunManager {
 }
 
 export const runNotFound = () => notFound('Run');
+
+/**
+ * Sends an operator action to a simulated rig, retrying a few times: a pooled keep-alive connection
+ * the simulator has just closed fails once, and a lost "pump" would leave the demo rig idle.
+ */
+async function tellSimulator(controlUrl: string, action: string, body: object): Promise<void> {
+  for (let attempt = 1; attempt <= 4; attempt++) {
+    try {
+      const res = await fetch(`${controlUrl}/${action}`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+      if (res.ok) return;
+      debug('simulator refused %s: %s', action, await res.text());
+      return;
+    } catch (err) {
+      debug('simulator %s, attempt %d: %s', action, attempt, (err as Error).message);
+      await new Promise((r) => setTimeout(r, 100 * attempt));
+    }
+  }
+}
