@@ -12,7 +12,7 @@ export function stageActions(view: RunView) {
   return {
     applyNext: phase === 'hold-met' && !isLast,
     applyEarly: phase === 'holding' && !isLast,
-    finish: holding && isLast,
+    finish: phase === 'hold-met' && isLast, // the server finishes only once the last hold is met
     stageReached: phase === 'pumping' && (view.manual || view.live.pressureKpa === null),
     topUp: holding || phase === 'pumping',
   };
