@@ -1,26 +1,11 @@
-import { QueryClientProvider } from '@tanstack/react-query';
-import { render, screen } from '@testing-library/react';
-import userEvent from '@testing-library/user-event';
-import { createMemoryRouter, RouterProvider } from 'react-router-dom';
+import { screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import { appRoutes } from '../../client/src/app/router';
-import { createQueryClient } from '../../client/src/lib/query-client';
 import { json, requests, stubFetch } from './support/fetch-stub';
 import { aProject, aUser } from './support/fixtures';
+import { renderApp } from './support/render';
 
 const OPERATOR = aUser('operator', 'Tomás Reyes', 'tomas.reyes@example.test');
 const PROJECT = aProject({ id: 3, code: 'HV-07', name: 'North terrace' });
-
-function renderApp(path: string) {
-  const queryClient = createQueryClient();
-  const router = createMemoryRouter(appRoutes(queryClient), { initialEntries: [path] });
-  render(
-    <QueryClientProvider client={queryClient}>
-      <RouterProvider router={router} />
-    </QueryClientProvider>,
-  );
-  return { router, user: userEvent.setup() };
-}
 
 describe('app routes', () => {
   it('sends a signed-out visitor to sign-in and back to the page they asked for', async () => {

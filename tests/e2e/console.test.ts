@@ -10,9 +10,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROOT_DIR } from '../../server/config';
 import type { RunningServer } from '../../server/main';
 import type { SimulatorProcess } from '../../server/ops/simulated-rig';
-import { DEMO_PASSWORD } from '../../server/seed/demo';
 import { Client, demoEmail } from '../support/api';
-import { launchChromium, screenshotter, watchForErrors } from '../support/browser';
+import { launchChromium, screenshotter, signInPage, watchForErrors } from '../support/browser';
 import { startLiveServer } from '../support/live-server';
 import { simPlan, simulatedRig } from '../support/sim-run';
 
@@ -33,13 +32,7 @@ afterAll(async () => {
   await sim?.stop();
 });
 
-async function signIn(page: Page, email: string) {
-  await page.goto(`${server.url}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
-}
+const signIn = (page: Page, email: string) => signInPage(page, server.url, email);
 
 const until = (fn: () => Promise<boolean>, timeout = 60_000) => expect.poll(fn, { timeout, interval: 250 }).toBe(true);
 

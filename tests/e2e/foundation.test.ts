@@ -8,8 +8,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROOT_DIR } from '../../server/config';
 import type { RunningServer } from '../../server/main';
-import { DEMO_PASSWORD } from '../../server/seed/demo';
-import { launchChromium, screenshotter, watchForErrors } from '../support/browser';
+import { launchChromium, screenshotter, signInPage, watchForErrors } from '../support/browser';
 import { startLiveServer } from '../support/live-server';
 
 let server: RunningServer;
@@ -23,13 +22,7 @@ afterAll(async () => {
   await server?.close();
 });
 
-async function signIn(page: Page, email: string) {
-  await page.goto(`${server.url}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
-}
+const signIn = (page: Page, email: string) => signInPage(page, server.url, email);
 
 describe('foundation in a real browser', () => {
   it('signs in, creates a project, a location and a plan, lists them, and signs out', async () => {

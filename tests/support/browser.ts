@@ -3,6 +3,7 @@ import path from 'node:path';
 import { type Browser, type Page, chromium } from 'playwright-core';
 import { ROOT_DIR } from '../../server/config';
 import { findBinary } from '../../server/ops/debian';
+import { DEMO_PASSWORD } from '../../server/seed/demo';
 
 /** Debian's Chromium, headless, with the flags this closed network needs (no background traffic). */
 export async function launchChromium(): Promise<Browser> {
@@ -37,4 +38,13 @@ export function watchForErrors(page: Page): string[] {
     if (r.url().includes('/api/') && r.status() >= 500) errors.push(`${r.status()} ${r.url()}`);
   });
   return errors;
+}
+
+/** Signs in through the sign-in page with a demo account's password. */
+export async function signInPage(page: Page, baseUrl: string, email: string, password = DEMO_PASSWORD): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
 }

@@ -1,14 +1,10 @@
 import './canvas-stubs';
-import { QueryClientProvider } from '@tanstack/react-query';
-import { render, screen, within } from '@testing-library/react';
-import userEvent from '@testing-library/user-event';
-import { createMemoryRouter, RouterProvider } from 'react-router-dom';
+import { screen, within } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
-import { appRoutes } from '../../../client/src/app/router';
 import type { RunSummary } from '../../../client/src/features/runs/api/get-runs';
-import { createQueryClient } from '../../../client/src/lib/query-client';
 import { json, requests, stubFetch } from '../support/fetch-stub';
 import { aProject, aUser } from '../support/fixtures';
+import { renderApp } from '../support/render';
 import { aPrompt, aRunView } from './run-fixtures';
 
 // The console's live link goes to a fake socket that never connects: these tests are about REST.
@@ -35,17 +31,6 @@ function aSummary(fields: Partial<RunSummary> & Pick<RunSummary, 'id' | 'phase'>
     finishedAt: null,
     ...fields,
   };
-}
-
-function renderApp(path: string) {
-  const queryClient = createQueryClient();
-  const router = createMemoryRouter(appRoutes(queryClient), { initialEntries: [path] });
-  render(
-    <QueryClientProvider client={queryClient}>
-      <RouterProvider router={router} />
-    </QueryClientProvider>,
-  );
-  return { router, user: userEvent.setup() };
 }
 
 const common = {

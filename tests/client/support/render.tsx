@@ -3,6 +3,8 @@ import { render } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import type { ReactElement } from 'react';
 import { createMemoryRouter, RouterProvider } from 'react-router-dom';
+import { appRoutes } from '../../../client/src/app/router';
+import { createQueryClient } from '../../../client/src/lib/query-client';
 
 /** Renders a component with a fresh query cache and a router, as the app provides them. */
 export function renderWithProviders(ui: ReactElement) {
@@ -21,4 +23,16 @@ export function renderWithProviders(ui: ReactElement) {
 export function describedText(control: HTMLElement): string {
   const ids = control.getAttribute('aria-describedby')?.split(' ') ?? [];
   return ids.map((id) => document.getElementById(id)?.textContent ?? '').join(' ');
+}
+
+/** The whole app at a path, in a memory router with a fresh query client. */
+export function renderApp(path: string) {
+  const queryClient = createQueryClient();
+  const router = createMemoryRouter(appRoutes(queryClient), { initialEntries: [path] });
+  render(
+    <QueryClientProvider client={queryClient}>
+      <RouterProvider router={router} />
+    </QueryClientProvider>,
+  );
+  return { router, user: userEvent.setup() };
 }
