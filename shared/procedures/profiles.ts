@@ -56,25 +56,47 @@ const bearingSources: SettingSource[] = [
   { setting: 'minPitWidthInPlates', tag: 'secondary', text: 'IS 1888:1982 — pit at least five plate widths wide (seen in secondary texts)' },
 ];
 
+/** What the two maintained-load bearing profiles share: plate, pit, seating, schedule, stop limit. */
+const BEARING = {
+  kind: 'bearing',
+  family: 'IS 1888:1982 family',
+  plateSizeRangeMm: [300, 762],
+  minPitWidthInPlates: 5,
+  reactionMargin: 0.2,
+} as const satisfies Partial<ProcedureProfile>;
+const BEARING_DEFAULTS = {
+  plate: { shape: 'square', sizeMm: 450, thicknessMm: 25 },
+  seatingPressureKpa: 7,
+  unloadReload: { unloadKpa: [], reload: { mode: 'none' }, repetitionsPerLevel: 1 },
+  readingSchedule: SQUARE_ROOT_SCHEDULE,
+  termination: { maxSettlementMm: 25, maxSettlementFractionOfWidth: 0, maxHoldMin: 24 * 60 },
+} as const satisfies Partial<ProcedureProfile['defaults']>;
+
+/** What the two pavement profiles share: a 762 mm plate, 1-min readings, the 3-consecutive-minute rule. */
+const PAVEMENT = {
+  kind: 'pavement',
+  plateSizeRangeMm: [152, 762],
+  minPitWidthInPlates: 0,
+  reactionMargin: 0.2,
+} as const satisfies Partial<ProcedureProfile>;
+const PAVEMENT_DEFAULTS = {
+  plate: { shape: 'circular', sizeMm: 762, thicknessMm: 25 },
+  seatingPressureKpa: 7,
+  holdRule: { kind: 'consecutive', maxChangeMm: 0.03, intervalMin: 1, intervals: 3 },
+  readingSchedule: { kind: 'interval', everyMin: 1 },
+} as const satisfies Partial<ProcedureProfile['defaults']>;
+
 export const PROCEDURE_PROFILES: ProcedureProfile[] = [
   {
     id: 'bearing-granular',
     name: 'Bearing test — maintained load, granular soil',
-    kind: 'bearing',
+    ...BEARING,
     summary:
       'Increments held until the settlement rate falls below a threshold, to 25 mm or failure. For sands, gravels and other free-draining soils.',
-    family: 'IS 1888:1982 family',
-    plateSizeRangeMm: [300, 762],
-    minPitWidthInPlates: 5,
-    reactionMargin: 0.2,
     defaults: {
-      plate: { shape: 'square', sizeMm: 450, thicknessMm: 25 },
-      seatingPressureKpa: 7,
+      ...BEARING_DEFAULTS,
       loading: { mode: 'rule', fixedStepKpa: 100, fractionOfUltimate: 0.2, expectedUltimateKpa: 600, maxPressureKpa: 900 },
-      unloadReload: { unloadKpa: [], reload: { mode: 'none' }, repetitionsPerLevel: 1 },
       holdRule: { kind: 'rate', maxRateMmPerMin: 0.02, windowMin: 10, minHoldMin: 60 },
-      readingSchedule: SQUARE_ROOT_SCHEDULE,
-      termination: { maxSettlementMm: 25, maxSettlementFractionOfWidth: 0, maxHoldMin: 24 * 60 },
     },
     sources: [
       ...bearingSources,
@@ -86,21 +108,13 @@ export const PROCEDURE_PROFILES: ProcedureProfile[] = [
   {
     id: 'bearing-cohesive',
     name: 'Bearing test — maintained load, cohesive soil',
-    kind: 'bearing',
+    ...BEARING,
     summary:
       'Each increment held until the time–settlement curve shows 75 % of its probable ultimate settlement, or 24 h. For clays and silts.',
-    family: 'IS 1888:1982 family',
-    plateSizeRangeMm: [300, 762],
-    minPitWidthInPlates: 5,
-    reactionMargin: 0.2,
     defaults: {
-      plate: { shape: 'square', sizeMm: 450, thicknessMm: 25 },
-      seatingPressureKpa: 7,
+      ...BEARING_DEFAULTS,
       loading: { mode: 'rule', fixedStepKpa: 50, fractionOfUltimate: 0.2, expectedUltimateKpa: 300, maxPressureKpa: 450 },
-      unloadReload: { unloadKpa: [], reload: { mode: 'none' }, repetitionsPerLevel: 1 },
       holdRule: { kind: 'percentOfUltimate', percent: 75, minHoldMin: 60, maxHoldMin: 24 * 60 },
-      readingSchedule: SQUARE_ROOT_SCHEDULE,
-      termination: { maxSettlementMm: 25, maxSettlementFractionOfWidth: 0, maxHoldMin: 24 * 60 },
     },
     sources: [
       ...bearingSources,
@@ -111,20 +125,14 @@ export const PROCEDURE_PROFILES: ProcedureProfile[] = [
   {
     id: 'pavement-single',
     name: 'Pavement test — single loading (subgrade modulus)',
-    kind: 'pavement',
+    ...PAVEMENT,
     summary:
       'Uniform increments on a 762 mm plate, each held until the settlement changes by no more than 0.03 mm in each of 3 consecutive minutes; gives k.',
     family: 'ASTM D1196 / AASHTO T 222 family',
-    plateSizeRangeMm: [152, 762],
-    minPitWidthInPlates: 0,
-    reactionMargin: 0.2,
     defaults: {
-      plate: { shape: 'circular', sizeMm: 762, thicknessMm: 25 },
-      seatingPressureKpa: 7,
+      ...PAVEMENT_DEFAULTS,
       loading: { mode: 'list', pressuresKpa: [35, 70, 105, 140, 175, 210] },
       unloadReload: { unloadKpa: [], reload: { mode: 'none' }, repetitionsPerLevel: 1 },
-      holdRule: { kind: 'consecutive', maxChangeMm: 0.03, intervalMin: 1, intervals: 3 },
-      readingSchedule: { kind: 'interval', everyMin: 1 },
       termination: { maxSettlementMm: 12.7, maxSettlementFractionOfWidth: 0, maxHoldMin: 120 },
     },
     sources: [
@@ -137,19 +145,13 @@ export const PROCEDURE_PROFILES: ProcedureProfile[] = [
   {
     id: 'pavement-repeated',
     name: 'Pavement test — repeated loading',
-    kind: 'pavement',
+    ...PAVEMENT,
     summary: 'Each load level applied and released six times before the next; total, rebound and residual deflection per cycle.',
     family: 'ASTM D1195 / AASHTO T 221 family',
-    plateSizeRangeMm: [152, 762],
-    minPitWidthInPlates: 0,
-    reactionMargin: 0.2,
     defaults: {
-      plate: { shape: 'circular', sizeMm: 762, thicknessMm: 25 },
-      seatingPressureKpa: 7,
+      ...PAVEMENT_DEFAULTS,
       loading: { mode: 'list', pressuresKpa: [70, 140, 210] },
       unloadReload: { unloadKpa: [0], reload: { mode: 'none' }, repetitionsPerLevel: 6 },
-      holdRule: { kind: 'consecutive', maxChangeMm: 0.03, intervalMin: 1, intervals: 3 },
-      readingSchedule: { kind: 'interval', everyMin: 1 },
       termination: { maxSettlementMm: 25, maxSettlementFractionOfWidth: 0, maxHoldMin: 120 },
     },
     sources: [
