@@ -6,13 +6,14 @@
 import createDebug from 'debug';
 import { type PressureUnit, convertPressure, isPressureUnit } from '../../shared/calibration/units';
 import { plateAreaM2, plateForceKn } from '../../shared/domain/plate';
-import { type AlarmAction, alarmKey, reduceAlarm } from '../../shared/hold/alarm-lifecycle';
+import { type AlarmAction, reduceAlarm } from '../../shared/hold/alarm-lifecycle';
 import { type Alarm, gaugeTravelAlarm, loadDriftAlarm, reactionCapacityAlarm, signalLostAlarm, stopLimitAlarm, stopLimitMm, tiltAlarm } from '../../shared/hold/alarms';
 import { evaluateHold } from '../../shared/hold/evaluate';
 import { nextStepPrompt } from '../../shared/hold/next-step';
 import { lateReadings, nextReadingDue } from '../../shared/hold/schedule';
 import type { HoldEvaluation } from '../../shared/hold/verdict';
 import type { PlannedStage } from '../../shared/plans/stages';
+import { reconcileAlarms } from '../../shared/runs/alarm-board';
 import { type Actor, type RunEventDraft, type RunState, applyCommand, applyObservation } from '../../shared/runs/lifecycle';
 import { type MeasurementSetup, type Measurements, jackGaugePressure, measure } from '../../shared/runs/measurements';
 import { SAMPLE_STATUS, type SampleRow, toMicro } from '../../shared/runs/samples';
@@ -315,25 +316,9 @@ export class RunEngine {
   }
 
   private updateAlarms(now: number, events: RunEventDraft[]): void {
-    const seen = new Set<string>();
-    const apply = (key: string, action: AlarmAction) => {
-      const r = reduceAlarm(this.persisted.alarms[key] ?? null, action);
-      if (!r.ok) return;
-      this.persisted.alarms[key] = r.record;
-      events.push({ kind: `alarm-${action.type}`, atMs: now, userId: null, payload: { key, message: r.record.alarm.message } });
-    };
-    for (const alarm of this.currentAlarms(Date.now())) {
-      const key = alarmKey(alarm);
-      seen.add(key);
-      const record = this.persisted.alarms[key];
-      if (alarm.active && (!record || record.state === 'cleared')) apply(key, { type: 'raise', atMs: now, alarm });
-      else if (!alarm.active && record && record.state !== 'cleared') apply(key, { type: 'clear', atMs: now });
-      else if (record && alarm.active) record.alarm = alarm; // keep the figures fresh
-      if (record?.state === 'shelved' && record.shelvedUntilMs !== null && now >= record.shelvedUntilMs) apply(key, { type: 'unshelve-expired', atMs: now });
-    }
-    for (const [key, record] of Object.entries(this.persisted.alarms)) {
-      if (!seen.has(key) && record.state !== 'cleared') apply(key, { type: 'clear', atMs: now });
-    }
+    const { records, changes } = reconcileAlarms(this.persisted.alarms, this.currentAlarms(Date.now()), now);
+    this.persisted.alarms = records;
+    for (const c of changes) events.push({ kind: `alarm-${c.action}`, atMs: now, userId: null, payload: { key: c.key, message: c.message } });
   }
 
   // ---------------------------------------------------------------- commands
