@@ -11,14 +11,18 @@ import type { ServerConfig } from './config';
 import { HttpError, errorHandler } from './http/errors';
 import { type RouteSpec, mount } from './http/route';
 import { authRoutes } from './routes/auth';
+import { correctionRoutes } from './routes/corrections';
 import { healthRoutes } from './routes/health';
 import { importRoutes } from './routes/imports';
 import { instrumentRoutes } from './routes/instruments';
+import { mailboxRoutes } from './routes/mailbox';
 import { interpretationRoutes } from './routes/interpretation';
 import { planRoutes } from './routes/plans';
 import { projectRoutes } from './routes/projects';
 import { rigRoutes } from './routes/rigs';
+import { reportRoutes } from './routes/reports';
 import { runRoutes } from './routes/runs';
+import { signoffRoutes } from './routes/signoff';
 import type { RunManager } from './runs/run-manager';
 import { sitePlanRoutes } from './routes/site-plans';
 import { userRoutes } from './routes/users';
@@ -37,7 +41,7 @@ function loginLimiter(config: ServerConfig): RequestHandler[] {
   const common = { windowMs: config.loginWindowMs, standardHeaders: 'draft-8' as const, legacyHeaders: false, message, statusCode: 429 };
   return [
     // Per account and address: slows guessing one password.
-    rateLimit({ ...common, limit: config.loginAttempts, keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').toLowerCase()}` }),
+    rateLimit({ ...common, limit: config.loginAttempts, keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : ''}` }),
     // Per address across accounts: slows spraying many accounts.
     rateLimit({ ...common, limit: config.loginAttempts * 5, keyGenerator: (req) => ipKeyGenerator(req.ip ?? '') }),
   ];
@@ -85,8 +89,12 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, deps: AppD
     ...instrumentRoutes(config.dataDir),
     ...rigRoutes,
     ...runRoutes(deps.runs),
+    ...correctionRoutes,
     ...interpretationRoutes,
     ...importRoutes,
+    ...signoffRoutes,
+    ...reportRoutes,
+    ...mailboxRoutes,
   ];
   mount(api, routes);
   api.use('/api', (_req, _res, next) => next(new HttpError(404, 'not_found', 'No such API route.')));

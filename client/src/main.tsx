@@ -1,3 +1,5 @@
+// Must stay first: configures zod before any module parses with it.
+import './zod-jitless';
 import '@fontsource/jetbrains-mono/400.css';
 import '@fontsource/jetbrains-mono/700.css';
 import './styles.css';
