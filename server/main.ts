@@ -6,6 +6,8 @@ import { type AppParts, createApp } from './app';
 import type { ServerConfig } from './config';
 import { migrate } from './db/migrator';
 import { initModels } from './db/models';
+import { startMailFake } from './ops/mail-fake';
+import { configureMailer } from './services/mail';
 import { createSequelize } from './db/sequelize';
 import { runRoom, socketEvents } from './realtime/events';
 import { RunManager } from './runs/run-manager';
@@ -27,6 +29,9 @@ export async function startServer(config: ServerConfig): Promise<RunningServer> 
   const sequelize = createSequelize(config.db);
   initModels(sequelize);
   await migrate(sequelize);
+  // The local mail catcher: outgoing mail lands in the app's mailbox (SSCOPE_SMTP_PORT, default any free port).
+  const mail = await startMailFake(Number(process.env.SSCOPE_SMTP_PORT ?? 0));
+  const releaseMailer = configureMailer({ host: mail.host, port: mail.port });
   let sockets: ReturnType<typeof createSocketServer> | null = null;
   const runs = new RunManager({
     sequelize,
@@ -57,6 +62,8 @@ export async function startServer(config: ServerConfig): Promise<RunningServer> 
       await monitor.closeAll();
       await runs.stopAll();
       await sockets?.close();
+      releaseMailer();
+      await mail.close();
       parts.close();
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));

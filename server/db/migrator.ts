@@ -4,6 +4,8 @@ import * as initial from './migrations/0001-initial';
 import * as rigs from './migrations/0002-rigs';
 import * as runRig from './migrations/0003-run-rig';
 import * as interpretations from './migrations/0004-interpretations';
+import * as signoff from './migrations/0005-signoff';
+import * as corrections from './migrations/0006-corrections';
 
 export interface Migration {
   up(qi: QueryInterface, S: typeof Sequelize): Promise<void>;
@@ -16,6 +18,8 @@ const MIGRATIONS: [string, Migration][] = [
   ['0002-rigs', rigs],
   ['0003-run-rig', runRig],
   ['0004-interpretations', interpretations],
+  ['0005-signoff', signoff],
+  ['0006-corrections', corrections],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

@@ -1,7 +1,10 @@
 import type { Sequelize } from 'sequelize';
 import { AuditEntry } from '../models/audit-entry';
 import { CalibrationRecord } from '../models/calibration-record';
+import { SampleCorrection } from '../models/correction';
 import { Instrument } from '../models/instrument';
+import { MailMessage } from '../models/mail-message';
+import { Signature, Signoff } from '../models/signoff';
 import { Interpretation, RunRecord } from '../models/interpretation';
 import { Organization } from '../models/organization';
 import { Project } from '../models/project';
@@ -15,7 +18,7 @@ import { User } from '../models/user';
 
 /** Initialises every model on one Sequelize instance, then wires the associations. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry, Instrument, CalibrationRecord, Rig, Run, RunEvent, RunRecord, Interpretation]) model.initModel(sequelize);
+  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry, Instrument, CalibrationRecord, Rig, Run, RunEvent, RunRecord, Interpretation, Signoff, Signature, MailMessage, SampleCorrection]) model.initModel(sequelize);
   defineSessionModel(sequelize);
   Organization.hasMany(User, { foreignKey: 'organizationId' });
   User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });

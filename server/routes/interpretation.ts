@@ -15,6 +15,7 @@ import { Run } from '../models/run';
 import { User } from '../models/user';
 import { audited } from '../services/audit';
 import { loadRunRecord, recordUnavailable } from '../services/run-record';
+import { assertRunUnlocked } from '../services/signoff';
 import type { Response } from 'express';
 
 export const ULTIMATE_METHODS = ['logLogIntersection', 'tangentIntersection', 'hyperbolic', 'settlementCriterion', 'brinchHansen80'] as const satisfies readonly UltimateMethod[];
@@ -185,6 +186,7 @@ export const interpretationRoutes = [
         async (transaction) => {
           // Locking the run row serialises two saves of one run, so each gets its own version.
           await Run.findByPk(params.id, { transaction, lock: transaction.LOCK.UPDATE });
+          await assertRunUnlocked(params.id, transaction);
           const last = (await Interpretation.max('version', { where: { runId: params.id }, transaction })) as number | null;
           return Interpretation.create(
             { runId: params.id, version: (last ?? 0) + 1, options, result: result as unknown as Record<string, unknown>, chosenMethod: body.chosenMethod, reason: body.reason, createdBy: user!.id },

@@ -8,6 +8,7 @@ import { route } from '../http/route';
 import { TestLocation } from '../models/test-location';
 import { TestPlan, planColumns } from '../models/test-plan';
 import { audited } from '../services/audit';
+import { assertNoSignedRunFrom } from '../services/signoff';
 
 async function present(plan: TestPlan) {
   const location = plan.location ?? (await TestLocation.findByPk(plan.locationId));
@@ -59,6 +60,7 @@ export const planRoutes = [
     body: planInput,
     handler: async ({ params, body, user }) => {
       const plan = await loadPlan(user!, params.id);
+      await assertNoSignedRunFrom({ planId: plan.id });
       const before = plan.toDto();
       await audited(
         (transaction) => plan.update(planColumns(body), { transaction }),
@@ -75,6 +77,7 @@ export const planRoutes = [
     params: idParams,
     handler: async ({ params, user }) => {
       const plan = await loadPlan(user!, params.id);
+      await assertNoSignedRunFrom({ planId: plan.id });
       const before = plan.toDto();
       await audited(
         (transaction) => plan.destroy({ transaction }),

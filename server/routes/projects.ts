@@ -8,6 +8,7 @@ import { Organization } from '../models/organization';
 import { Project } from '../models/project';
 import { TestLocation } from '../models/test-location';
 import { audited } from '../services/audit';
+import { assertNoSignedRunFrom } from '../services/signoff';
 
 async function assertOrganization(id: number | undefined) {
   if (id !== undefined && !(await Organization.findByPk(id))) throw badRequest('organizationId: no such organisation', 'organizationId');
@@ -58,6 +59,8 @@ export const projectRoutes = [
     handler: async ({ params, body, user }) => {
       await assertOrganization(body.organizationId);
       const project = await loadProject(user!, params.id);
+      // The project's name and site are written into its recorded runs' records.
+      if (body.name !== undefined || body.site !== undefined) await assertNoSignedRunFrom({ projectId: project.id });
       const before = project.get({ plain: true });
       await audited(
         (transaction) => project.update(body, { transaction }),
@@ -126,6 +129,7 @@ export const projectRoutes = [
     body: locationPatch,
     handler: async ({ params, body, user }) => {
       const location = await loadLocation(user!, params.id);
+      await assertNoSignedRunFrom({ locationId: location.id });
       const before = location.get({ plain: true });
       await audited(
         (transaction) => location.update(body, { transaction }),

@@ -1,6 +1,6 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { SampleBatch } from '../../shared/realtime/events';
-import type { SampleRow } from '../../shared/runs/samples';
+import type { SampleRow, SampleSummary } from '../../shared/runs/samples';
 
 export function toBatch(runId: number, rows: readonly Pick<SampleRow, 'seq' | 'tMs' | 'channel' | 'value'>[]): SampleBatch {
   return { runId, seq: rows.map((r) => r.seq), t: rows.map((r) => r.tMs), channel: rows.map((r) => r.channel), value: rows.map((r) => r.value) };
@@ -13,15 +13,6 @@ export async function samplesAfter(sequelize: Sequelize, runId: number, afterSeq
     type: QueryTypes.SELECT,
   })) as SampleRow[];
   return rows.map((r) => ({ ...r, seq: Number(r.seq), tMs: Number(r.tMs) }));
-}
-
-/** Per channel and time bucket: the smallest and largest value (micro-units), so a plot keeps every extreme. */
-export interface SampleSummary {
-  runId: number;
-  fromMs: number;
-  toMs: number;
-  bucketMs: number;
-  channels: { channel: number; t: number[]; min: number[]; max: number[] }[];
 }
 
 /**

@@ -13,6 +13,7 @@ import type { PlanInput } from '../../shared/schemas/plans';
 import { type RigContext, loadRigContext } from '../acquisition/rig-context';
 import { channelUnit } from '../acquisition/rig-connection';
 import { HttpError, notFound } from '../http/errors';
+import { correctedValues } from '../models/correction';
 import { RunRecord } from '../models/interpretation';
 import { Project } from '../models/project';
 import { Run } from '../models/run';
@@ -254,14 +255,16 @@ async function runMetadata(run: Run, plan: TestPlan): Promise<Pick<RunRecordSour
 
 const SAMPLE_PAGE = 20_000;
 
-/** Streams a run's archived samples into the builder, a page at a time. */
+/** Streams a run's archived samples into the builder, a page at a time, as corrected: corrected values replace the originals, readings marked faulty are left out. */
 async function feedSamples(sequelize: Sequelize, runId: number, builder: RunRecordBuilder): Promise<void> {
+  const corrected = await correctedValues(runId);
   for (let after = 0; ; ) {
     const rows = (await sequelize.query('SELECT seq, t_ms AS tMs, channel, value FROM samples WHERE run_id = ? AND seq > ? ORDER BY seq LIMIT ?', {
       replacements: [runId, after, SAMPLE_PAGE],
       type: QueryTypes.SELECT,
     })) as { seq: number; tMs: number; channel: number; value: number | null }[];
-    for (const r of rows) builder.add({ tMs: Number(r.tMs), channel: r.channel, value: r.value });
+    // A reading marked faulty comes as null: the builder treats it as one with no trusted value.
+    for (const r of rows) builder.add({ tMs: Number(r.tMs), channel: r.channel, value: corrected.has(Number(r.seq)) ? (corrected.get(Number(r.seq)) as number | null) : r.value });
     if (rows.length < SAMPLE_PAGE) return;
     after = Number(rows[rows.length - 1].seq);
   }
@@ -297,11 +300,11 @@ const BUILT_KEPT = 8;
 
 /** Changes whenever the run's data can have changed: its saved state, its samples, its events. */
 async function dataKey(run: Run): Promise<string> {
-  const [row] = (await Run.sequelize!.query('SELECT (SELECT COALESCE(MAX(seq), 0) FROM samples WHERE run_id = :id) AS seq, (SELECT COUNT(*) FROM run_events WHERE run_id = :id) AS events', {
+  const [row] = (await Run.sequelize!.query('SELECT (SELECT COALESCE(MAX(seq), 0) FROM samples WHERE run_id = :id) AS seq, (SELECT COUNT(*) FROM run_events WHERE run_id = :id) AS events, (SELECT COUNT(*) FROM sample_corrections WHERE run_id = :id) AS corrections', {
     replacements: { id: run.id },
     type: QueryTypes.SELECT,
-  })) as { seq: number; events: number }[];
-  return `${run.status}|${run.updatedAt.getTime()}|${Number(row.seq)}|${Number(row.events)}`;
+  })) as { seq: number; events: number; corrections: number }[];
+  return `${run.status}|${run.updatedAt.getTime()}|${Number(row.seq)}|${Number(row.events)}|${Number(row.corrections)}`;
 }
 
 /** The test record of a run: the stored one of an imported run, else rebuilt from the run's data. 404 for an unknown run. */

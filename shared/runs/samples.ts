@@ -21,3 +21,12 @@ export type SampleStatusCode = (typeof SAMPLE_STATUS)[keyof typeof SAMPLE_STATUS
 
 export const toMicro = (x: number) => Math.round(x * 1000);
 export const fromMicro = (x: number) => x / 1000;
+
+/** Per channel and time bucket: the smallest and largest value (micro-units), so a plot keeps every extreme. */
+export interface SampleSummary {
+  runId: number;
+  fromMs: number;
+  toMs: number;
+  bucketMs: number;
+  channels: { channel: number; t: number[]; min: number[]; max: number[] }[];
+}

@@ -11,17 +11,21 @@ import { InstrumentDetailRoute, instrumentLoader } from './routes/instrument-det
 import { EditInstrumentRoute, editInstrumentLoader, InstrumentsRoute, instrumentsLoader, NewInstrumentRoute, newInstrumentLoader } from './routes/instruments';
 import { InterpretationRoute, interpretationLoader } from './routes/interpretation';
 import { LocationDetailRoute, locationLoader } from './routes/location-detail';
+import { MailboxRoute, mailboxLoader } from './routes/mailbox';
 import { EditLocationRoute, editLocationLoader, NewLocationRoute, newLocationLoader } from './routes/location-form-pages';
 import { OrganizationsRoute, organizationsLoader } from './routes/organizations';
 import { NewPlanRoute, newPlanLoader, PlanDetailRoute, planLoader } from './routes/plan-pages';
 import { ProjectDetailRoute, projectLoader } from './routes/project-detail';
 import { EditProjectRoute, editProjectLoader, NewProjectRoute, newProjectLoader } from './routes/project-form-pages';
 import { ProjectsRoute, projectsLoader } from './routes/projects';
+import { ReplayRoute, replayLoader } from './routes/replay';
+import { ReportsRoute, reportsLoader } from './routes/reports';
 import { RigCheckRoute, rigCheckLoader } from './routes/rig-check';
 import { EditRigRoute, NewRigRoute, RigsRoute, rigFormLoader, rigsLoader } from './routes/rigs';
 import { NotFoundRoute, RouteError } from './routes/route-error';
 import { RunConsoleRoute, RunSetupRoute, runLoader, runSetupLoader } from './routes/run-pages';
 import { SignInRoute, signInLoader } from './routes/sign-in';
+import { SignoffRoute, signoffLoader } from './routes/signoff';
 import { signOutAction } from './routes/sign-out';
 import { UsersRoute, usersLoader } from './routes/users';
 
@@ -72,7 +76,11 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
             { path: paths.newRun.pattern, element: <RunSetupRoute />, loader: runSetupLoader(queryClient) },
             { path: paths.run.pattern, element: <RunConsoleRoute />, loader: runLoader(queryClient) },
             { path: paths.interpretation.pattern, element: <InterpretationRoute />, loader: interpretationLoader(queryClient) },
+            { path: paths.replay.pattern, element: <ReplayRoute />, loader: replayLoader(queryClient) },
             { path: paths.imports.pattern, element: <ImportsRoute />, loader: importsLoader(queryClient) },
+            { path: paths.signoff.pattern, element: <SignoffRoute />, loader: signoffLoader(queryClient) },
+            { path: paths.reports.pattern, element: <ReportsRoute />, loader: reportsLoader(queryClient) },
+            { path: paths.mailbox.pattern, element: <MailboxRoute />, loader: mailboxLoader(queryClient) },
             { path: paths.account.pattern, element: <AccountRoute /> },
             { path: '*', element: <NotFoundRoute /> },
           ],

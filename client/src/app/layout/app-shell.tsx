@@ -24,6 +24,9 @@ const NAV: NavItem[] = [
   { to: paths.instruments.href(), label: 'Instruments', permission: 'plans:read' },
   { to: paths.rigs.href(), label: 'Rigs', permission: 'plans:read' },
   { to: paths.users.href(), label: 'Users', permission: 'users:manage' },
+  { to: paths.reports.href(), label: 'Reports' },
+  // 'users:manage' is the admin-only grant; the mailbox is for admins.
+  { to: paths.mailbox.href(), label: 'Mailbox', permission: 'users:manage' },
   { to: paths.account.href(), label: 'My account' },
 ];
 

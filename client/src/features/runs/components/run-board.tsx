@@ -82,6 +82,9 @@ export function RunBoard({ runs }: { runs: RunSummary[] }) {
                 <Link to={paths.interpretation.href(r.id)} className="inline-flex min-h-touch items-center font-bold underline underline-offset-4">
                   Interpretation
                 </Link>
+                <Link to={paths.replay.href(r.id)} className="inline-flex min-h-touch items-center font-bold underline underline-offset-4">
+                  Replay
+                </Link>
               </li>
             ))}
           </ul>

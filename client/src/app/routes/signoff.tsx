@@ -1,0 +1,30 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { type LoaderFunctionArgs, useParams } from 'react-router-dom';
+import { PageHeader } from '../../components/page-header';
+import { QueryResult } from '../../components/query-states';
+import { signoffQueryOptions, useSignoff } from '../../features/signoff/api/signoff';
+import { SignoffPanel } from '../../features/signoff/components/signoff-panel';
+import { useCan } from '../../lib/auth';
+import { requirePermission, routeId } from '../route-guards';
+
+export const signoffLoader =
+  (queryClient: QueryClient) =>
+  async ({ request, params }: LoaderFunctionArgs) => {
+    await requirePermission(queryClient, request, 'plans:read');
+    return queryClient.ensureQueryData(signoffQueryOptions(routeId(params, 'runId')));
+  };
+
+export function SignoffRoute() {
+  const runId = Number(useParams().runId);
+  const signoff = useSignoff(runId);
+  // Engineers and admins review and sign: the same roles that save interpretations.
+  const canSign = useCan('plans:write');
+  return (
+    <>
+      <PageHeader title={`Review and sign-off of run ${runId}`} />
+      <QueryResult query={signoff} loadingLabel="Loading the review state…">
+        {(view) => <SignoffPanel view={view} canSign={canSign} />}
+      </QueryResult>
+    </>
+  );
+}

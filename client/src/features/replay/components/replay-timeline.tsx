@@ -1,0 +1,83 @@
+import { Button } from '../../../components/button';
+import { REPLAY_SPEEDS, type ReplaySpeed } from '../utils/use-playback';
+import { formatElapsed, type StageSpan, type TimelineMark } from '../utils/timeline';
+
+export interface ReplayTimelineProps {
+  fromMs: number;
+  toMs: number;
+  tMs: number;
+  stages: readonly StageSpan[];
+  marks: readonly TimelineMark[];
+  playing: boolean;
+  speed: ReplaySpeed;
+  onSeek: (tMs: number) => void;
+  onToggle: () => void;
+  onSpeed: (speed: ReplaySpeed) => void;
+}
+
+const pct = (t: number, fromMs: number, toMs: number) => `${((Math.min(toMs, Math.max(fromMs, t)) - fromMs) / (toMs - fromMs)) * 100}%`;
+
+/** The whole run as a bar: stages as spans, events and alarms as marks (each a jump), a scrubber and the playback controls. */
+export function ReplayTimeline({ fromMs, toMs, tMs, stages, marks, playing, speed, onSeek, onToggle, onSpeed }: ReplayTimelineProps) {
+  const previous = marks.findLast((m) => m.atMs < tMs);
+  const next = marks.find((m) => m.atMs > tMs);
+  return (
+    <section aria-label="Timeline" className="flex flex-col gap-2">
+      <ol aria-label="Stages" className="relative h-8 rounded-md border-2 border-neutral-300 bg-neutral-100">
+        {stages.map((s) => (
+          <li
+            key={`${s.stageIndex}-${s.fromMs}`}
+            aria-label={`Stage ${s.stageIndex}, target ${s.targetKpa} kPa, from ${formatElapsed(s.fromMs - fromMs)}`}
+            title={`Stage ${s.stageIndex} · ${s.targetKpa} kPa`}
+            className="absolute inset-y-0 overflow-hidden border-l-2 border-neutral-700 bg-neutral-200 px-1 text-xs leading-7"
+            style={{ left: pct(s.fromMs, fromMs, toMs), width: `calc(${pct(s.toMs, fromMs, toMs)} - ${pct(s.fromMs, fromMs, toMs)})` }}
+          >
+            {s.targetKpa}
+          </li>
+        ))}
+      </ol>
+      <ol aria-label="Events and alarms" className="relative h-6">
+        {marks.map((m) => (
+          <li key={m.id} className="absolute top-0" style={{ left: pct(m.atMs, fromMs, toMs) }}>
+            <button
+              type="button"
+              aria-label={`${m.label} at ${formatElapsed(m.atMs - fromMs)}`}
+              title={m.label}
+              onClick={() => onSeek(m.atMs)}
+              className={`-ml-1 block h-5 w-2 rounded-sm ${m.alarm ? 'bg-alarm-700' : 'bg-neutral-700'}`}
+            />
+          </li>
+        ))}
+      </ol>
+      <label className="flex flex-col gap-1">
+        <span className="font-semibold">
+          Run time <span className="font-mono">{formatElapsed(tMs - fromMs)}</span>
+        </span>
+        <input type="range" aria-label="Replay time" min={0} max={toMs - fromMs} step={1000} value={tMs - fromMs} onChange={(e) => onSeek(fromMs + Number(e.target.value))} />
+      </label>
+      <div className="flex flex-wrap items-center gap-2">
+        <Button variant="secondary" onClick={() => onSeek(fromMs)}>
+          Start
+        </Button>
+        <Button variant="secondary" disabled={!previous} onClick={() => previous && onSeek(previous.atMs)}>
+          Previous event
+        </Button>
+        <Button onClick={onToggle}>{playing ? 'Pause' : 'Play'}</Button>
+        <Button variant="secondary" disabled={!next} onClick={() => next && onSeek(next.atMs)}>
+          Next event
+        </Button>
+        <Button variant="secondary" onClick={() => onSeek(toMs)}>
+          End
+        </Button>
+        <fieldset className="flex items-center gap-2">
+          <legend className="sr-only">Speed</legend>
+          {REPLAY_SPEEDS.map((s) => (
+            <label key={s} className="inline-flex min-h-touch items-center gap-1">
+              <input type="radio" name="replay-speed" checked={speed === s} onChange={() => onSpeed(s)} />×{s}
+            </label>
+          ))}
+        </fieldset>
+      </div>
+    </section>
+  );
+}

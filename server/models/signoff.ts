@@ -1,0 +1,91 @@
+import { type CreationOptional, DataTypes, type InferAttributes, type InferCreationAttributes, Model, type Sequelize } from 'sequelize';
+import { jsonColumn } from './json';
+
+/** Where a run stands in review: being worked on, submitted for review, or signed (and so locked). */
+export const SIGNOFF_STATES = ['draft', 'in-review', 'signed'] as const;
+export type SignoffState = (typeof SIGNOFF_STATES)[number];
+
+/** What a signature means: the signer checked the work, or approves it for issue. */
+export const SIGNATURE_MEANINGS = ['reviewed', 'approved'] as const;
+export type SignatureMeaning = (typeof SIGNATURE_MEANINGS)[number];
+
+/** Why a signed run was opened again: one entry per revision after the first. */
+export interface RevisionNote {
+  revision: number;
+  reason: string;
+  userId: number;
+  at: string;
+}
+
+/** The review state of one run. Revision 1 is the first; reopening a signed run starts the next. */
+export class Signoff extends Model<InferAttributes<Signoff>, InferCreationAttributes<Signoff>> {
+  declare runId: number;
+  declare state: SignoffState;
+  declare revision: number;
+  declare interpretationVersion: number | null;
+  declare submittedBy: number | null;
+  declare submittedAt: Date | null;
+  declare revisions: RevisionNote[];
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    Signoff.init(
+      {
+        runId: { type: DataTypes.INTEGER.UNSIGNED, primaryKey: true },
+        state: { type: DataTypes.STRING(24), allowNull: false },
+        revision: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
+        interpretationVersion: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
+        submittedBy: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
+        submittedAt: { type: DataTypes.DATE(3), allowNull: true },
+        revisions: jsonColumn('revisions'),
+        createdAt: DataTypes.DATE(3),
+        updatedAt: DataTypes.DATE(3),
+      },
+      { sequelize, tableName: 'signoffs' },
+    );
+  }
+}
+
+/** One signature: who, when, what it means, and the hash of the data signed. Never changed or deleted. */
+export class Signature extends Model<InferAttributes<Signature>, InferCreationAttributes<Signature>> {
+  declare id: CreationOptional<number>;
+  declare runId: number;
+  declare revision: number;
+  declare interpretationVersion: number;
+  declare userId: number | null;
+  declare signerName: string;
+  declare meaning: SignatureMeaning;
+  declare dataHash: string;
+  declare signedAt: Date;
+
+  toDto() {
+    return {
+      id: this.id,
+      revision: this.revision,
+      interpretationVersion: this.interpretationVersion,
+      userId: this.userId,
+      signerName: this.signerName,
+      meaning: this.meaning,
+      dataHash: this.dataHash,
+      signedAt: this.signedAt.toISOString(),
+    };
+  }
+
+  static initModel(sequelize: Sequelize) {
+    Signature.init(
+      {
+        id: { type: DataTypes.INTEGER.UNSIGNED, autoIncrement: true, primaryKey: true },
+        runId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
+        revision: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
+        interpretationVersion: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
+        userId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
+        signerName: { type: DataTypes.STRING(160), allowNull: false },
+        meaning: { type: DataTypes.STRING(24), allowNull: false },
+        dataHash: { type: DataTypes.CHAR(64), allowNull: false },
+        signedAt: { type: DataTypes.DATE(3), allowNull: false },
+      },
+      { sequelize, tableName: 'signatures', timestamps: false },
+    );
+  }
+}

@@ -1,0 +1,49 @@
+import { recordToReadingsCsv } from '../../shared/records/csv';
+import { idParams } from '../../shared/schemas/common';
+import { EVERYONE } from '../auth/permissions';
+import { route } from '../http/route';
+import { listReports, reportRunFor } from '../services/report-access';
+import { loadReportData } from '../services/report-data';
+import { renderReportPdf } from '../services/report-pdf';
+import { loadRunRecord } from '../services/run-record';
+
+interface ReportFile {
+  name: string;
+  type: string;
+  body: Buffer | string;
+}
+
+/** A download of a reported run, for those who may see its report (clients: signed runs of their organisation only, else 404). */
+const reportFileRoute = (path: string, summary: string, file: (runId: number) => Promise<ReportFile>) =>
+  route({
+    method: 'get',
+    path,
+    access: EVERYONE,
+    summary,
+    params: idParams,
+    handler: async ({ params, user, res }) => {
+      await reportRunFor(user!, params.id);
+      const { name, type, body } = await file(params.id);
+      res.type(type).attachment(name).send(body);
+    },
+  });
+
+export const reportRoutes = [
+  route({
+    method: 'get',
+    path: '/api/reports',
+    access: EVERYONE,
+    summary: 'Signed reports: a client’s own organisation’s, or every signed run for staff',
+    handler: async ({ user }) => ({ items: await listReports(user!) }),
+  }),
+  reportFileRoute('/api/runs/:id/report.pdf', 'The PDF report of a run (clients: signed runs of their organisation only)', async (id) => ({
+    name: `run-${id}-report.pdf`,
+    type: 'application/pdf',
+    body: await renderReportPdf(await loadReportData(id)),
+  })),
+  reportFileRoute('/api/reports/:id/readings.csv', 'Every reading of a reported run as CSV (clients: signed runs of their organisation only)', async (id) => ({
+    name: `run-${id}-readings.csv`,
+    type: 'text/csv',
+    body: recordToReadingsCsv(await loadRunRecord(id)),
+  })),
+];

@@ -1,0 +1,63 @@
+import { z } from 'zod';
+import { idParams } from '../../shared/schemas/common';
+import { EDITORS, STAFF } from '../auth/permissions';
+import { route } from '../http/route';
+import { SIGNATURE_MEANINGS } from '../models/signoff';
+import { reopenRun, signoffView, signRun, submitForReview, verifyRun } from '../services/signoff';
+
+export const signInput = z.strictObject({
+  password: z.string().min(1, 'required: your password, to confirm it is you signing').max(200),
+  meaning: z.enum(SIGNATURE_MEANINGS),
+});
+
+export const reopenInput = z.strictObject({
+  reason: z.string().trim().min(1, 'required: say why the signed run is reopened').max(500),
+});
+
+export const signoffRoutes = [
+  route({
+    method: 'get',
+    path: '/api/runs/:id/signoff',
+    access: STAFF,
+    summary: 'Review state of a run: state, revision, the version under review, every signature',
+    params: idParams,
+    handler: ({ params }) => signoffView(params.id),
+  }),
+  route({
+    method: 'post',
+    path: '/api/runs/:id/signoff/submit',
+    access: EDITORS,
+    summary: 'Submit the run’s newest interpretation version for review',
+    status: 200,
+    params: idParams,
+    handler: ({ params, user }) => submitForReview(user!, params.id),
+  }),
+  route({
+    method: 'post',
+    path: '/api/runs/:id/signoff/sign',
+    access: EDITORS,
+    summary: 'Sign the version under review (password asked again); locks the run',
+    status: 200,
+    params: idParams,
+    body: signInput,
+    handler: ({ params, body, user }) => signRun(user!, params.id, body),
+  }),
+  route({
+    method: 'post',
+    path: '/api/runs/:id/signoff/reopen',
+    access: EDITORS,
+    summary: 'Reopen a signed run as a new revision, with a reason',
+    status: 200,
+    params: idParams,
+    body: reopenInput,
+    handler: ({ params, body, user }) => reopenRun(user!, params.id, body.reason),
+  }),
+  route({
+    method: 'get',
+    path: '/api/runs/:id/verify',
+    access: STAFF,
+    summary: 'Recompute the hash of the latest signature’s data and say whether it still matches',
+    params: idParams,
+    handler: ({ params }) => verifyRun(params.id),
+  }),
+];

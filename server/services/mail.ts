@@ -1,0 +1,113 @@
+/**
+ * Outgoing e-mail through nodemailer: the signed report to the client's contacts, and a note to the
+ * engineers when a run finishes. The SMTP server is set once at start-up ({@link configureMailer}).
+ */
+import nodemailer, { type Transporter } from 'nodemailer';
+import { recordToReadingsCsv } from '../../shared/records/csv';
+import { HttpError } from '../http/errors';
+import { Run } from '../models/run';
+import { User } from '../models/user';
+import { audit } from './audit';
+import { clientContacts } from './report-access';
+import { loadReportData } from './report-data';
+import { renderReportPdf } from './report-pdf';
+import { loadRunRecord } from './run-record';
+
+/** Where mail goes. */
+export interface MailerOptions {
+  host: string;
+  /** SMTP port. */
+  port: number;
+  /** Sender address. Default reports@settlescope.local. */
+  from?: string;
+}
+
+let transport: Transporter | null = null;
+let sender = 'reports@settlescope.local';
+
+/**
+ * Points outgoing mail at an SMTP server (plain SMTP, no TLS: the local catcher). Returns a release that
+ * turns mail off again unless someone configured another server since (tests run several servers in turn).
+ */
+export function configureMailer(options: MailerOptions): () => void {
+  transport?.close();
+  const mine = nodemailer.createTransport({ host: options.host, port: options.port, secure: false, ignoreTLS: true });
+  transport = mine;
+  sender = options.from ?? 'reports@settlescope.local';
+  return () => {
+    mine.close();
+    if (transport === mine) transport = null;
+  };
+}
+
+const mailUnavailable = () => new HttpError(503, 'mail_unavailable', 'No mail server is configured on this server.');
+
+export interface OutgoingMail {
+  to: string[];
+  subject: string;
+  text: string;
+  attachments?: { filename: string; content: Buffer | string; contentType: string }[];
+}
+
+export async function sendMail(mail: OutgoingMail): Promise<{ messageId: string; accepted: string[] }> {
+  if (!transport) throw mailUnavailable();
+  const info = await transport.sendMail({ from: sender, ...mail });
+  return { messageId: info.messageId, accepted: (info.accepted ?? []).map(String) };
+}
+
+/** E-mails a signed run's PDF report and its readings CSV to the client organisation's contacts; audited. */
+export async function sendRunReport(user: User, runId: number): Promise<{ to: string[]; subject: string; attachments: string[] }> {
+  const data = await loadReportData(runId);
+  if (data.signoff.state !== 'signed') throw new HttpError(409, 'run_not_signed', 'Only a signed run’s report is sent; sign it first.');
+  const contacts = await clientContacts(runId);
+  if (contacts.emails.length === 0)
+    throw new HttpError(409, 'no_contacts', `${contacts.organizationName} has no contact e-mail address; add one to the organisation first.`);
+  const pdfName = `run-${runId}-report-rev${data.signoff.revision}.pdf`;
+  const csvName = `run-${runId}-readings.csv`;
+  const subject = `Plate load test report: ${contacts.projectCode}, pit ${contacts.pitId} (revision ${data.signoff.revision})`;
+  const text = [
+    `Dear ${contacts.organizationName},`,
+    '',
+    `Attached is the signed report of the plate load test at pit ${contacts.pitId} (${data.project.name}), revision ${data.signoff.revision}, with every reading as CSV.`,
+    '',
+    `Sent by ${user.name}.`,
+  ].join('\n');
+  const attachments = [
+    { filename: pdfName, content: await renderReportPdf(data), contentType: 'application/pdf' },
+    { filename: csvName, content: recordToReadingsCsv(await loadRunRecord(runId)), contentType: 'text/csv' },
+  ];
+  await sendMail({ to: contacts.emails, subject, text, attachments });
+  await audit({
+    userId: user.id,
+    entity: 'report',
+    entityId: runId,
+    action: 'sent',
+    after: { to: contacts.emails, revision: data.signoff.revision, attachments: [pdfName, csvName] },
+  });
+  return { to: contacts.emails, subject, attachments: [pdfName, csvName] };
+}
+
+/**
+ * Tells the engineers (active users with role engineer) that a run finished. For the run manager to call
+ * when a run reaches 'completed' or 'stopped'; never throws (a mail failure must not disturb a run), and
+ * does nothing when no mail server is configured. Resolves to the addresses written to.
+ */
+export async function notifyRunFinished(runId: number, phase: 'completed' | 'stopped', reason?: string): Promise<string[]> {
+  if (!transport) return [];
+  try {
+    const run = await Run.findByPk(runId);
+    const engineers = await User.findAll({ where: { role: 'engineer', active: true } });
+    const to = engineers.map((u) => u.email);
+    if (!run || to.length === 0) return [];
+    const contacts = await clientContacts(runId);
+    await sendMail({
+      to,
+      subject: `Run ${runId} ${phase}: ${contacts.projectCode}, pit ${contacts.pitId}`,
+      text: `Run ${runId} at pit ${contacts.pitId} (${contacts.projectCode}) ${phase === 'completed' ? 'completed' : 'was stopped'}${reason ? `: ${reason}` : ''}.\nIt is ready for interpretation and review.`,
+    });
+    return to;
+  } catch (err) {
+    console.error(`run ${runId}: the finish notice was not sent: ${(err as Error).message}`);
+    return [];
+  }
+}

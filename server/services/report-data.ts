@@ -1,0 +1,154 @@
+/**
+ * Everything the PDF report of a run shows, gathered from the database in one place so that the
+ * renderer stays a function of plain data.
+ */
+import { analyzeRecord, type RecordAnalysis } from '../../shared/interpretation/analyze-record';
+import { findProfile, type SettingSource } from '../../shared/procedures/profiles';
+import type { TestRecord } from '../../shared/records/schema';
+import type { PlanInput } from '../../shared/schemas/plans';
+import { notFound } from '../http/errors';
+import { CalibrationRecord } from '../models/calibration-record';
+import { Instrument } from '../models/instrument';
+import { Interpretation } from '../models/interpretation';
+import { Organization } from '../models/organization';
+import { Project } from '../models/project';
+import { Rig } from '../models/rig';
+import { Run } from '../models/run';
+import { RunEvent } from '../models/run-event';
+import { TestLocation } from '../models/test-location';
+import { TestPlan } from '../models/test-plan';
+import { User } from '../models/user';
+import { loadRunRecord } from './run-record';
+import { type SignoffView, signoffView } from './signoff';
+
+/** One instrument line: the rig channel, what is fitted on it, and its calibration in force. */
+export interface ReportInstrument {
+  channel: string;
+  role: string;
+  instrument: string | null;
+  serialNumber: string | null;
+  calibratedOn: string | null;
+  dueOn: string | null;
+}
+
+export interface ReportData {
+  runId: number;
+  generatedAt: Date;
+  project: { code: string; name: string; site: string; address: string };
+  clientName: string;
+  location: {
+    pitId: string;
+    latitude: number | null;
+    longitude: number | null;
+    planX: number | null;
+    planY: number | null;
+    testDepthM: number;
+    waterTableDepthM: number | null;
+    soilDescription: string;
+    notes: string;
+  };
+  testDate: string | null;
+  crew: string[];
+  plan: { name: string; input: PlanInput; profileName: string | null; profileFamily: string | null; sources: SettingSource[] };
+  rigName: string | null;
+  instruments: ReportInstrument[];
+  record: TestRecord;
+  analysis: RecordAnalysis;
+  /** The saved interpretation shown (the version under review or signed, else the newest); null when none is saved. */
+  interpretation: { version: number; chosenMethod: string | null; reason: string; byName: string | null; savedAt: Date } | null;
+  remarks: string[];
+  signoff: SignoffView;
+}
+
+async function instrumentsOf(rig: Rig | null): Promise<ReportInstrument[]> {
+  if (!rig) return [];
+  const ids = [...new Set([...rig.channels.map((c) => c.instrumentId), rig.jackInstrumentId].filter((x): x is number => x != null))];
+  const instruments = new Map((ids.length ? await Instrument.findAll({ where: { id: ids } }) : []).map((i) => [i.id, i]));
+  const calibrations = ids.length ? await CalibrationRecord.findAll({ where: { instrumentId: ids }, order: [['calibratedOn', 'DESC']] }) : [];
+  const latest = (id: number) => calibrations.find((c) => c.instrumentId === id) ?? null;
+  const line = (channel: string, role: string, id: number | null): ReportInstrument => {
+    const i = id == null ? undefined : instruments.get(id);
+    const c = id == null ? null : latest(id);
+    return {
+      channel,
+      role,
+      instrument: i?.makeModel ?? null,
+      serialNumber: i?.serialNumber ?? null,
+      calibratedOn: c?.calibratedOn ?? null,
+      dueOn: c?.dueOn ?? null,
+    };
+  };
+  const lines = rig.channels.map((c) => line(c.label, c.role, c.instrumentId));
+  if (rig.jackInstrumentId != null) lines.push(line('Jack', 'jack', rig.jackInstrumentId));
+  return lines;
+}
+
+async function userNames(ids: (number | null)[]): Promise<Map<number, string>> {
+  const wanted = [...new Set(ids.filter((x): x is number => x !== null))];
+  return new Map((wanted.length ? await User.findAll({ where: { id: wanted } }) : []).map((u) => [u.id, u.name]));
+}
+
+/** Gathers the report of a run. 404 for an unknown run. */
+export async function loadReportData(runId: number): Promise<ReportData> {
+  const run = await Run.findByPk(runId);
+  if (!run) throw notFound('Run');
+  const plan = await TestPlan.findByPk(run.planId);
+  if (!plan) throw notFound('Test plan of the run');
+  const location = await TestLocation.findByPk(plan.locationId);
+  if (!location) throw notFound('Test location of the run');
+  const project = await Project.findByPk(location.projectId);
+  if (!project) throw notFound('Project of the run');
+  const organization = await Organization.findByPk(project.organizationId);
+  const rig = run.rigId === null ? null : await Rig.findByPk(run.rigId);
+  const record = await loadRunRecord(runId);
+  const signoff = await signoffView(runId);
+  const saved = await Interpretation.findOne({
+    where: { runId, ...(signoff.interpretationVersion !== null ? { version: signoff.interpretationVersion } : {}) },
+    order: [['version', 'DESC']],
+  });
+  const events = await RunEvent.findAll({ where: { runId }, attributes: ['userId'] });
+  const names = await userNames([run.createdBy, saved?.createdBy ?? null, ...events.map((e) => e.userId)]);
+  const input = plan.toInput();
+  const profile = findProfile(input.procedureId);
+  const crew = [...new Set([run.createdBy, ...events.map((e) => e.userId)].flatMap((id) => (id !== null && names.has(id) ? [names.get(id)!] : [])))];
+  return {
+    runId,
+    generatedAt: new Date(),
+    project: { code: project.code, name: project.name, site: project.site, address: project.address },
+    clientName: organization?.name ?? '',
+    location: {
+      pitId: location.pitId,
+      latitude: location.latitude,
+      longitude: location.longitude,
+      planX: location.planX,
+      planY: location.planY,
+      testDepthM: location.testDepthM,
+      waterTableDepthM: location.waterTableDepthM,
+      soilDescription: location.soilDescription,
+      notes: location.notes,
+    },
+    testDate: record.metadata?.testDate ?? run.startedAt?.toISOString().slice(0, 10) ?? null,
+    crew,
+    plan: { name: plan.name, input, profileName: profile?.name ?? null, profileFamily: profile?.family ?? null, sources: profile?.sources ?? [] },
+    rigName: rig?.name ?? null,
+    instruments: await instrumentsOf(rig),
+    record,
+    analysis: saved ? (saved.result as unknown as RecordAnalysis) : analyzeRecord(record),
+    interpretation: saved
+      ? {
+          version: saved.version,
+          chosenMethod: saved.chosenMethod,
+          reason: saved.reason,
+          byName: saved.createdBy === null ? null : (names.get(saved.createdBy) ?? null),
+          savedAt: saved.createdAt,
+        }
+      : null,
+    remarks: [
+      ...(record.events ?? [])
+        .filter((e) => e.kind === 'note')
+        .map((e) => `Stage ${e.stage}${e.tMin === undefined ? '' : `, ${e.tMin.toFixed(1)} min`}: ${e.text}`),
+      ...(input.notes ? [input.notes] : []),
+    ],
+    signoff,
+  };
+}
