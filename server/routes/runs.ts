@@ -39,7 +39,7 @@ export const runRoutes = (runs: RunManager) => [
             pitId: plan?.location?.pitId ?? '',
             projectCode: plan?.location?.project?.code ?? '',
             rigName: r.rigId ? (rigs.get(r.rigId) ?? '') : '',
-            stageIndex: r.state.lifecycle.stageIndex,
+            stageIndex: r.state?.lifecycle?.stageIndex ?? 0,
             stageCount: view?.stages.length ?? null,
             verdict: view?.hold?.verdict ?? null,
             activeAlarms: view ? view.alarms.filter((a) => a.state === 'unacknowledged').length : 0,

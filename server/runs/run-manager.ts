@@ -17,6 +17,7 @@ import { badRequest, conflict, notFound } from '../http/errors';
 import { type PersistedRun, Run } from '../models/run';
 import { RunEvent } from '../models/run-event';
 import { TestPlan } from '../models/test-plan';
+import { notifyRunFinished } from '../services/mail';
 import { Archiver } from './archiver';
 import { Journal } from './journal';
 import { newRunClock, runTime } from './run-clock';
@@ -152,9 +153,11 @@ export class RunManager {
   private async save(runId: number, persisted: PersistedRun, events: RunEventDraft[]): Promise<void> {
     const phase = persisted.lifecycle.phase;
     const closed = !ACTIVE_PHASES.includes(phase);
+    let justClosed = false;
     await transaction(async (t) => {
       const run = await Run.findByPk(runId, { transaction: t });
       if (!run) return;
+      justClosed = closed && ACTIVE_PHASES.includes(run.status);
       await run.update(
         {
           status: phase,
@@ -166,6 +169,10 @@ export class RunManager {
       );
       if (events.length) await RunEvent.bulkCreate(events.map((e) => ({ runId, at: new Date(e.atMs), kind: e.kind, userId: e.userId, payload: e.payload })), { transaction: t });
     });
+    if (justClosed) {
+      // The engineers hear that a run needs interpreting and review; the rollups make its replay fast.
+      void notifyRunFinished(runId, phase === 'completed' ? 'completed' : 'stopped', persisted.lifecycle.closedReason ?? undefined);
+    }
   }
 
   private saveEvents(runId: number, events: RunEventDraft[]) {

@@ -3,23 +3,11 @@
  * a server config pointing at it, and raw `mariadb` connector connections for the baselines.
  */
 import { rmSync } from 'node:fs';
-import { type AddressInfo, createServer } from 'node:net';
 import path from 'node:path';
 import mariadb, { type Connection } from 'mariadb';
-import { ROOT_DIR, type ServerConfig, defaultConfig } from '../../server/config';
-import { type MariadbInstance, ensureDatabase, ensureMariadbInstalled, startMariadb } from '../../server/ops/mariadb';
-
-/** A port nobody listens on now (as the test setup picks its own; that one is not exported). */
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as AddressInfo;
-      probe.close(() => resolve(port));
-    });
-  });
-}
+import { defaultConfig, ROOT_DIR, type ServerConfig } from '../../server/config';
+import { ensureDatabase, ensureMariadbInstalled, type MariadbInstance, startMariadb } from '../../server/ops/mariadb';
+import { freePort } from '../support/global-mariadb';
 
 /** The built console (`npm run build`), served when present. */
 export const CLIENT_DIR = path.join(ROOT_DIR, 'dist', 'client');

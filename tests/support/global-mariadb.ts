@@ -10,7 +10,7 @@ import { ROOT_DIR } from '../../server/config';
 import { ensureMariadbInstalled, startMariadb } from '../../server/ops/mariadb';
 
 /** A port nobody listens on now (so parallel test runs on one machine do not collide). */
-function freePort(): Promise<number> {
+export function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const probe = createServer();
     probe.once('error', reject);

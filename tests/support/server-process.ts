@@ -1,5 +1,4 @@
 import { type ChildProcess, spawn } from 'node:child_process';
-import path from 'node:path';
 import { type ServerConfig, ROOT_DIR } from '../../server/config';
 
 /** The API server as its own process (so a test can SIGKILL it), configured through the environment. */
