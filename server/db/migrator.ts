@@ -6,6 +6,7 @@ import * as runRig from './migrations/0003-run-rig';
 import * as interpretations from './migrations/0004-interpretations';
 import * as signoff from './migrations/0005-signoff';
 import * as corrections from './migrations/0006-corrections';
+import * as rollups from './migrations/0007-sample-rollups';
 
 export interface Migration {
   up(qi: QueryInterface, S: typeof Sequelize): Promise<void>;
@@ -20,6 +21,7 @@ const MIGRATIONS: [string, Migration][] = [
   ['0004-interpretations', interpretations],
   ['0005-signoff', signoff],
   ['0006-corrections', corrections],
+  ['0007-sample-rollups', rollups],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

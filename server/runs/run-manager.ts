@@ -19,6 +19,7 @@ import { RunEvent } from '../models/run-event';
 import { TestPlan } from '../models/test-plan';
 import { notifyRunFinished } from '../services/mail';
 import { Archiver } from './archiver';
+import { buildRollups } from './samples-query';
 import { Journal } from './journal';
 import { newRunClock, runTime } from './run-clock';
 import { type EngineIo, RunEngine } from './run-engine';
@@ -172,6 +173,10 @@ export class RunManager {
     if (justClosed) {
       // The engineers hear that a run needs interpreting and review; the rollups make its replay fast.
       void notifyRunFinished(runId, phase === 'completed' ? 'completed' : 'stopped', persisted.lifecycle.closedReason ?? undefined);
+      void this.archiver
+        .drain()
+        .then(() => buildRollups(this.o.sequelize, runId))
+        .catch((err) => debug('rollups of run %d: %s', runId, (err as Error).message));
     }
   }
 

@@ -22,11 +22,17 @@ export async function samplesAfter(sequelize: Sequelize, runId: number, afterSeq
  */
 export async function summarizeSamples(sequelize: Sequelize, runId: number, fromMs: number, toMs: number, buckets: number): Promise<SampleSummary> {
   const bucketMs = Math.max(1, Math.ceil((toMs - fromMs) / buckets));
+  // Wide buckets read the closed run's per-minute rollups (when built); narrow ones the samples.
+  const useRollups = bucketMs >= ROLLUP_USE_FROM_MS && (await hasRollups(sequelize, runId));
   const rows = (await sequelize.query(
-    `SELECT channel, FLOOR((t_ms - ?) / ?) AS b, MIN(value) AS lo, MAX(value) AS hi
-       FROM samples WHERE run_id = ? AND t_ms >= ? AND t_ms < ? AND value IS NOT NULL
-      GROUP BY channel, b ORDER BY channel, b`,
-    { replacements: [fromMs, bucketMs, runId, fromMs, toMs], type: QueryTypes.SELECT },
+    useRollups
+      ? `SELECT channel, FLOOR((bucket * ${ROLLUP_MS} - ?) / ?) AS b, MIN(lo) AS lo, MAX(hi) AS hi
+           FROM sample_rollups WHERE run_id = ? AND bucket_ms = ${ROLLUP_MS} AND bucket * ${ROLLUP_MS} >= ? AND bucket * ${ROLLUP_MS} < ?
+          GROUP BY channel, b ORDER BY channel, b`
+      : `SELECT channel, FLOOR((t_ms - ?) / ?) AS b, MIN(value) AS lo, MAX(value) AS hi
+           FROM samples WHERE run_id = ? AND t_ms >= ? AND t_ms < ? AND value IS NOT NULL
+          GROUP BY channel, b ORDER BY channel, b`,
+    { replacements: [fromMs, bucketMs, runId, useRollups ? Math.floor(fromMs / ROLLUP_MS) * ROLLUP_MS : fromMs, toMs], type: QueryTypes.SELECT },
   )) as { channel: number; b: number; lo: number; hi: number }[];
   const byChannel = new Map<number, SampleSummary['channels'][number]>();
   for (const r of rows) {
@@ -40,6 +46,31 @@ export async function summarizeSamples(sequelize: Sequelize, runId: number, from
     c.max.push(Number(r.hi));
   }
   return { runId, fromMs, toMs, bucketMs, channels: [...byChannel.values()] };
+}
+
+/** Resolution of the rollups, ms: one minute. */
+export const ROLLUP_MS = 60_000;
+/** Rollups serve buckets of ten minutes or wider, so a rollup minute straddling a bucket edge moves an extreme by at most a tenth of a bucket. */
+const ROLLUP_USE_FROM_MS = 10 * ROLLUP_MS;
+
+async function hasRollups(sequelize: Sequelize, runId: number): Promise<boolean> {
+  const rows = (await sequelize.query('SELECT 1 AS x FROM sample_rollups WHERE run_id = ? AND bucket_ms = ? LIMIT 1', { replacements: [runId, ROLLUP_MS], type: QueryTypes.SELECT })) as unknown[];
+  return rows.length > 0;
+}
+
+/**
+ * Builds a closed run's per-minute min/max rollups from its samples (idempotent). Called when a run
+ * closes, once its samples are archived; the samples themselves stay as they are.
+ */
+export async function buildRollups(sequelize: Sequelize, runId: number): Promise<void> {
+  await sequelize.query(
+    `INSERT INTO sample_rollups (run_id, bucket_ms, channel, bucket, lo, hi)
+       SELECT run_id, ?, channel, FLOOR(t_ms / ?), MIN(value), MAX(value)
+         FROM samples WHERE run_id = ? AND value IS NOT NULL
+        GROUP BY run_id, channel, FLOOR(t_ms / ?)
+     ON DUPLICATE KEY UPDATE lo = VALUES(lo), hi = VALUES(hi)`,
+    { replacements: [ROLLUP_MS, ROLLUP_MS, runId, ROLLUP_MS], type: QueryTypes.INSERT },
+  );
 }
 
 /** First and last sample times of a run, ms (null when it has none). */

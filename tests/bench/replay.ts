@@ -1,3 +1,5 @@
+import type { Sequelize } from 'sequelize';
+import { buildRollups } from '../../server/runs/samples-query';
 /**
  * P3: replay of a week-long 1 Hz 6-channel run. The rows go in through the raw connector; then the
  * console's overview and 1-hour zooms are fetched over HTTP from the summary route, against fetching
@@ -14,6 +16,8 @@ export interface ReplayOptions {
   baseUrl: string;
   cookie: string;
   conn: Connection;
+  /** The server's Sequelize instance, for building the closed run's rollups as the run manager would. */
+  sequelize: Sequelize;
   days: number;
   /** Plot width in pixels; the summary asks for this many buckets (≤ 2 points each per series). */
   widthPx: number;
@@ -22,6 +26,8 @@ export interface ReplayOptions {
 export interface ReplayResult {
   rows: number;
   insertS: number;
+  /** Time to build the per-minute rollups when the run closed, s. */
+  rollupS: number;
   overviewFirstMs: number;
   overviewMedianMs: number;
   zoomMaxMs: number;
@@ -54,6 +60,8 @@ export async function benchReplay(o: ReplayOptions): Promise<ReplayResult> {
   const rows = o.days * 86_400 * 6;
   const fill = await timed(() => fillRun(o.conn, runId, rows));
   await o.conn.query('ANALYZE TABLE samples');
+  // As the run manager does when a run closes: per-minute rollups for fast overviews.
+  const rollup = await timed(() => buildRollups(o.sequelize, runId));
 
   const buckets = `buckets=${o.widthPx}`;
   const overview = [];
@@ -71,11 +79,13 @@ export async function benchReplay(o: ReplayOptions): Promise<ReplayResult> {
   if ((oneDay.result as unknown[]).length !== 86_400 * 6) throw new Error(`one day returned ${(oneDay.result as unknown[]).length} rows`);
   // The stand-in run row has no real state: remove it with its rows so no page lists it later.
   await o.conn.query('DELETE FROM samples WHERE run_id = ?', [runId]);
+  await o.conn.query('DELETE FROM sample_rollups WHERE run_id = ?', [runId]);
   await o.conn.query('DELETE FROM runs WHERE id = ?', [runId]);
 
   return {
     rows,
     insertS: fill.ms / 1000,
+    rollupS: rollup.ms / 1000,
     overviewFirstMs: overview[0].ms,
     overviewMedianMs: median(overview.map((x) => x.ms)),
     zoomMaxMs: Math.max(...zooms.map((x) => x.ms)),

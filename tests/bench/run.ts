@@ -157,7 +157,7 @@ async function measureAll(bench: BenchDatabase, scenario: Scenario, results: Rec
         const conn = await bench.rawConnection();
         try {
           const { cookie } = await httpSignIn(server.url, demoEmail('engineer'));
-          return await benchReplay({ baseUrl: server.url, cookie, conn, days: SIZE.replayDays, widthPx: SIZE.plotWidthPx });
+          return await benchReplay({ baseUrl: server.url, cookie, conn, sequelize: server.sequelize, days: SIZE.replayDays, widthPx: SIZE.plotWidthPx });
         } finally {
           await conn.end();
         }
@@ -166,7 +166,7 @@ async function measureAll(bench: BenchDatabase, scenario: Scenario, results: Rec
         const run = `${SIZE.replayDays}-day 1 Hz 6-ch run, ${(r.rows / 1e6).toFixed(2)} M rows`;
         const all = `all rows ${ms(r.allRowsMs)} (${r.allRowsNote})`;
         return [
-          { id: 'P3', figure: `replay overview of a ${run} (first / median of 5)`, measured: `${ms(r.overviewFirstMs)} / ${ms(r.overviewMedianMs)}`, target: '≤ 300 ms', baseline: all, verdict: verdict(Math.max(r.overviewFirstMs, r.overviewMedianMs) <= 300) },
+          { id: 'P3', figure: `replay overview of a ${run}, per-minute rollups built at close in ${r.rollupS.toFixed(1)} s (first / median of 5)`, measured: `${ms(r.overviewFirstMs)} / ${ms(r.overviewMedianMs)}`, target: '≤ 300 ms', baseline: all, verdict: verdict(Math.max(r.overviewFirstMs, r.overviewMedianMs) <= 300) },
           { id: 'P3', figure: '1-hour zoom (slowest / median of 10)', measured: `${ms(r.zoomMaxMs)} / ${ms(r.zoomMedianMs)}`, target: '≤ 100 ms', baseline: '', verdict: verdict(r.zoomMaxMs <= 100) },
           { id: 'P3', figure: `points per series sent (plot ${SIZE.plotWidthPx} px)`, measured: String(r.maxPointsPerSeries), target: `≤ ${4 * SIZE.plotWidthPx}`, baseline: `${r.rows / 6} per series`, verdict: verdict(r.maxPointsPerSeries <= 4 * SIZE.plotWidthPx) },
         ];

@@ -1,6 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Run } from '../../server/models/run';
+import { QueryTypes } from 'sequelize';
 import { Archiver } from '../../server/runs/archiver';
+import { buildRollups } from '../../server/runs/samples-query';
 import { SAMPLE_STATUS, type SampleRow } from '../../shared/runs/samples';
 import { type Client, type TestApp, signedIn, startTestApp } from '../support/api';
 
@@ -46,6 +48,23 @@ describe('samples summary (QUALITY P3 reduction)', () => {
     expect(res.body.bucketMs).toBe(36_000);
     expect(res.body.channels[0].t[0]).toBeGreaterThanOrEqual(from);
     expect(res.body.channels[0].t.length).toBe(100);
+  });
+
+  it('serves wide buckets from the per-minute rollups built at close, with the same extremes', async () => {
+    const before = (await engineer.get(`/api/runs/${runId}/samples/summary?buckets=40`)).body;
+    await buildRollups(t.sequelize, runId);
+    await buildRollups(t.sequelize, runId); // idempotent
+    const [{ n }] = (await t.sequelize.query('SELECT COUNT(*) AS n FROM sample_rollups WHERE run_id = ?', { replacements: [runId], type: QueryTypes.SELECT })) as { n: number }[];
+    expect(Number(n)).toBe(2 * Math.ceil(30_000 / 60)); // two channels × 500 minutes
+    const after = (await engineer.get(`/api/runs/${runId}/samples/summary?buckets=40`)).body;
+    // 30,000 s over 40 buckets = 750 s per bucket: rollup minutes straddle bucket edges, so buckets may shift by one
+    // minute, but every extreme of the run is still there.
+    for (const c of [0, 1]) {
+      expect(Math.max(...after.channels[c].max)).toBe(Math.max(...before.channels[c].max));
+      expect(Math.min(...after.channels[c].min)).toBe(Math.min(...before.channels[c].min));
+    }
+    expect(Math.max(...after.channels[0].max)).toBe(value(21_337, 0));
+    expect(Math.min(...after.channels[1].min)).toBe(value(25_001, 1));
   });
 
   it('names the field of a bad span', async () => {
