@@ -107,6 +107,11 @@ describe('the console in a real browser', () => {
     const runId = Number(runUrl.split('/').pop());
     const events = (await engineerApi.get(`/api/runs/${runId}/events`)).body.items.map((e: { kind: string }) => e.kind);
     expect(events).toEqual(expect.arrayContaining(['gauges-zeroed', 'run-started', 'hold-met', 'stage-advanced', 'alarm-acknowledge', 'gauge-reset', 'run-completed']));
+    // The finished run interprets from its own record.
+    await engineer.goto(`${server.url}/runs/${runId}/interpretation`);
+    await until(() => engineer.getByRole('heading', { name: 'Ultimate pressure, by method' }).isVisible());
+    await until(() => engineer.getByText(/Kondner/).first().isVisible());
+    await shot(engineer, 'interpretation-of-the-run');
     expect(errors.filter((e) => !e.includes('401'))).toEqual([]);
   }, 420_000);
 });

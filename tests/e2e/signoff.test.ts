@@ -1,0 +1,105 @@
+/**
+ * From a finished simulated run to the client's inbox in real browsers: the engineer replays the run,
+ * interprets it, submits and signs it, and e-mails the report; an admin sees the message in the
+ * mailbox; the client signs in and downloads the signed PDF. Screenshots in .artifacts/e2e/signoff/.
+ */
+import path from 'node:path';
+import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ROOT_DIR } from '../../server/config';
+import type { RunningServer } from '../../server/main';
+import type { SimulatorProcess } from '../../server/ops/simulated-rig';
+import { DEMO_PASSWORD } from '../../server/seed/demo';
+import { Client, demoEmail } from '../support/api';
+import { launchChromium, screenshotter, signInPage, watchForErrors } from '../support/browser';
+import { startLiveServer } from '../support/live-server';
+import { command, simPlan, simulatedRig, startedRun, waitFor } from '../support/sim-run';
+
+let server: RunningServer;
+let browser: Browser;
+let sim: SimulatorProcess;
+let runId: number;
+
+beforeAll(async () => {
+  server = await startLiveServer({ clientDir: path.join(ROOT_DIR, 'dist', 'client') });
+  browser = await launchChromium();
+  const started = await simulatedRig('dense-sand', 100, 'Sign-off rig (simulated)');
+  sim = started.sim;
+  // A short bearing test at a Harrowgate Freight pit, run to the end through the API.
+  const engineer = await new Client(server.url).signIn(demoEmail('engineer'));
+  const operator = await new Client(server.url).signIn(demoEmail('operator'));
+  const planId = await simPlan(engineer, 'bearing-granular', {
+    name: 'Sign-off plan',
+    loading: { mode: 'list', pressuresKpa: [150, 300, 450, 600] },
+    holdRule: { kind: 'rate', maxRateMmPerMin: 0.02, windowMin: 5, minHoldMin: 10 },
+    footing: { shape: 'square', widthM: 1.5, lengthM: null, soilBehaviour: 'cohesionless' },
+  });
+  runId = await startedRun(operator, planId, started.rig.id);
+  for (let i = 0; i < 5; i++) {
+    await waitFor(operator, runId, (v) => v.phase === 'hold-met' && v.stageIndex === i, `hold met at stage ${i}`, 120_000);
+    await command(operator, runId, i < 4 ? { type: 'advance' } : { type: 'finish' });
+  }
+  await server.runs.archiver.drain();
+}, 400_000);
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+  await sim?.stop();
+});
+
+const until = (fn: () => Promise<boolean>, timeout = 30_000) => expect.poll(fn, { timeout, interval: 250 }).toBe(true);
+
+describe('replay, interpretation, sign-off and delivery in real browsers', () => {
+  it('takes a finished run to a signed report in the client’s hands', async () => {
+    const shot = screenshotter('signoff');
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    const errors = watchForErrors(page);
+    await signInPage(page, server.url, demoEmail('engineer'));
+
+    await page.goto(`${server.url}/runs/${runId}/replay`);
+    await until(() => page.locator('canvas').first().isVisible());
+    await page.waitForTimeout(1000);
+    await shot(page, 'replay');
+
+    await page.goto(`${server.url}/runs/${runId}/interpretation`);
+    await until(() => page.getByRole('heading', { name: 'Ultimate pressure, by method' }).isVisible());
+    const save = page.getByRole('form', { name: 'Save interpretation' });
+    await save.getByLabel('Chosen ultimate method').selectOption({ index: 1 });
+    await save.getByLabel('Reason').fill('Clear break in the log–log plot; the other methods bracket it.');
+    await shot(page, 'interpretation');
+    await save.getByRole('button', { name: 'Save interpretation' }).click();
+    await until(() => page.getByText(/Version 1/i).first().isVisible());
+
+    await page.goto(`${server.url}/runs/${runId}/signoff`);
+    await page.getByRole('button', { name: /Submit the newest interpretation/ }).click();
+    const sign = page.getByRole('form', { name: 'Sign' });
+    await until(() => sign.isVisible());
+    await sign.getByLabel('Your password').fill('not-my-password');
+    await sign.getByRole('button', { name: 'Sign' }).click();
+    await until(() => sign.getByText(/password/i).nth(1).isVisible());
+    await sign.getByLabel('Your password').fill(DEMO_PASSWORD);
+    await sign.getByRole('button', { name: 'Sign' }).click();
+    await until(() => page.getByRole('button', { name: 'E-mail the report to the client' }).isVisible());
+    await shot(page, 'signed');
+    await page.getByRole('button', { name: 'E-mail the report to the client' }).click();
+    await until(() => page.getByText(/sent|e-mailed/i).first().isVisible());
+    expect(errors.filter((e) => !e.includes('401') && !e.includes('403'))).toEqual([]);
+
+    const admin = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signInPage(admin, server.url, demoEmail('admin'));
+    await admin.goto(`${server.url}/mailbox`);
+    await until(() => admin.getByText(/projects@harrowgate\.example/).first().isVisible());
+    await shot(admin, 'mailbox');
+
+    const client = await browser.newPage({ viewport: { width: 375, height: 740 } });
+    await signInPage(client, server.url, demoEmail('client'));
+    await client.goto(`${server.url}/reports`);
+    const pdfLink = client.getByRole('link', { name: 'Report (PDF)' }).first();
+    await until(() => pdfLink.isVisible());
+    await shot(client, 'client-reports');
+    const pdf = await client.request.get(new URL((await pdfLink.getAttribute('href'))!, server.url).toString());
+    expect(pdf.status()).toBe(200);
+    expect(pdf.headers()['content-type']).toContain('application/pdf');
+    expect((await pdf.body()).subarray(0, 5).toString()).toBe('%PDF-');
+  }, 300_000);
+});
