@@ -16,7 +16,7 @@ import type { PlannedStage } from '../../shared/plans/stages';
 import { reconcileAlarms } from '../../shared/runs/alarm-board';
 import { type Actor, type RunEventDraft, type RunState, applyCommand, applyObservation } from '../../shared/runs/lifecycle';
 import { type MeasurementSetup, type Measurements, jackGaugePressure, measure } from '../../shared/runs/measurements';
-import { SAMPLE_STATUS, type SampleRow, toMicro } from '../../shared/runs/samples';
+import { SAMPLE_STATUS, type SampleRow, fromMicro, toMicro } from '../../shared/runs/samples';
 import type { PlanInput } from '../../shared/schemas/plans';
 import { ACTIVE_PHASES, type RunCommand, type RunView } from '../../shared/schemas/runs';
 import { type ChannelReading, RigConnection, channelUnit } from '../acquisition/rig-connection';
@@ -419,6 +419,15 @@ export class RunEngine {
   }
 
   // ---------------------------------------------------------------- views
+
+  /** A closed run shown again: its last recorded value per channel (calibrated, micro-units) stands in for live readings. */
+  primeLatest(lastByChannel: ReadonlyMap<number, number>): void {
+    this.setup.rig.rig.channels.forEach((c, i) => {
+      const v = lastByChannel.get(i);
+      if (v !== undefined) this.latest.set(c.key, fromMicro(v));
+    });
+    this.measurements = this.measure();
+  }
 
   setWatchers(watchers: { id: number; name: string; role: string }[]): void {
     this.watchers = new Map(watchers.map((w) => [String(w.id), w]));

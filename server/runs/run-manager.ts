@@ -62,7 +62,13 @@ export class RunManager {
     if (!run || run.rigId == null || ACTIVE_PHASES.includes(run.status)) return undefined;
     const plan = await TestPlan.findByPk(run.planId);
     if (!plan) return undefined;
-    return this.launch(run, plan, await loadRigContext(run.rigId), run.state);
+    const engine = this.launch(run, plan, await loadRigContext(run.rigId), run.state);
+    const last = (await this.o.sequelize.query(
+      'SELECT s.channel AS ch, s.value AS v FROM samples s JOIN (SELECT channel, MAX(seq) AS seq FROM samples WHERE run_id = ? AND value IS NOT NULL GROUP BY channel) m ON m.seq = s.seq WHERE s.run_id = ?',
+      { replacements: [runId, runId], type: QueryTypes.SELECT },
+    )) as { ch: number; v: number }[];
+    engine.primeLatest(new Map(last.map((r) => [Number(r.ch), Number(r.v)])));
+    return engine;
   }
 
   /** Why a rig's ports are taken, or null. */

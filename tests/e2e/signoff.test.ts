@@ -68,15 +68,19 @@ describe('replay, interpretation, sign-off and delivery in real browsers', () =>
     await save.getByLabel('Reason').fill('Clear break in the log–log plot; the other methods bracket it.');
     await shot(page, 'interpretation');
     await save.getByRole('button', { name: 'Save interpretation' }).click();
-    await until(() => page.getByText(/Version 1/i).first().isVisible());
+    await page.waitForTimeout(1500);
+    await shot(page, 'interpretation-saved');
+    await until(async () => (await page.getByText('No interpretation saved yet.').count()) === 0);
 
     await page.goto(`${server.url}/runs/${runId}/signoff`);
     await page.getByRole('button', { name: /Submit the newest interpretation/ }).click();
     const sign = page.getByRole('form', { name: 'Sign' });
     await until(() => sign.isVisible());
+    await sign.getByLabel('Meaning of the signature').selectOption('approved');
     await sign.getByLabel('Your password').fill('not-my-password');
     await sign.getByRole('button', { name: 'Sign' }).click();
-    await until(() => sign.getByText(/password/i).nth(1).isVisible());
+    await until(() => sign.getByText(/does not match/i).first().isVisible());
+    await expect.poll(() => page.getByText('None yet.').isVisible()).toBe(true); // a wrong password signs nothing
     await sign.getByLabel('Your password').fill(DEMO_PASSWORD);
     await sign.getByRole('button', { name: 'Sign' }).click();
     await until(() => page.getByRole('button', { name: 'E-mail the report to the client' }).isVisible());

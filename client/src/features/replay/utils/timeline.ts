@@ -161,12 +161,15 @@ export function envelopeData(view: RunView, offsets: ReadonlyMap<string, number>
     });
   }
   const complete = (b: number) => gauges > 0 && seen[b] === gauges;
+  // Only buckets that hold data become points: sparse samples (a slow schedule, typed readings, an
+  // accelerated demo rig) would otherwise leave every line broken by empty buckets.
+  const kept = Array.from({ length: count }, (_, b) => b).filter((b) => complete(b) || pLow[b] !== null);
   return [
-    Array.from({ length: count }, (_, b) => (summary.fromMs + (b + 0.5) * summary.bucketMs) / 1000),
-    lowSum.map((v, b) => (complete(b) ? v / gauges : null)),
-    highSum.map((v, b) => (complete(b) ? v / gauges : null)),
-    pLow,
-    pHigh,
+    kept.map((b) => (summary.fromMs + (b + 0.5) * summary.bucketMs) / 1000),
+    kept.map((b) => (complete(b) ? lowSum[b] / gauges : null)),
+    kept.map((b) => (complete(b) ? highSum[b] / gauges : null)),
+    kept.map((b) => pLow[b]),
+    kept.map((b) => pHigh[b]),
   ];
 }
 
