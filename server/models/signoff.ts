@@ -1,21 +1,6 @@
 import { type CreationOptional, DataTypes, type InferAttributes, type InferCreationAttributes, Model, type Sequelize } from 'sequelize';
+import type { RevisionNote, Signature as SignatureDto, SignatureMeaning, SignoffState } from '../../shared/schemas/signoff';
 import { jsonColumn } from './json';
-
-/** Where a run stands in review: being worked on, submitted for review, or signed (and so locked). */
-export const SIGNOFF_STATES = ['draft', 'in-review', 'signed'] as const;
-export type SignoffState = (typeof SIGNOFF_STATES)[number];
-
-/** What a signature means: the signer checked the work, or approves it for issue. */
-export const SIGNATURE_MEANINGS = ['reviewed', 'approved'] as const;
-export type SignatureMeaning = (typeof SIGNATURE_MEANINGS)[number];
-
-/** Why a signed run was opened again: one entry per revision after the first. */
-export interface RevisionNote {
-  revision: number;
-  reason: string;
-  userId: number;
-  at: string;
-}
 
 /** The review state of one run. Revision 1 is the first; reopening a signed run starts the next. */
 export class Signoff extends Model<InferAttributes<Signoff>, InferCreationAttributes<Signoff>> {
@@ -59,7 +44,7 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
   declare dataHash: string;
   declare signedAt: Date;
 
-  toDto() {
+  toDto(): SignatureDto {
     return {
       id: this.id,
       revision: this.revision,

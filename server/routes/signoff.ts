@@ -1,8 +1,8 @@
 import { z } from 'zod';
 import { idParams } from '../../shared/schemas/common';
+import { SIGNATURE_MEANINGS } from '../../shared/schemas/signoff';
 import { EDITORS, STAFF } from '../auth/permissions';
 import { route } from '../http/route';
-import { SIGNATURE_MEANINGS } from '../models/signoff';
 import { reopenRun, signoffView, signRun, submitForReview, verifyRun } from '../services/signoff';
 
 export const signInput = z.strictObject({

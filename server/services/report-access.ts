@@ -3,23 +3,10 @@
  * of projects of their own organisation, and anything else answers 404 so it is not even revealed.
  */
 import { QueryTypes } from 'sequelize';
+import type { ReportListItem } from '../../shared/schemas/signoff';
 import { notFound } from '../http/errors';
 import { Run } from '../models/run';
 import type { User } from '../models/user';
-
-/** One signed report in a list. */
-export interface ReportListItem {
-  runId: number;
-  projectId: number;
-  projectCode: string;
-  projectName: string;
-  organizationName: string;
-  pitId: string;
-  planName: string;
-  testDate: string | null;
-  revision: number;
-  signedAt: string | null;
-}
 
 interface Row {
   runId: number;

@@ -6,6 +6,7 @@ import { analyzeRecord, type RecordAnalysis } from '../../shared/interpretation/
 import { findProfile, type SettingSource } from '../../shared/procedures/profiles';
 import type { TestRecord } from '../../shared/records/schema';
 import type { PlanInput } from '../../shared/schemas/plans';
+import type { SignoffView } from '../../shared/schemas/signoff';
 import { notFound } from '../http/errors';
 import { CalibrationRecord } from '../models/calibration-record';
 import { Instrument } from '../models/instrument';
@@ -19,7 +20,7 @@ import { TestLocation } from '../models/test-location';
 import { TestPlan } from '../models/test-plan';
 import { User } from '../models/user';
 import { loadRunRecord } from './run-record';
-import { type SignoffView, signoffView } from './signoff';
+import { signoffView } from './signoff';
 
 /** One instrument line: the rig channel, what is fitted on it, and its calibration in force. */
 export interface ReportInstrument {

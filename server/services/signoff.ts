@@ -6,11 +6,12 @@
  */
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { TestRecord } from '../../shared/records/schema';
+import type { SignatureMeaning, SignoffView, Verification } from '../../shared/schemas/signoff';
 import { verifyPassword } from '../auth/passwords';
 import { HttpError, notFound } from '../http/errors';
 import { Interpretation } from '../models/interpretation';
 import { Run } from '../models/run';
-import { Signature, type SignatureMeaning, Signoff, type SignoffState } from '../models/signoff';
+import { Signature, Signoff } from '../models/signoff';
 import { User } from '../models/user';
 import { audit, audited } from './audit';
 import { sha256Canonical } from './canonical-json';
@@ -82,19 +83,6 @@ async function requireRun(runId: number): Promise<Run> {
 }
 
 const wrongState = (message: string) => new HttpError(409, 'signoff_state', message);
-
-export interface SignoffView {
-  runId: number;
-  state: SignoffState;
-  revision: number;
-  interpretationVersion: number | null;
-  submittedBy: { id: number; name: string } | null;
-  submittedAt: string | null;
-  /** Every signature of every revision, oldest first. */
-  signatures: ReturnType<Signature['toDto']>[];
-  /** Why each later revision was opened. */
-  revisions: Signoff['revisions'];
-}
 
 export async function signoffView(runId: number): Promise<SignoffView> {
   await requireRun(runId);
@@ -228,15 +216,6 @@ export async function reopenRun(user: User, runId: number, reason: string): Prom
     }),
   );
   return signoffView(runId);
-}
-
-export interface Verification {
-  runId: number;
-  revision: number;
-  interpretationVersion: number;
-  recordedHash: string;
-  currentHash: string;
-  matches: boolean;
 }
 
 /** Recomputes the hash of the latest signature's data and compares it with the one recorded. */

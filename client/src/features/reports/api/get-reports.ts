@@ -1,19 +1,8 @@
+import type { ReportListItem } from '@shared/schemas/signoff';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 
-/** One signed report (GET /api/reports). */
-export interface ReportListItem {
-  runId: number;
-  projectId: number;
-  projectCode: string;
-  projectName: string;
-  organizationName: string;
-  pitId: string;
-  planName: string;
-  testDate: string | null;
-  revision: number;
-  signedAt: string | null;
-}
+export type { ReportListItem };
 
 export const reportKeys = { all: ['reports'] as const, list: () => [...reportKeys.all, 'list'] as const };
 

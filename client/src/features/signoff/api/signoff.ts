@@ -1,41 +1,8 @@
+import type { Signature, SignatureMeaning, SignoffState, SignoffView, Verification } from '@shared/schemas/signoff';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 
-export type SignoffState = 'draft' | 'in-review' | 'signed';
-export type SignatureMeaning = 'reviewed' | 'approved';
-
-export interface Signature {
-  id: number;
-  revision: number;
-  interpretationVersion: number;
-  userId: number | null;
-  signerName: string;
-  meaning: SignatureMeaning;
-  dataHash: string;
-  signedAt: string;
-}
-
-/** GET /api/runs/:id/signoff */
-export interface SignoffView {
-  runId: number;
-  state: SignoffState;
-  revision: number;
-  interpretationVersion: number | null;
-  submittedBy: { id: number; name: string } | null;
-  submittedAt: string | null;
-  signatures: Signature[];
-  revisions: { revision: number; reason: string; userId: number; at: string }[];
-}
-
-/** GET /api/runs/:id/verify */
-export interface Verification {
-  runId: number;
-  revision: number;
-  interpretationVersion: number;
-  recordedHash: string;
-  currentHash: string;
-  matches: boolean;
-}
+export type { Signature, SignatureMeaning, SignoffState, SignoffView, Verification };
 
 export const signoffKeys = {
   all: ['signoff'] as const,
