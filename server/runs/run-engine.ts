@@ -81,7 +81,6 @@ export class RunEngine {
   private readonly setupM: MeasurementSetup;
   private readonly timers: NodeJS.Timeout[] = [];
   private watchers = new Map<string, { id: number; name: string; role: string }>();
-  private reachedTicks = 0;
   /** Manual mode: when readings were typed in this hold, minutes since the target was reached. */
   private manualTimes: number[] = [];
   private closed = false;
@@ -182,12 +181,18 @@ export class RunEngine {
     return isPressureUnit(unit) && isPressureUnit(jack.inputUnit) ? convertPressure(oil, jack.inputUnit, unit) : null;
   }
 
+  /**
+   * Adds a point to the hold's settlement–time series. Called on every gauge sample, so it measures
+   * only when a point is due (inside a hold, at most every SERIES_STEP_MS); the view's figures are
+   * refreshed by the evaluation tick.
+   */
   private recordSettlement(tMs: number): void {
     const s = this.state;
+    if (s.holdStartedAtMs === null || (s.phase !== 'holding' && s.phase !== 'hold-met')) return;
+    if (tMs - this.lastSeriesMs < SERIES_STEP_MS && this.setup.rig.rig.mode === 'serial') return;
     this.measurements = this.measure();
     const mean = this.measurements.meanSettlementMm;
-    if (mean === null || s.holdStartedAtMs === null || (s.phase !== 'holding' && s.phase !== 'hold-met')) return;
-    if (tMs - this.lastSeriesMs < SERIES_STEP_MS && this.setup.rig.rig.mode === 'serial') return;
+    if (mean === null) return;
     this.lastSeriesMs = tMs;
     this.series.push({ tMin: Math.max(0, (tMs - s.holdStartedAtMs) / 60_000), settlementMm: mean });
   }
@@ -237,8 +242,7 @@ export class RunEngine {
     if (s.phase === 'pumping' && stage && q !== null && this.setup.rig.rig.mode === 'serial') {
       // The hold starts the first time the pressure arrives; drifting off afterwards is the load-drift
       // alarm's business (top up), not a reason to keep the hold clock waiting.
-      this.reachedTicks = reached(q, this.effectiveTarget(stage.targetKpa)) ? this.reachedTicks + 1 : 0;
-      if (this.reachedTicks >= 1) {
+      if (reached(q, this.effectiveTarget(stage.targetKpa))) {
         observe({ type: 'target-reached' });
         this.series = [];
         this.lastSeriesMs = -Infinity;
@@ -341,7 +345,6 @@ export class RunEngine {
     }
     if (r.state.stageIndex !== before.stageIndex || (before.phase === 'preparing' && r.state.phase === 'pumping')) {
       this.series = [];
-      this.reachedTicks = 0;
       this.manualTimes = [];
     }
     if (command.type === 'stage-reached') this.recordSettlement(now);

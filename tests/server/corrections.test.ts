@@ -7,15 +7,12 @@ import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEntry } from '../../server/models/audit-entry';
 import { Instrument } from '../../server/models/instrument';
-import { Rig } from '../../server/models/rig';
-import { Run } from '../../server/models/run';
-import { RunEvent } from '../../server/models/run-event';
 import { Signoff } from '../../server/models/signoff';
 import { Archiver } from '../../server/runs/archiver';
 import type { TestRecord } from '../../shared/records/schema';
-import { initialRunState } from '../../shared/runs/lifecycle';
 import { SAMPLE_STATUS, type SampleRow } from '../../shared/runs/samples';
 import { type Client, signedIn, startTestApp, type TestApp } from '../support/api';
+import { manualGauge, storedRun } from '../support/stored-run';
 
 let t: TestApp;
 let engineer: Client;
@@ -44,46 +41,51 @@ async function recordedRun(): Promise<number> {
   });
   expect(plan.status).toBe(201);
   const serial = async (s: string) => (await Instrument.findOne({ where: { serialNumber: s } }))!.id;
-  const gauge = (key: string, x: number) => ({ key, role: 'gauge' as const, label: key, instrumentId: null, profileId: 'manual', port: '', gauge: { xMm: x, yMm: 0, direction: 1 as const, travelMm: 25 } });
-  const rig = await Rig.create({
-    name: 'Corrections test rig',
-    mode: 'manual',
-    channels: [gauge('g1', -120), gauge('g2', 120), { key: 'p1', role: 'pressure', label: 'Oil', instrumentId: await serial('PT-5520'), profileId: 'manual', port: '', gauge: null }],
-    jackInstrumentId: await serial('JK-50-031'),
-    notes: '',
-    simulator: null,
-  });
-  const run = await Run.create({
+  const runId = await storedRun({
     planId: plan.body.plan.id,
-    rigId: rig.id,
-    status: 'completed',
-    state: { lifecycle: { ...initialRunState(), phase: 'completed' }, clock: { speed: 1, anchorWallMs: T, anchorRunMs: T }, alarms: {}, lastSeq: 0, lastSampleMs: null },
-    startedAt: new Date(T),
-    finishedAt: new Date(T + 60_000),
-    createdBy: null,
+    rigName: 'Corrections test rig',
+    channels: [
+      manualGauge('g1', -120),
+      manualGauge('g2', 120),
+      { key: 'p1', role: 'pressure', label: 'Oil', instrumentId: await serial('PT-5520'), profileId: 'manual', port: '', gauge: null },
+    ],
+    jackInstrumentId: await serial('JK-50-031'),
+    startMs: T,
+    durationMs: 60_000,
+    events: [
+      [0, 'gauges-zeroed', { readings: { g1: 0, g2: 0 } }],
+      [10_000, 'target-reached', { stageIndex: 0 }],
+      [20_000, 'stage-advanced', { from: 0, to: 1 }],
+      [30_000, 'target-reached', { stageIndex: 1 }],
+      [60_000, 'run-completed', {}],
+    ],
   });
-  const events: [number, string, Record<string, unknown>][] = [
-    [0, 'gauges-zeroed', { readings: { g1: 0, g2: 0 } }],
-    [10_000, 'target-reached', { stageIndex: 0 }],
-    [20_000, 'stage-advanced', { from: 0, to: 1 }],
-    [30_000, 'target-reached', { stageIndex: 1 }],
-    [60_000, 'run-completed', {}],
-  ];
-  await RunEvent.bulkCreate(events.map(([ms, kind, payload]) => ({ runId: run.id, at: new Date(T + ms), kind, userId: null, payload })));
   const rows: SampleRow[] = [];
   for (let s = 0; s <= 60; s++) {
     for (const [channel, value] of [reading(s), reading(s), s < 30 ? 1 : 30].entries()) {
-      rows.push({ seq: seqOf(s, channel), tMs: T + s * 1000, channel, raw: Math.round(value * 1000), value: Math.round(value * 1000), status: SAMPLE_STATUS.ok });
+      rows.push({
+        seq: seqOf(s, channel),
+        tMs: T + s * 1000,
+        channel,
+        raw: Math.round(value * 1000),
+        value: Math.round(value * 1000),
+        status: SAMPLE_STATUS.ok,
+      });
     }
   }
   const archiver = new Archiver(t.sequelize);
-  archiver.enqueue(run.id, rows);
+  archiver.enqueue(runId, rows);
   await archiver.drain();
-  return run.id;
+  return runId;
 }
 
 const sampleRow = async (seq: number) =>
-  ((await t.sequelize.query('SELECT raw, value, status FROM samples WHERE run_id = ? AND seq = ?', { replacements: [runId, seq], type: QueryTypes.SELECT })) as unknown[])[0];
+  (
+    (await t.sequelize.query('SELECT raw, value, status FROM samples WHERE run_id = ? AND seq = ?', {
+      replacements: [runId, seq],
+      type: QueryTypes.SELECT,
+    })) as unknown[]
+  )[0];
 const lastReading = async () => ((await engineer.get(`/api/runs/${runId}/record`)).body as TestRecord).stages.find((s) => s.index === 1)!.readings.at(-1)!;
 
 beforeAll(async () => {
@@ -103,9 +105,22 @@ describe('corrections of archived readings', () => {
     expect(before.gauges).toEqual({ g1: expect.closeTo(1.29, 6), g2: expect.closeTo(1.29, 6) });
     const original = await sampleRow(g1Last);
 
-    const res = await engineer.post(`/api/runs/${runId}/corrections`, { seq: g1Last, action: 'correct-value', valueMm: 1.35, reason: 'Typed 1.29 for 1.35 (field sheet)' });
+    const res = await engineer.post(`/api/runs/${runId}/corrections`, {
+      seq: g1Last,
+      action: 'correct-value',
+      valueMm: 1.35,
+      reason: 'Typed 1.29 for 1.35 (field sheet)',
+    });
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ seq: g1Last, channel: 0, action: 'correct-value', originalValue: 1290, newValue: 1350, reason: 'Typed 1.29 for 1.35 (field sheet)', userName: expect.any(String) });
+    expect(res.body).toMatchObject({
+      seq: g1Last,
+      channel: 0,
+      action: 'correct-value',
+      originalValue: 1290,
+      newValue: 1350,
+      reason: 'Typed 1.29 for 1.35 (field sheet)',
+      userName: expect.any(String),
+    });
     expect(Date.parse(res.body.at)).toBeGreaterThan(Date.now() - 60_000);
 
     expect(await sampleRow(g1Last)).toEqual(original); // the samples table is never updated

@@ -11,12 +11,11 @@ import { CalibrationRecord } from '../../server/models/calibration-record';
 import { Instrument } from '../../server/models/instrument';
 import { Rig } from '../../server/models/rig';
 import { Run } from '../../server/models/run';
-import { RunEvent } from '../../server/models/run-event';
 import { analyzeRecord } from '../../shared/interpretation/analyze-record';
 import { readingsCsvToRecord } from '../../shared/records/csv';
 import type { TestRecord } from '../../shared/records/schema';
-import { initialRunState } from '../../shared/runs/lifecycle';
 import { type Client, signedIn, startTestApp, type TestApp } from '../support/api';
+import { manualGauge, storedRun } from '../support/stored-run';
 
 const FIXTURES = path.join(import.meta.dirname, '../fixtures/records');
 const sandJson = readFileSync(path.join(FIXTURES, 'sand-bearing-450-square.json'), 'utf8');
@@ -116,10 +115,11 @@ describe('saved interpretations', () => {
     });
     expect(first.status).toBe(201);
     expect(first.body).toMatchObject({ runId: importedRunId, version: 1, chosenMethod: 'logLogIntersection' });
-    expect(first.body.result).toEqual(
-      asJson(analyzeRecord({ ...sand, footing: { ...sand.footing!, widthM: 2 } }, { ultimateMethod: 'logLogIntersection' })),
-    );
-    const second = await engineer.post(`/api/runs/${importedRunId}/interpretations`, { chosenMethod: 'hyperbolic', reason: 'Second opinion: the curve bends smoothly.' });
+    expect(first.body.result).toEqual(asJson(analyzeRecord({ ...sand, footing: { ...sand.footing!, widthM: 2 } }, { ultimateMethod: 'logLogIntersection' })));
+    const second = await engineer.post(`/api/runs/${importedRunId}/interpretations`, {
+      chosenMethod: 'hyperbolic',
+      reason: 'Second opinion: the curve bends smoothly.',
+    });
     expect(second.status).toBe(201);
     expect(second.body.version).toBe(2);
 
@@ -178,7 +178,17 @@ async function recordedRun(): Promise<number> {
     footing: null,
   });
   expect(plan.status).toBe(201);
-  const jack = await Instrument.create({ kind: 'jack', makeModel: 'Ideal 50 cm² ram', serialNumber: 'JK-TEST-50', unit: 'kN', rangeMin: 0, rangeMax: 350, resolution: null, travelMm: null, notes: '' });
+  const jack = await Instrument.create({
+    kind: 'jack',
+    makeModel: 'Ideal 50 cm² ram',
+    serialNumber: 'JK-TEST-50',
+    unit: 'kN',
+    rangeMin: 0,
+    rangeMax: 350,
+    resolution: null,
+    travelMm: null,
+    notes: '',
+  });
   const today = new Date().toISOString().slice(0, 10);
   await CalibrationRecord.create({
     instrumentId: jack.id,
@@ -189,40 +199,44 @@ async function recordedRun(): Promise<number> {
     createdBy: null,
   });
   const transducer = await Instrument.findOne({ where: { serialNumber: 'PT-5520' } }); // bar in = bar out (demo seed)
-  const gauge = (key: string, x: number, direction: 1 | -1) => ({ key, role: 'gauge' as const, label: `Gauge ${key}`, instrumentId: null, profileId: 'manual', port: '', gauge: { xMm: x, yMm: 0, direction, travelMm: 25 } });
-  const rig = await Rig.create({
-    name: 'Record test rig',
-    mode: 'manual',
-    channels: [gauge('g1', -180, 1), gauge('g2', 180, -1), { key: 'p1', role: 'pressure', label: 'Oil', instrumentId: transducer!.id, profileId: 'manual', port: '', gauge: null }],
-    jackInstrumentId: jack.id,
-    notes: '',
-    simulator: null,
-  });
   const T = 1_700_000_000_000;
-  const run = await Run.create({
+  const runId = await storedRun({
     planId: plan.body.plan.id,
-    rigId: rig.id,
-    status: 'completed',
-    state: { lifecycle: { ...initialRunState(), phase: 'completed' }, clock: { speed: 1, anchorWallMs: T, anchorRunMs: T }, alarms: {}, lastSeq: 0, lastSampleMs: null },
-    startedAt: new Date(T),
-    finishedAt: new Date(T + 450_000),
-    createdBy: null,
+    rigName: 'Record test rig',
+    channels: [
+      manualGauge('g1', -180, 1, 'Gauge g1'),
+      manualGauge('g2', 180, -1, 'Gauge g2'),
+      { key: 'p1', role: 'pressure', label: 'Oil', instrumentId: transducer!.id, profileId: 'manual', port: '', gauge: null },
+    ],
+    jackInstrumentId: jack.id,
+    startMs: T,
+    durationMs: 450_000,
+    events: [
+      [0, 'gauges-zeroed', { readings: { g1: 0, g2: 10 } }],
+      [1_000, 'run-started', { stageIndex: 0 }],
+      [10_000, 'target-reached', { stageIndex: 0 }],
+      [70_000, 'stage-advanced', { from: 0, to: 1 }],
+      [80_000, 'target-reached', { stageIndex: 1 }],
+      [200_000, 'gauge-reset', { channel: 'g1', beforeMm: 24.3, afterMm: 1.15, offsetMm: 23.15 }],
+      [380_000, 'stage-advanced', { from: 1, to: 2 }],
+      [390_000, 'target-reached', { stageIndex: 2 }],
+      [450_000, 'run-completed', {}],
+    ],
   });
-  const events: [number, string, Record<string, unknown>][] = [
-    [0, 'gauges-zeroed', { readings: { g1: 0, g2: 10 } }],
-    [1_000, 'run-started', { stageIndex: 0 }],
-    [10_000, 'target-reached', { stageIndex: 0 }],
-    [70_000, 'stage-advanced', { from: 0, to: 1 }],
-    [80_000, 'target-reached', { stageIndex: 1 }],
-    [200_000, 'gauge-reset', { channel: 'g1', beforeMm: 24.3, afterMm: 1.15, offsetMm: 23.15 }],
-    [380_000, 'stage-advanced', { from: 1, to: 2 }],
-    [390_000, 'target-reached', { stageIndex: 2 }],
-    [450_000, 'run-completed', {}],
-  ];
-  await RunEvent.bulkCreate(events.map(([ms, kind, payload]) => ({ runId: run.id, at: new Date(T + ms), kind, userId: null, payload })));
 
   // Settlement s(t), mm: 0.1 after seating, 20 → 24.30 (at the reset, 200 s) → 26.15 (at 379 s) in the first increment, 30 in the second.
-  const settlement = (s: number) => (s < 10 ? 0 : s < 70 ? 0.1 : s < 80 ? 0.1 + ((s - 70) / 10) * 19.9 : s <= 200 ? 20 + ((s - 80) / 120) * 4.3 : s <= 379 ? 24.3 + ((s - 200) / 179) * 1.85 : 30);
+  const settlement = (s: number) =>
+    s < 10
+      ? 0
+      : s < 70
+        ? 0.1
+        : s < 80
+          ? 0.1 + ((s - 70) / 10) * 19.9
+          : s <= 200
+            ? 20 + ((s - 80) / 120) * 4.3
+            : s <= 379
+              ? 24.3 + ((s - 200) / 179) * 1.85
+              : 30;
   // Oil pressure, bar, that gives 7, 100 and 200 kPa: (q·A − 0.60 kN)/5 kN/MPa × 10 bar/MPa (DOMAIN §C10: 100 kPa ↔ 39.30 bar).
   const oilBar = (s: number) => (s < 70 ? 1.635 : s < 385 ? 39.3 : 79.8);
   const rows: number[][] = [];
@@ -230,10 +244,13 @@ async function recordedRun(): Promise<number> {
   for (let s = 0; s <= 450; s++) {
     const g1 = s < 200 ? settlement(s) : settlement(s) - 23.15; // the gauge was reset at 200 s (DOMAIN §C12)
     const g2 = 10 - Math.max(0, settlement(s) - 0.5);
-    for (const [channel, value] of [g1, g2, oilBar(s)].entries()) rows.push([run.id, ++seq, T + s * 1000, channel, Math.round(value * 1000), Math.round(value * 1000), 0]);
+    for (const [channel, value] of [g1, g2, oilBar(s)].entries())
+      rows.push([runId, ++seq, T + s * 1000, channel, Math.round(value * 1000), Math.round(value * 1000), 0]);
   }
-  await t.sequelize.query(`INSERT INTO samples (run_id, seq, t_ms, channel, raw, value, status) VALUES ${rows.map(() => '(?,?,?,?,?,?,?)').join(',')}`, { replacements: rows.flat() });
-  return run.id;
+  await t.sequelize.query(`INSERT INTO samples (run_id, seq, t_ms, channel, raw, value, status) VALUES ${rows.map(() => '(?,?,?,?,?,?,?)').join(',')}`, {
+    replacements: rows.flat(),
+  });
+  return runId;
 }
 
 describe('a recorded run', () => {
@@ -242,7 +259,12 @@ describe('a recorded run', () => {
     const res = await operator.get(`/api/runs/${runId}/record`);
     expect(res.status).toBe(200);
     const record = res.body as TestRecord;
-    expect(record).toMatchObject({ format: 'settlescope-record', version: 1, plate: { shape: 'square', sizeMm: 450 }, plan: { procedureId: 'custom', seatingPressureKpa: 7 } });
+    expect(record).toMatchObject({
+      format: 'settlescope-record',
+      version: 1,
+      plate: { shape: 'square', sizeMm: 450 },
+      plan: { procedureId: 'custom', seatingPressureKpa: 7 },
+    });
     expect(record.gauges.map((g) => [g.key, g.xMm])).toEqual([
       ['g1', -180],
       ['g2', 180],
