@@ -18,6 +18,7 @@ import { instrumentRoutes } from './routes/instruments';
 import { mailboxRoutes } from './routes/mailbox';
 import { interpretationRoutes } from './routes/interpretation';
 import { planRoutes } from './routes/plans';
+import { photoRoutes } from './routes/photos';
 import { projectRoutes } from './routes/projects';
 import { rigRoutes } from './routes/rigs';
 import { reportRoutes } from './routes/reports';
@@ -85,6 +86,7 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, deps: AppD
     ...userRoutes,
     ...projectRoutes,
     ...sitePlanRoutes(config.dataDir),
+    ...photoRoutes(config.dataDir),
     ...planRoutes,
     ...instrumentRoutes(config.dataDir),
     ...rigRoutes,
@@ -93,8 +95,8 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, deps: AppD
     ...interpretationRoutes,
     ...importRoutes,
     ...signoffRoutes,
-    ...reportRoutes,
-    ...mailboxRoutes,
+    ...reportRoutes(config.dataDir),
+    ...mailboxRoutes(config.dataDir),
   ];
   mount(api, routes);
   api.use('/api', (_req, _res, next) => next(new HttpError(404, 'not_found', 'No such API route.')));

@@ -7,6 +7,7 @@ import * as interpretations from './migrations/0004-interpretations';
 import * as signoff from './migrations/0005-signoff';
 import * as corrections from './migrations/0006-corrections';
 import * as rollups from './migrations/0007-sample-rollups';
+import * as photos from './migrations/0008-photos';
 
 export interface Migration {
   up(qi: QueryInterface, S: typeof Sequelize): Promise<void>;
@@ -22,6 +23,7 @@ const MIGRATIONS: [string, Migration][] = [
   ['0005-signoff', signoff],
   ['0006-corrections', corrections],
   ['0007-sample-rollups', rollups],
+  ['0008-photos', photos],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

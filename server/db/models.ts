@@ -7,6 +7,7 @@ import { MailMessage } from '../models/mail-message';
 import { Signature, Signoff } from '../models/signoff';
 import { Interpretation, RunRecord } from '../models/interpretation';
 import { Organization } from '../models/organization';
+import { Photo } from '../models/photo';
 import { Project } from '../models/project';
 import { Rig } from '../models/rig';
 import { Run } from '../models/run';
@@ -18,7 +19,7 @@ import { User } from '../models/user';
 
 /** Initialises every model on one Sequelize instance, then wires the associations. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry, Instrument, CalibrationRecord, Rig, Run, RunEvent, RunRecord, Interpretation, Signoff, Signature, MailMessage, SampleCorrection]) model.initModel(sequelize);
+  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry, Instrument, CalibrationRecord, Rig, Run, RunEvent, RunRecord, Interpretation, Signoff, Signature, MailMessage, SampleCorrection, Photo]) model.initModel(sequelize);
   defineSessionModel(sequelize);
   Organization.hasMany(User, { foreignKey: 'organizationId' });
   User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });
@@ -30,4 +31,5 @@ export function initModels(sequelize: Sequelize) {
   TestPlan.belongsTo(TestLocation, { foreignKey: 'locationId', as: 'location' });
   Instrument.hasMany(CalibrationRecord, { foreignKey: 'instrumentId', as: 'calibrations' });
   CalibrationRecord.belongsTo(Instrument, { foreignKey: 'instrumentId', as: 'instrument' });
+  Photo.belongsTo(User, { foreignKey: 'uploadedBy', as: 'uploader' });
 }

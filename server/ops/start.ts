@@ -9,6 +9,7 @@ import path from 'node:path';
 import { ROOT_DIR, defaultConfig } from '../config';
 import { startServer } from '../main';
 import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../seed/demo';
+import { seedDemoMedia } from '../seed/demo-media';
 import { loadOrCreateSecrets } from './local-state';
 import { ensureDatabase, ensureMariadbInstalled, startMariadb } from './mariadb';
 import { startSimulator, upsertDemoRig } from './simulated-rig';
@@ -52,7 +53,7 @@ try {
     const env = { SSCOPE_DB_PASSWORD: config.db.password, SSCOPE_SESSION_SECRET: config.sessionSecret, PORT: String(config.port) };
     // Migrate and seed before the watcher starts, so the first page load finds demo data.
     const once = await startServer({ ...config, port: 0, clientDir: null });
-    await seedDemo();
+    if (await seedDemo()) await seedDemoMedia(config.dataDir);
     await once.close();
     child(path.join(ROOT_DIR, 'node_modules', '.bin', 'tsx'), ['watch', 'server/index.ts'], env);
     const { createServer } = await import('vite');
@@ -66,7 +67,10 @@ try {
     await build({ configFile: path.join(ROOT_DIR, 'vite.config.ts'), logLevel: 'warn' });
     const server = await startServer(config);
     cleanups.push(() => server.close());
-    if (await seedDemo()) console.log('Demo data seeded.');
+    if (await seedDemo()) {
+      await seedDemoMedia(config.dataDir);
+      console.log('Demo data seeded.');
+    }
     url = `${server.url}/`;
   }
 

@@ -4,7 +4,7 @@ import { calibrationRecordInput, instrumentInput } from '../../shared/schemas/in
 import { EDITORS, STAFF } from '../auth/permissions';
 import { notFound } from '../http/errors';
 import { route } from '../http/route';
-import { singleUpload, storeUpload } from '../http/uploads';
+import { sendStoredFile, singleUpload, storeUpload, uploadDir } from '../http/uploads';
 import { CalibrationRecord } from '../models/calibration-record';
 import { Instrument } from '../models/instrument';
 import { audited } from '../services/audit';
@@ -26,7 +26,7 @@ async function loadCalibration(id: number): Promise<CalibrationRecord> {
 
 /** The instrument register: gauges, transducers, jacks and load cells with their calibrations. */
 export const instrumentRoutes = (dataDir: string) => {
-  const certificates = path.join(dataDir, 'uploads', 'certificates');
+  const certificates = uploadDir(dataDir, 'certificates');
   return [
     route({
       method: 'get',
@@ -124,7 +124,7 @@ export const instrumentRoutes = (dataDir: string) => {
         const file = calibration.certificateFile;
         if (!file) throw notFound('Certificate');
         res.setHeader('Content-Disposition', `inline; filename="calibration-${calibration.id}${path.extname(file)}"`);
-        await new Promise<void>((resolve, reject) => res.sendFile(file, { root: certificates, dotfiles: 'deny' }, (err) => (err ? reject(err) : resolve())));
+        await sendStoredFile(res, certificates, file);
       },
     }),
   ];

@@ -7,7 +7,8 @@ import { sendRunReport } from '../services/mail';
 
 const mailboxQuery = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) });
 
-export const mailboxRoutes = [
+/** Sending reports (their photos and site plan are read from `dataDir`) and the admin's view of the local mail catcher. */
+export const mailboxRoutes = (dataDir: string) => [
   route({
     method: 'post',
     path: '/api/runs/:id/send',
@@ -15,7 +16,7 @@ export const mailboxRoutes = [
     summary: 'E-mail a signed run’s PDF report and readings CSV to the client organisation’s contacts',
     status: 200,
     params: idParams,
-    handler: ({ params, user }) => sendRunReport(user!, params.id),
+    handler: ({ params, user }) => sendRunReport(user!, params.id, dataDir),
   }),
   route({
     method: 'get',

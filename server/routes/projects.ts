@@ -8,6 +8,7 @@ import { Organization } from '../models/organization';
 import { Project } from '../models/project';
 import { TestLocation } from '../models/test-location';
 import { audited } from '../services/audit';
+import { assertNoPhotosAt } from '../services/photos';
 import { assertNoSignedRunFrom } from '../services/signoff';
 
 async function assertOrganization(id: number | undefined) {
@@ -78,6 +79,7 @@ export const projectRoutes = [
     handler: async ({ params, user }) => {
       const project = await loadProject(user!, params.id);
       const before = project.get({ plain: true });
+      await assertNoPhotosAt({ projectId: project.id });
       await audited(
         (transaction) => project.destroy({ transaction }),
         () => ({ userId: user!.id, entity: 'project', entityId: params.id, action: 'deleted', before }),
@@ -147,6 +149,7 @@ export const projectRoutes = [
     handler: async ({ params, user }) => {
       const location = await loadLocation(user!, params.id);
       const before = location.get({ plain: true });
+      await assertNoPhotosAt({ locationId: location.id });
       await audited(
         (transaction) => location.destroy({ transaction }),
         () => ({ userId: user!.id, entity: 'location', entityId: params.id, action: 'deleted', before }),

@@ -28,7 +28,8 @@ const reportFileRoute = (path: string, summary: string, file: (runId: number) =>
     },
   });
 
-export const reportRoutes = [
+/** Signed reports and their downloads; the PDF's photos and site plan are read from `dataDir`. */
+export const reportRoutes = (dataDir: string) => [
   route({
     method: 'get',
     path: '/api/reports',
@@ -39,7 +40,7 @@ export const reportRoutes = [
   reportFileRoute('/api/runs/:id/report.pdf', 'The PDF report of a run (clients: signed runs of their organisation only)', async (id) => ({
     name: `run-${id}-report.pdf`,
     type: 'application/pdf',
-    body: await renderReportPdf(await loadReportData(id)),
+    body: await renderReportPdf(await loadReportData(id, dataDir)),
   })),
   reportFileRoute('/api/reports/:id/readings.csv', 'Every reading of a reported run as CSV (clients: signed runs of their organisation only)', async (id) => ({
     name: `run-${id}-readings.csv`,

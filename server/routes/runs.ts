@@ -4,6 +4,7 @@ import { runCommandEnvelope, runCreateInput } from '../../shared/schemas/runs';
 import { STAFF } from '../auth/permissions';
 import { HttpError, notFound } from '../http/errors';
 import { route } from '../http/route';
+import { assertRunUnlocked } from '../services/signoff';
 import { Rig } from '../models/rig';
 import { Run } from '../models/run';
 import { RunEvent } from '../models/run-event';
@@ -81,6 +82,8 @@ export const runRoutes = (runs: RunManager) => [
     handler: async ({ params, body, user }) => {
       const engine = runs.engine(params.id);
       if (!engine) throw notFound('Run');
+      // Even a note changes a signed run's record (its events, its weather line).
+      await assertRunUnlocked(params.id);
       try {
         return await engine.command(body.command, actorOf(user!), body.version);
       } catch (err) {

@@ -1,10 +1,9 @@
-import path from 'node:path';
 import { idParams } from '../../shared/schemas/common';
 import { EDITORS, EVERYONE } from '../auth/permissions';
 import { loadLocation } from '../auth/scope';
 import { notFound } from '../http/errors';
 import { route } from '../http/route';
-import { singleUpload, storeUpload } from '../http/uploads';
+import { sendStoredFile, singleUpload, storeUpload, uploadDir } from '../http/uploads';
 import { audited } from '../services/audit';
 
 const IMAGE_TYPES = ['image/png', 'image/jpeg'] as const;
@@ -12,7 +11,7 @@ const MAX_BYTES = 10 * 1024 * 1024;
 
 /** Site-plan images of test locations, kept in `<dataDir>/uploads/site-plans`. */
 export const sitePlanRoutes = (dataDir: string) => {
-  const dir = path.join(dataDir, 'uploads', 'site-plans');
+  const dir = uploadDir(dataDir, 'site-plans');
   return [
     route({
       method: 'post',
@@ -44,7 +43,7 @@ export const sitePlanRoutes = (dataDir: string) => {
         if (!location.sitePlanFile) throw notFound('Site plan');
         res.setHeader('Cache-Control', 'private, max-age=300');
         const file = location.sitePlanFile;
-        await new Promise<void>((resolve, reject) => res.sendFile(file, { root: dir, dotfiles: 'deny' }, (err) => (err ? reject(err) : resolve())));
+        await sendStoredFile(res, dir, file);
       },
     }),
   ];

@@ -56,8 +56,8 @@ export async function sendMail(mail: OutgoingMail): Promise<{ messageId: string;
 }
 
 /** E-mails a signed run's PDF report and its readings CSV to the client organisation's contacts; audited. */
-export async function sendRunReport(user: User, runId: number): Promise<{ to: string[]; subject: string; attachments: string[] }> {
-  const data = await loadReportData(runId);
+export async function sendRunReport(user: User, runId: number, dataDir: string): Promise<{ to: string[]; subject: string; attachments: string[] }> {
+  const data = await loadReportData(runId, dataDir);
   if (data.signoff.state !== 'signed') throw new HttpError(409, 'run_not_signed', 'Only a signed run’s report is sent; sign it first.');
   const contacts = await clientContacts(runId);
   if (contacts.emails.length === 0)

@@ -48,9 +48,10 @@ export function drawPlot(doc: Doc, series: readonly PlotSeries[], o: PlotOptions
   const xs = axisRange(all.map((p) => p[0]));
   const ys = axisRange(all.map((p) => p[1]));
   const left = o.x + 42;
-  const top = o.y + 16;
+  // Title on the first line, the y-axis label on the second, then the frame.
+  const top = o.y + 26;
   const w = o.width - 52;
-  const h = o.height - 44;
+  const h = o.height - 54;
   const px = (x: number) => left + ((x - xs.min) / (xs.max - xs.min)) * w;
   const py = (y: number) => (o.yDown ? top + ((y - ys.min) / (ys.max - ys.min)) * h : top + h - ((y - ys.min) / (ys.max - ys.min)) * h);
 
@@ -74,7 +75,7 @@ export function drawPlot(doc: Doc, series: readonly PlotSeries[], o: PlotOptions
   }
   doc.lineWidth(0.8).strokeColor('#000').rect(left, top, w, h).stroke();
   doc.fillColor('#000').text(o.xLabel, left, top + h + 14, { width: w, align: 'center', lineBreak: false });
-  doc.text(o.yLabel, o.x, top - 12, { width: 120, lineBreak: false });
+  doc.text(o.yLabel, o.x, top - 11, { width: 160, lineBreak: false });
 
   series.forEach((s, i) => {
     if (s.points.length === 0) return;

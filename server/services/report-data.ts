@@ -2,12 +2,17 @@
  * Everything the PDF report of a run shows, gathered from the database in one place so that the
  * renderer stays a function of plain data.
  */
+import { readFile } from 'node:fs/promises';
+import path from 'node:path';
+import sharp from 'sharp';
 import { analyzeRecord, type RecordAnalysis } from '../../shared/interpretation/analyze-record';
 import { findProfile, type SettingSource } from '../../shared/procedures/profiles';
 import type { TestRecord } from '../../shared/records/schema';
 import type { PlanInput } from '../../shared/schemas/plans';
+import type { PhotoKind } from '../../shared/schemas/photos';
 import type { SignoffView } from '../../shared/schemas/signoff';
 import { notFound } from '../http/errors';
+import { uploadDir } from '../http/uploads';
 import { CalibrationRecord } from '../models/calibration-record';
 import { Instrument } from '../models/instrument';
 import { Interpretation } from '../models/interpretation';
@@ -19,6 +24,7 @@ import { RunEvent } from '../models/run-event';
 import { TestLocation } from '../models/test-location';
 import { TestPlan } from '../models/test-plan';
 import { User } from '../models/user';
+import { PhotoFiles, photosOfRun } from './photos';
 import { loadRunRecord } from './run-record';
 import { signoffView } from './signoff';
 
@@ -45,6 +51,7 @@ export interface ReportData {
     planY: number | null;
     testDepthM: number;
     waterTableDepthM: number | null;
+    pitWidthM: number | null;
     soilDescription: string;
     notes: string;
   };
@@ -59,6 +66,62 @@ export interface ReportData {
   interpretation: { version: number; chosenMethod: string | null; reason: string; byName: string | null; savedAt: Date } | null;
   remarks: string[];
   signoff: SignoffView;
+  /** The location's site plan, scaled down for print, when one is uploaded. */
+  sitePlan: ReportImage | null;
+  photos: ReportPhoto[];
+}
+
+/** A JPEG ready to embed, with its pixel size. */
+export interface ReportImage {
+  jpeg: Buffer;
+  width: number;
+  height: number;
+}
+
+export interface ReportPhoto {
+  image: ReportImage;
+  kind: PhotoKind;
+  caption: string;
+  /** True for a photo taken for this run, false for one of the location. */
+  ofRun: boolean;
+  takenBy: string | null;
+  addedAt: Date;
+  sha256: string;
+}
+
+/** The site plan as a print-size JPEG; null when there is none or its file cannot be read. */
+async function sitePlanImage(dataDir: string, file: string | null): Promise<ReportImage | null> {
+  if (!file) return null;
+  try {
+    const { data, info } = await sharp(path.join(uploadDir(dataDir, 'site-plans'), path.basename(file)))
+      .resize(1600, 1600, { fit: 'inside', withoutEnlargement: true })
+      .flatten({ background: '#ffffff' })
+      .jpeg({ quality: 85 })
+      .toBuffer({ resolveWithObject: true });
+    return { jpeg: data, width: info.width, height: info.height };
+  } catch {
+    return null;
+  }
+}
+
+/** The photos the report shows, with their preview renditions. */
+async function reportPhotos(dataDir: string, runId: number, locationId: number): Promise<ReportPhoto[]> {
+  const files = new PhotoFiles(dataDir);
+  return Promise.all(
+    (await photosOfRun(runId, locationId)).map(async (p) => {
+      const jpeg = await readFile(files.path(p, 'preview'));
+      const { width = p.width, height = p.height } = await sharp(jpeg).metadata();
+      return {
+        image: { jpeg, width, height },
+        kind: p.kind,
+        caption: p.caption,
+        ofRun: p.runId === runId,
+        takenBy: p.uploader?.name ?? null,
+        addedAt: p.createdAt,
+        sha256: p.sha256,
+      };
+    }),
+  );
 }
 
 async function instrumentsOf(rig: Rig | null): Promise<ReportInstrument[]> {
@@ -90,7 +153,7 @@ async function userNames(ids: (number | null)[]): Promise<Map<number, string>> {
 }
 
 /** Gathers the report of a run. 404 for an unknown run. */
-export async function loadReportData(runId: number): Promise<ReportData> {
+export async function loadReportData(runId: number, dataDir: string): Promise<ReportData> {
   const run = await Run.findByPk(runId);
   if (!run) throw notFound('Run');
   const plan = await TestPlan.findByPk(run.planId);
@@ -125,6 +188,7 @@ export async function loadReportData(runId: number): Promise<ReportData> {
       planY: location.planY,
       testDepthM: location.testDepthM,
       waterTableDepthM: location.waterTableDepthM,
+      pitWidthM: location.pitWidthM,
       soilDescription: location.soilDescription,
       notes: location.notes,
     },
@@ -151,5 +215,7 @@ export async function loadReportData(runId: number): Promise<ReportData> {
       ...(input.notes ? [input.notes] : []),
     ],
     signoff,
+    sitePlan: await sitePlanImage(dataDir, location.sitePlanFile ?? null),
+    photos: await reportPhotos(dataDir, runId, location.id),
   };
 }

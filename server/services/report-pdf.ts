@@ -1,5 +1,5 @@
 /**
- * The PDF report of a run (PRODUCT.md §8): site and plan, instruments, stage-end readings, vector plots,
+ * The PDF report of a run (PRODUCT.md §8): site and plan, pit and reaction, instruments, photos, stage-end readings, vector plots,
  * the interpretation with its sources, the cautions, remarks and the sign-off block with the data hash.
  * Text is Helvetica; figures, readings and the hash are JetBrains Mono (embedded from its woff).
  */
@@ -10,7 +10,7 @@ import { STANDING_CAUTIONS } from '../../shared/interpretation/analyze-record';
 import { ROOT_DIR } from '../config';
 import { type Doc, drawPlot, type PlotSeries } from './pdf-plot';
 import { toWinAnsi } from './pdf-text';
-import type { ReportData } from './report-data';
+import type { ReportData, ReportImage, ReportPhoto } from './report-data';
 
 const FONT_DIR = path.join(ROOT_DIR, 'node_modules/@fontsource/jetbrains-mono/files');
 const MARGIN = 48;
@@ -64,6 +64,14 @@ class ReportWriter {
     this.doc.font('Helvetica').fontSize(size).text(toWinAnsi(text), MARGIN, this.doc.y, { width: this.width });
   }
 
+  /** Places a JPEG scaled to fit `maxWidth` × `maxHeight` at (x, y); returns the size drawn. */
+  image(img: ReportImage, x: number, y: number, maxWidth: number, maxHeight: number): { width: number; height: number } {
+    const scale = Math.min(maxWidth / img.width, maxHeight / img.height);
+    const size = { width: img.width * scale, height: img.height * scale };
+    this.doc.image(img.jpeg, x, y, size);
+    return size;
+  }
+
   /** A table with a bold header row; columns share the width by the given fractions. */
   table(header: string[], rows: string[][], fractions: number[]): void {
     const widths = fractions.map((f) => f * this.width);
@@ -113,7 +121,72 @@ function siteSection(w: ReportWriter, d: ReportData): void {
   w.field('Water table', l.waterTableDepthM === null ? 'not met / not recorded' : `${fmt(l.waterTableDepthM, 2)} m below ground`);
   w.field('Soil', l.soilDescription || d.record.ground?.description || '–');
   w.field('Test date', d.testDate ?? '–');
+  w.field('Weather', d.record.metadata?.weather || 'not recorded');
   w.field('Crew', d.crew.join(', ') || 'not recorded (imported test)');
+  if (d.sitePlan) sitePlanFigure(w, d.sitePlan, l.planX !== null && l.planY !== null ? { x: l.planX, y: l.planY, label: `pit ${l.pitId}` } : null);
+}
+
+/** The site plan with the test location's pin (a ringed dot and its label) where the engineer placed it. */
+function sitePlanFigure(w: ReportWriter, plan: ReportImage, pin: { x: number; y: number; label: string } | null): void {
+  w.room(230);
+  const top = w.doc.y + 6;
+  const size = w.image(plan, MARGIN, top, w.width, 220);
+  w.doc.rect(MARGIN, top, size.width, size.height).lineWidth(0.5).strokeColor('#000').stroke();
+  if (pin) {
+    const px = MARGIN + pin.x * size.width;
+    const py = top + pin.y * size.height;
+    w.doc.circle(px, py, 6).lineWidth(2).fillAndStroke('#c1121f', '#ffffff');
+    w.doc.font('Helvetica-Bold').fontSize(8).fillColor('#000').text(toWinAnsi(pin.label), px + 9, py - 4, { lineBreak: false });
+  }
+  w.doc.fillColor('#000').strokeColor('#000');
+  w.doc.x = MARGIN;
+  w.doc.y = top + size.height + 4;
+  w.para(pin ? 'Site plan with the test location pinned.' : 'Site plan (the test location is not pinned on it).', 7.5);
+}
+
+function pitSection(w: ReportWriter, d: ReportData): void {
+  const l = d.location;
+  const p = d.plan.input;
+  w.heading('Pit and reaction');
+  w.field('Pit', `${l.pitId}, ${l.pitWidthM === null ? 'width not recorded' : `${fmt(l.pitWidthM, 2)} m wide`}, plate at ${fmt(l.testDepthM, 2)} m below ground`);
+  w.field('Reaction', `${p.reaction.kind}, stated capacity ${fmt(p.reaction.capacityKn, 0)} kN${p.reaction.description ? ` (${p.reaction.description})` : ''}`);
+  w.field('Apparatus on the plate', `${fmt(p.apparatusWeightKn, 2)} kN (column, spacers and jack body; added to the jack load)`);
+  w.para(
+    'The reaction capacity is as stated in the plan, not measured. Its adequacy and the safety of the set-up rest with the engineer in charge under local rules.',
+    7.5,
+  );
+}
+
+function photoSection(w: ReportWriter, d: ReportData): void {
+  if (d.photos.length) w.room(290); // keep the heading with the first row of photos
+  w.heading('Photos');
+  if (!d.photos.length) {
+    w.para('No photos were attached to this test.');
+    return;
+  }
+  const gap = 16;
+  const cell = (w.width - gap) / 2;
+  for (let i = 0; i < d.photos.length; i += 2) {
+    const row = d.photos.slice(i, i + 2);
+    w.room(230);
+    const top = w.doc.y;
+    const bottoms = row.map((photo, k) => photoFigure(w, photo, MARGIN + k * (cell + gap), top, cell));
+    w.doc.x = MARGIN;
+    w.doc.y = Math.max(...bottoms) + 10;
+  }
+}
+
+/** One photo in its cell with its caption, who added it and when, and its SHA-256; returns the bottom edge. */
+function photoFigure(w: ReportWriter, photo: ReportPhoto, x: number, top: number, width: number): number {
+  const size = w.image(photo.image, x, top, width, 170);
+  const kind = photo.kind === 'site' ? 'Site' : 'Pit';
+  const caption = `${kind}${photo.ofRun ? ' (this run)' : ''}: ${photo.caption || 'no caption'}`;
+  w.doc.font('Helvetica-Bold').fontSize(8).fillColor('#000').text(toWinAnsi(caption), x, top + size.height + 3, { width });
+  const added = `Added ${photo.addedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC${photo.takenBy ? ` by ${photo.takenBy}` : ''}`;
+  w.doc.font('Helvetica').fontSize(7).fillColor('#52606d').text(toWinAnsi(added), x, w.doc.y, { width });
+  w.doc.font('Mono').fontSize(6).text(`SHA-256 ${photo.sha256}`, x, w.doc.y, { width, ...NO_LIGATURES });
+  w.doc.fillColor('#000');
+  return w.doc.y;
 }
 
 function planSection(w: ReportWriter, d: ReportData): void {
@@ -276,7 +349,9 @@ export function renderReportPdf(d: ReportData): Promise<Buffer> {
   titleBlock(w, d);
   siteSection(w, d);
   planSection(w, d);
+  pitSection(w, d);
   instrumentSection(w, d);
+  photoSection(w, d);
   readingsSection(w, d);
   plotSection(w, d);
   interpretationSection(w, d);

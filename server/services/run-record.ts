@@ -96,7 +96,7 @@ const round = (x: number, places: number) => Math.round(x * 10 ** places) / 10 *
 /** What a run event means in the record's events log, or null when the log has no place for it. */
 function recordEvent(e: TimedEvent): { kind: (typeof RECORD_EVENT_KINDS)[number]; text: string } | null {
   const p = e.payload;
-  if (e.kind === 'note') return { kind: 'note', text: String(p.text ?? '').slice(0, 2000) };
+  if (e.kind === 'note') return { kind: p.topic === 'weather' ? 'weather' : 'note', text: String(p.text ?? '').slice(0, 2000) };
   if (e.kind === 'top-up') return { kind: 'top-up', text: 'Load topped up' };
   if (e.kind === 'gauge-reset') return { kind: 'gauge-reset', text: `Gauge ${p.channel} reset: read ${p.beforeMm} mm before, ${p.afterMm} mm after` };
   return null;
@@ -237,12 +237,21 @@ export class RunRecordBuilder {
 /** A text cut to one line of at most `max` characters (record metadata fields are single lines). */
 const oneLine = (text: string, max: number) => text.replace(/[\r\n]+/g, ' ').trim().slice(0, max);
 
-/** Who, where and when, from the plan's location and project. */
-async function runMetadata(run: Run, plan: TestPlan): Promise<Pick<RunRecordSource, 'metadata' | 'ground'>> {
+/** The weather line of a run: every distinct note about the weather, in order. */
+function weatherOf(events: readonly TimedEvent[]): string | undefined {
+  const notes = events.filter((e) => e.kind === 'note' && e.payload.topic === 'weather').map((e) => oneLine(String(e.payload.text ?? ''), 200));
+  const line = [...new Set(notes)].filter(Boolean).join('; ');
+  return line ? line.slice(0, 200) : undefined;
+}
+
+/** Who, where, when and in what weather, from the plan's location and project and the run's notes. */
+async function runMetadata(run: Run, plan: TestPlan, events: readonly TimedEvent[]): Promise<Pick<RunRecordSource, 'metadata' | 'ground'>> {
   const location = await TestLocation.findByPk(plan.locationId, { include: [{ model: Project, as: 'project' }] });
   const metadata: NonNullable<TestRecord['metadata']> = { pit: location ? oneLine(location.pitId, 80) : undefined };
   if (location?.project) Object.assign(metadata, { project: oneLine(location.project.name, 200), site: oneLine(location.project.site, 200) });
   if (run.startedAt) metadata.testDate = run.startedAt.toISOString().slice(0, 10);
+  const weather = weatherOf(events);
+  if (weather) metadata.weather = weather;
   if (!location) return { metadata };
   const below = location.waterTableDepthM === null ? undefined : location.waterTableDepthM - location.testDepthM;
   const ground = {
@@ -284,7 +293,7 @@ async function recordedRunRecord(run: Run): Promise<TestRecord> {
     stages: buildStageSequence(input),
     setup: measurementSetup(input, await loadRigContext(run.rigId)),
     events,
-    ...(await runMetadata(run, plan)),
+    ...(await runMetadata(run, plan, events)),
   });
   await feedSamples(Run.sequelize!, run.id, builder);
   const record = builder.finish();

@@ -98,7 +98,7 @@ export function applyCommand(state: RunState, command: RunCommand, ctx: CommandC
     case 'take-control':
       return next({ controller: { id: ctx.actor.id, name: ctx.actor.name } }, [event('control-taken', { from: state.controller?.name ?? null })]);
     case 'note':
-      return next({}, [event('note', { text: command.text })]);
+      return next({}, [event('note', { text: command.text, ...(command.topic ? { topic: command.topic } : {}) })]);
     // The alarm reducer (shared/hold/alarm-lifecycle) decides whether these apply; the run records who and when.
     case 'acknowledge-alarm':
       return next({}, [event('alarm-acknowledge', { key: command.key })]);

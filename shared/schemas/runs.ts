@@ -38,7 +38,8 @@ export const runCommandSchema = z.discriminatedUnion('type', [
   z.object({ type: z.literal('advance'), reason: reason.optional() }),
   z.object({ type: z.literal('top-up') }),
   z.object({ type: z.literal('gauge-reset'), channel: channelKey, beforeMm: z.number().min(-500).max(500), afterMm: z.number().min(-500).max(500) }),
-  z.object({ type: z.literal('note'), text: requiredText(2000) }),
+  /** A note for the record; one about the weather also fills the report's weather line. */
+  z.object({ type: z.literal('note'), text: requiredText(2000), topic: z.literal('weather').optional() }),
   z.object({ type: z.literal('finish') }),
   z.object({ type: z.literal('stop'), reason }),
   z.object({ type: z.literal('acknowledge-alarm'), key: z.string().min(1).max(80) }),

@@ -1,10 +1,12 @@
 /**
  * From a finished simulated run to the client's inbox in real browsers: the engineer replays the run,
- * interprets it, submits and signs it, and e-mails the report; an admin sees the message in the
+ * adds a pit photo from the console, interprets it, submits and signs it, and e-mails the report; an admin sees the message in the
  * mailbox; the client signs in and downloads the signed PDF. Screenshots in .artifacts/e2e/signoff/.
  */
+import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import type { Browser } from 'playwright-core';
+import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROOT_DIR } from '../../server/config';
 import type { RunningServer } from '../../server/main';
@@ -13,6 +15,7 @@ import { DEMO_PASSWORD } from '../../server/seed/demo';
 import { Client, demoEmail } from '../support/api';
 import { launchChromium, screenshotter, signInPage, watchForErrors } from '../support/browser';
 import { startLiveServer } from '../support/live-server';
+import { pdfText } from '../support/pdf';
 import { command, simPlan, simulatedRig, startedRun, waitFor } from '../support/sim-run';
 
 let server: RunningServer;
@@ -35,6 +38,7 @@ beforeAll(async () => {
     footing: { shape: 'square', widthM: 1.5, lengthM: null, soilBehaviour: 'cohesionless' },
   });
   runId = await startedRun(operator, planId, started.rig.id);
+  await command(operator, runId, { type: 'note', text: 'Bright, dry, 11 °C', topic: 'weather' });
   for (let i = 0; i < 5; i++) {
     await waitFor(operator, runId, (v) => v.phase === 'hold-met' && v.stageIndex === i, `hold met at stage ${i}`, 120_000);
     await command(operator, runId, i < 4 ? { type: 'advance' } : { type: 'finish' });
@@ -46,6 +50,14 @@ afterAll(async () => {
   await server?.close();
   await sim?.stop();
 });
+
+/** A small photo-like JPEG (a gradient), made with sharp. */
+async function pitPhoto(): Promise<Buffer> {
+  const [width, height] = [480, 360];
+  const pixels = Buffer.alloc(width * height * 3);
+  for (let i = 0; i < width * height; i++) pixels.set([120, (i % width) % 256, Math.floor(i / width) % 256], i * 3);
+  return sharp(pixels, { raw: { width, height, channels: 3 } }).jpeg().toBuffer();
+}
 
 const until = (fn: () => Promise<boolean>, timeout = 30_000) => expect.poll(fn, { timeout, interval: 250 }).toBe(true);
 
@@ -61,6 +73,18 @@ describe('replay, interpretation, sign-off and delivery in real browsers', () =>
     await page.waitForTimeout(1000);
     await shot(page, 'replay');
 
+    // A pit photo from the console's folded panel: it goes on the run's report.
+    await page.goto(`${server.url}/runs/${runId}`);
+    const photos = page.getByRole('region', { name: 'Pit photos' });
+    await photos.getByText('Pit photos').click();
+    const add = photos.getByRole('form', { name: 'Add photos' });
+    await add.getByLabel('Caption (optional)').fill('Plate and jack after the last stage');
+    await add.getByLabel('Choose photos').setInputFiles({ name: 'pit.jpg', mimeType: 'image/jpeg', buffer: await pitPhoto() });
+    await add.getByRole('button', { name: 'Upload 1 photo' }).click();
+    await until(() => add.getByText('1 photo added.').isVisible());
+    await until(() => photos.locator('img').first().evaluate((img) => (img as HTMLImageElement).naturalWidth > 0));
+    await shot(page, 'console-pit-photo');
+
     await page.goto(`${server.url}/runs/${runId}/interpretation`);
     await until(() => page.getByRole('heading', { name: 'Ultimate pressure, by method' }).isVisible());
     const save = page.getByRole('form', { name: 'Save interpretation' });
@@ -73,6 +97,7 @@ describe('replay, interpretation, sign-off and delivery in real browsers', () =>
     await until(async () => (await page.getByText('No interpretation saved yet.').count()) === 0);
 
     await page.goto(`${server.url}/runs/${runId}/signoff`);
+    await until(() => page.getByRole('region', { name: 'Photos on the report' }).getByText('Plate and jack after the last stage').first().isVisible());
     await page.getByRole('button', { name: /Submit the newest interpretation/ }).click();
     const sign = page.getByRole('form', { name: 'Sign' });
     await until(() => sign.isVisible());
@@ -105,5 +130,9 @@ describe('replay, interpretation, sign-off and delivery in real browsers', () =>
     expect(pdf.status()).toBe(200);
     expect(pdf.headers()['content-type']).toContain('application/pdf');
     expect((await pdf.body()).subarray(0, 5).toString()).toBe('%PDF-');
+    writeFileSync(path.join(ROOT_DIR, '.artifacts', 'e2e', 'signoff', 'client-report.pdf'), await pdf.body()); // to look at
+    const { text } = await pdfText(await pdf.body());
+    expect(text).toContain('Pit (this run): Plate and jack after the last stage');
+    expect(text).toContain('Weather: Bright, dry, 11 °C');
   }, 300_000);
 });

@@ -189,5 +189,11 @@ describe('corrections of archived readings', () => {
     expect(res.status).toBe(409);
     expect(res.body.error.code).toBe('run_signed');
     expect((await engineer.get(`/api/runs/${runId}/corrections`)).body.items).toHaveLength(3);
+    // Even a note (it would join the record's events or its weather line).
+    const view = await engineer.get(`/api/runs/${runId}`);
+    expect(view.status).toBe(200);
+    const note = await engineer.post(`/api/runs/${runId}/commands`, { version: view.body.version, command: { type: 'note', text: 'Sunny', topic: 'weather' } });
+    expect(note.status).toBe(409);
+    expect(note.body.error.code).toBe('run_signed');
   });
 });

@@ -214,12 +214,15 @@ async function recordedRun(): Promise<number> {
     events: [
       [0, 'gauges-zeroed', { readings: { g1: 0, g2: 10 } }],
       [1_000, 'run-started', { stageIndex: 0 }],
+      [5_000, 'note', { text: 'Overcast, 9 °C, light wind', topic: 'weather' }],
       [10_000, 'target-reached', { stageIndex: 0 }],
       [70_000, 'stage-advanced', { from: 0, to: 1 }],
       [80_000, 'target-reached', { stageIndex: 1 }],
       [200_000, 'gauge-reset', { channel: 'g1', beforeMm: 24.3, afterMm: 1.15, offsetMm: 23.15 }],
       [380_000, 'stage-advanced', { from: 1, to: 2 }],
       [390_000, 'target-reached', { stageIndex: 2 }],
+      [396_000, 'note', { text: 'Rain began', topic: 'weather' }],
+      [420_000, 'note', { text: 'Rain began', topic: 'weather' }],
       [450_000, 'run-completed', {}],
     ],
   });
@@ -296,7 +299,13 @@ describe('a recorded run', () => {
     expect(last.gauges.g2).toBeCloseTo(25.65, 4);
     const acrossReset = first.readings.filter((r) => Math.abs(r.tMin * 60 - 200) <= 5).map((r) => r.gauges.g1);
     expect(Math.max(...acrossReset) - Math.min(...acrossReset)).toBeLessThan(0.5); // continuous across the reset
-    expect(record.events).toEqual([expect.objectContaining({ stage: 1, kind: 'gauge-reset', tMin: 2 })]);
+    // Notes about the weather: in the record's events while a stage is held, and every distinct one on its weather line.
+    expect(record.events).toEqual([
+      expect.objectContaining({ stage: 1, kind: 'gauge-reset', tMin: 2 }),
+      { stage: 2, kind: 'weather', tMin: 0.1, text: 'Rain began' },
+      { stage: 2, kind: 'weather', tMin: 0.5, text: 'Rain began' },
+    ]);
+    expect(record.metadata?.weather).toBe('Overcast, 9 °C, light wind; Rain began');
 
     const analysis = await operator.get(`/api/runs/${runId}/interpretation`);
     expect(analysis.status).toBe(200);

@@ -4,7 +4,6 @@
  */
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
-import { extractText, getDocumentProxy } from 'unpdf';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { analyzeRecord } from '../../shared/interpretation/analyze-record';
 import type { TestRecord } from '../../shared/records/schema';
@@ -12,6 +11,7 @@ import { DEMO_PASSWORD } from '../../server/seed/demo';
 import { axisRange, niceStep } from '../../server/services/pdf-plot';
 import { toWinAnsi } from '../../server/services/pdf-text';
 import { type Client, signedIn, startTestApp, type TestApp } from '../support/api';
+import { binaryBody, pdfText } from '../support/pdf';
 
 const sandJson = readFileSync(path.join(import.meta.dirname, '../fixtures/records/sand-bearing-450-square.json'), 'utf8');
 const sand = JSON.parse(sandJson) as TestRecord;
@@ -21,19 +21,6 @@ let engineer: Client;
 let runId: number;
 
 const binary = (res: { body: unknown }) => res.body as Buffer;
-const pdfParser = (req: ReturnType<Client['get']>) =>
-  req.buffer(true).parse((res, done) => {
-    const chunks: Buffer[] = [];
-    res.on('data', (c: Buffer) => chunks.push(c));
-    res.on('end', () => done(null, Buffer.concat(chunks)));
-  });
-
-async function pdfText(bytes: Buffer): Promise<{ text: string; pages: number }> {
-  const doc = await getDocumentProxy(new Uint8Array(bytes));
-  const { text, totalPages } = await extractText(doc, { mergePages: true });
-  return { text: text.replace(/\s+/g, ' '), pages: totalPages };
-}
-
 beforeAll(async () => {
   t = await startTestApp({ loginAttempts: 10_000 });
   engineer = await signedIn(t.app, 'engineer');
@@ -67,7 +54,7 @@ describe('PDF report', () => {
       reason: 'The curve bends smoothly towards an asymptote.',
     });
     expect(saved.status).toBe(201);
-    const res = await pdfParser(engineer.get(`/api/runs/${runId}/report.pdf`));
+    const res = await binaryBody(engineer.get(`/api/runs/${runId}/report.pdf`));
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     const bytes = binary(res);
@@ -101,7 +88,7 @@ describe('PDF report', () => {
     const signed = await engineer.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'approved' });
     expect(signed.status).toBe(200);
     const sig = signed.body.signatures[0];
-    const { text } = await pdfText(binary(await pdfParser(engineer.get(`/api/runs/${runId}/report.pdf`))));
+    const { text } = await pdfText(binary(await binaryBody(engineer.get(`/api/runs/${runId}/report.pdf`))));
     expect(text.replace(/ /g, '')).toContain(sig.dataHash);
     expect(text).toContain('Revision 1, approved');
     expect(text).toContain(sig.signedAt.slice(0, 10));

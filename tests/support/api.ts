@@ -66,6 +66,12 @@ export class Client {
   delete(url: string) {
     return this.agent.delete(url).set('x-csrf-token', this.token);
   }
+  /** A multipart POST of one file (field `file`) with text fields. */
+  upload(url: string, file: { data: Buffer; name: string; type?: string }, fields: Record<string, string | number> = {}) {
+    const req = this.agent.post(url).set('x-csrf-token', this.token);
+    for (const [name, value] of Object.entries(fields)) req.field(name, String(value));
+    return req.attach('file', file.data, { filename: file.name, ...(file.type ? { contentType: file.type } : {}) });
+  }
   async signIn(email: string, password = DEMO_PASSWORD) {
     await this.csrf();
     const res = await this.post('/api/auth/login', { email, password });

@@ -13,6 +13,9 @@ const GRANTS = {
   'organizations:read': ['admin', 'engineer', 'operator'],
   'organizations:write': ['admin', 'engineer'],
   'users:manage': ['admin'],
+  /** Staff see and add photos (clients meet them in the signed report); operators change only their own. */
+  'photos:read': ['admin', 'engineer', 'operator'],
+  'photos:change-any': ['admin', 'engineer'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof GRANTS;

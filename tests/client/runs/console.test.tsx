@@ -116,6 +116,23 @@ describe('run console', () => {
     expect(sent(fetchMock)[0].body).toEqual({ version: 42, command: { type: 'top-up' } });
   });
 
+  it('sends a note about the weather marked as such, and shows it so in the log', async () => {
+    const fetchMock = serve({
+      [COMMANDS]: json(200, aRunView({ version: 43 })),
+      'GET /api/runs/7/events': json(200, {
+        items: [{ id: 2, runId: 7, atMs: Date.UTC(2026, 2, 4, 9, 20), kind: 'note', userId: 4, payload: { text: 'Light rain', topic: 'weather' } }],
+      }),
+    });
+    const { user } = renderConsole(aRunView());
+    await user.type(screen.getByLabelText('Note (N)'), 'Light rain');
+    await user.click(screen.getByLabelText(/About the weather/));
+    await user.click(screen.getByRole('button', { name: 'Add note' }));
+    await waitFor(() => expect(sent(fetchMock)).toHaveLength(1));
+    expect(sent(fetchMock)[0].body).toEqual({ version: 42, command: { type: 'note', text: 'Light rain', topic: 'weather' } });
+    const log = await screen.findByRole('list', { name: 'Run log' });
+    await waitFor(() => expect(within(log).getByText('weather')).toBeTruthy());
+  });
+
   it('acknowledges and shelves an alarm by its key', async () => {
     const acknowledged = { ...TRAVEL_ALARM, state: 'acknowledged' as const };
     const fetchMock = serve({

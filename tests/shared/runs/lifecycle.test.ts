@@ -43,6 +43,15 @@ describe('run lifecycle', () => {
     expect(applyObservation(started, { type: 'hold-met' }, 5)).toBeNull();
   });
 
+  it('records a note, marked when it is about the weather, by any watcher and even after the run closed', () => {
+    const note = applyCommand(initialRunState(), { type: 'note', text: 'Sunny, 18 °C', topic: 'weather' }, ctx({ actor: engineer }));
+    expect(note).toMatchObject({ ok: true, events: [{ kind: 'note', payload: { text: 'Sunny, 18 °C', topic: 'weather' } }] });
+    const closed = { ...initialRunState(), phase: 'completed' as const };
+    const plain = applyCommand(closed, { type: 'note', text: 'Pit backfilled' }, ctx());
+    expect(plain).toMatchObject({ ok: true, events: [{ kind: 'note', payload: { text: 'Pit backfilled' } }] });
+    if (plain.ok) expect(plain.events[0].payload).not.toHaveProperty('topic');
+  });
+
   it('lets one station command at a time (QUALITY R7)', () => {
     const started = run(run(initialRunState(), { type: 'zero' }), { type: 'start' });
     const clash = applyCommand(started, { type: 'stage-reached' }, ctx({ actor: engineer }));

@@ -11,6 +11,8 @@ import { useDeleteLocation } from '../../features/locations/api/delete-location'
 import { locationQueryOptions, useLocation } from '../../features/locations/api/get-location';
 import { LocationSummary } from '../../features/locations/components/location-summary';
 import { SitePlanUpload } from '../../features/locations/components/site-plan-upload';
+import { LocationPhotos } from '../../features/photos/components/photo-sections';
+import { useCanSeePhotos } from '../../features/photos/photo-access';
 import { usePlans } from '../../features/plans/api/get-plans';
 import { PlansTable } from '../../features/plans/components/plans-table';
 import { useProject } from '../../features/projects/api/get-project';
@@ -73,6 +75,7 @@ export function LocationDetailRoute() {
   const projectId = location.data?.projectId;
   const project = useProject(projectId ?? 0, { enabled: projectId !== undefined });
   const canEdit = useCan('locations:write');
+  const canSeePhotos = useCanSeePhotos();
   return (
     <QueryResult query={location} loadingLabel="Loading test location…">
       {(l) => (
@@ -93,6 +96,7 @@ export function LocationDetailRoute() {
             </div>
           )}
           <LocationPlans locationId={l.id} />
+          {canSeePhotos && <LocationPhotos locationId={l.id} pitId={l.pitId} />}
         </>
       )}
     </QueryResult>

@@ -10,6 +10,8 @@ import { createLiveStore, type LiveStore } from '../../features/live/live-store'
 import { useLiveRun } from '../../features/live/use-live-run';
 import { useLiveSnapshot } from '../../features/live/use-live-snapshot';
 import { locationsQueryOptions } from '../../features/locations/api/get-locations';
+import { PitPhotosPanel } from '../../features/photos/components/photo-sections';
+import { useCanSeePhotos } from '../../features/photos/photo-access';
 import { usePlan } from '../../features/plans/api/get-plan';
 import { usePlans } from '../../features/plans/api/get-plans';
 import { useProjects } from '../../features/projects/api/get-projects';
@@ -18,6 +20,7 @@ import { runQueryOptions } from '../../features/runs/api/get-run';
 import { RunConsole } from '../../features/runs/components/run-console';
 import { RunSetupForm } from '../../features/runs/components/run-setup-form';
 import { useNow } from '../../features/runs/utils/use-now';
+import { useSignoff } from '../../features/signoff/api/signoff';
 import { requirePermission, routeId } from '../route-guards';
 
 /** Runs are set up and watched by the staff roles, the same ones that read plans. */
@@ -139,6 +142,13 @@ export function LiveRunConsole({ store }: { store: LiveStore }) {
   );
 }
 
+/** Pit photos under the console, folded, so they never push the live figures down. */
+function RunPhotos({ runId, planId }: { runId: number; planId: number }) {
+  const plan = usePlan(planId);
+  const signoff = useSignoff(runId);
+  return <PitPhotosPanel runId={runId} locationId={plan.data?.plan.locationId ?? null} locked={signoff.data?.state === 'signed'} />;
+}
+
 function RunConsolePage({ runId }: { runId: number }) {
   const first = useQuery(runQueryOptions(runId));
   // One store per run page: its samples and curve live as long as the page does.
@@ -147,8 +157,14 @@ function RunConsolePage({ runId }: { runId: number }) {
     if (first.data) store.setView(first.data);
   }, [first.data, store]);
   useLiveRun(runId, store);
+  const canSeePhotos = useCanSeePhotos();
   if (first.isError) return <QueryResult query={first}>{() => null}</QueryResult>;
-  return <LiveRunConsole store={store} />;
+  return (
+    <>
+      <LiveRunConsole store={store} />
+      {canSeePhotos && first.data && <RunPhotos runId={runId} planId={first.data.planId} />}
+    </>
+  );
 }
 
 export function RunConsoleRoute() {

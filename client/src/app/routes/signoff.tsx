@@ -2,6 +2,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { type LoaderFunctionArgs, useParams } from 'react-router-dom';
 import { PageHeader } from '../../components/page-header';
 import { QueryResult } from '../../components/query-states';
+import { ReportPhotos } from '../../features/photos/components/photo-sections';
 import { signoffQueryOptions, useSignoff } from '../../features/signoff/api/signoff';
 import { SignoffPanel } from '../../features/signoff/components/signoff-panel';
 import { useCan } from '../../lib/auth';
@@ -25,6 +26,7 @@ export function SignoffRoute() {
       <QueryResult query={signoff} loadingLabel="Loading the review state…">
         {(view) => <SignoffPanel view={view} canSign={canSign} />}
       </QueryResult>
+      <ReportPhotos runId={runId} />
     </>
   );
 }

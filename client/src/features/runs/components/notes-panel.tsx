@@ -19,16 +19,21 @@ export function NoteForm({
   inputRef: Ref<HTMLTextAreaElement>;
 }) {
   const [text, setText] = useState('');
+  const [weather, setWeather] = useState(false);
   return (
     <form
       aria-label="Add a note"
       className="flex flex-col gap-2"
       onSubmit={(e) => {
         e.preventDefault();
-        if (text.trim()) void send({ type: 'note', text: text.trim() }).then((ok) => ok && setText(''));
+        if (text.trim()) void send({ type: 'note', text: text.trim(), ...(weather ? { topic: 'weather' as const } : {}) }).then((ok) => ok && setText(''));
       }}
     >
       <TextAreaField ref={inputRef} label="Note (N)" value={text} onChange={(e) => setText(e.target.value)} maxLength={2000} disabled={disabled} />
+      <label className="flex min-h-touch items-center gap-3">
+        <input type="checkbox" className="size-6 accent-neutral-900" checked={weather} onChange={(e) => setWeather(e.target.checked)} disabled={disabled} />
+        <span>About the weather (goes on the report’s weather line)</span>
+      </label>
       <FormActions submitLabel="Add note" busyLabel="Adding…" busy={busy} />
     </form>
   );
@@ -52,7 +57,7 @@ export function EventsLog({ events, isPending, error }: { events: RunEvent[] | u
       {items.map((e) => (
         <li key={e.id} className="flex flex-wrap gap-x-3 border-b border-neutral-300 px-3 py-2 last:border-b-0">
           <span className="font-mono text-neutral-800">{formatClock(e.atMs)}</span>
-          <span className="font-semibold">{e.kind}</span>
+          <span className="font-semibold">{e.kind === 'note' && e.payload?.topic === 'weather' ? 'weather' : e.kind}</span>
           <span>{eventDetail(e)}</span>
         </li>
       ))}
