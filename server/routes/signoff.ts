@@ -3,6 +3,7 @@ import { idParams } from '../../shared/schemas/common';
 import { SIGNATURE_MEANINGS } from '../../shared/schemas/signoff';
 import { EDITORS, STAFF } from '../auth/permissions';
 import { route } from '../http/route';
+import { notifyReviewRequested } from '../services/mail';
 import { reopenRun, signoffView, signRun, submitForReview, verifyRun } from '../services/signoff';
 
 export const signInput = z.strictObject({
@@ -30,7 +31,11 @@ export const signoffRoutes = [
     summary: 'Submit the run’s newest interpretation version for review',
     status: 200,
     params: idParams,
-    handler: ({ params, user }) => submitForReview(user!, params.id),
+    handler: async ({ params, user }) => {
+      const view = await submitForReview(user!, params.id);
+      void notifyReviewRequested(params.id, user!);
+      return view;
+    },
   }),
   route({
     method: 'post',

@@ -1,8 +1,9 @@
 /**
- * Outgoing e-mail through nodemailer: the signed report to the client's contacts, and a note to the
- * engineers when a run finishes. The SMTP server is set once at start-up ({@link configureMailer}).
+ * Outgoing e-mail through nodemailer: the signed report to the client's contacts, and notices to staff
+ * when a run finishes or is submitted for review. The SMTP server is set once at start-up ({@link configureMailer}).
  */
 import nodemailer, { type Transporter } from 'nodemailer';
+import { Op } from 'sequelize';
 import { recordToReadingsCsv } from '../../shared/records/csv';
 import { HttpError } from '../http/errors';
 import { Run } from '../models/run';
@@ -88,26 +89,47 @@ export async function sendRunReport(user: User, runId: number, dataDir: string):
 }
 
 /**
- * Tells the engineers (active users with role engineer) that a run finished. For the run manager to call
- * when a run reaches 'completed' or 'stopped'; never throws (a mail failure must not disturb a run), and
- * does nothing when no mail server is configured. Resolves to the addresses written to.
+ * Sends a notice about a run to staff. Never throws (a mail failure must not disturb a run or a review)
+ * and does nothing when no mail server is configured. Resolves to the addresses written to.
  */
-export async function notifyRunFinished(runId: number, phase: 'completed' | 'stopped', reason?: string): Promise<string[]> {
+async function notifyStaff(
+  runId: number,
+  what: string,
+  recipients: () => Promise<User[]>,
+  message: (c: Awaited<ReturnType<typeof clientContacts>>) => { subject: string; text: string },
+): Promise<string[]> {
   if (!transport) return [];
   try {
-    const run = await Run.findByPk(runId);
-    const engineers = await User.findAll({ where: { role: 'engineer', active: true } });
-    const to = engineers.map((u) => u.email);
-    if (!run || to.length === 0) return [];
-    const contacts = await clientContacts(runId);
-    await sendMail({
-      to,
-      subject: `Run ${runId} ${phase}: ${contacts.projectCode}, pit ${contacts.pitId}`,
-      text: `Run ${runId} at pit ${contacts.pitId} (${contacts.projectCode}) ${phase === 'completed' ? 'completed' : 'was stopped'}${reason ? `: ${reason}` : ''}.\nIt is ready for interpretation and review.`,
-    });
+    const to = (await recipients()).map((u) => u.email);
+    if (!(await Run.findByPk(runId)) || to.length === 0) return [];
+    await sendMail({ to, ...message(await clientContacts(runId)) });
     return to;
   } catch (err) {
-    console.error(`run ${runId}: the finish notice was not sent: ${(err as Error).message}`);
+    console.error(`run ${runId}: the ${what} was not sent: ${(err as Error).message}`);
     return [];
   }
 }
+
+/** Tells the engineers (active users with role engineer) that a run finished; for the run manager to call when a run reaches 'completed' or 'stopped'. */
+export const notifyRunFinished = (runId: number, phase: 'completed' | 'stopped', reason?: string) =>
+  notifyStaff(
+    runId,
+    'finish notice',
+    () => User.findAll({ where: { role: 'engineer', active: true } }),
+    (c) => ({
+      subject: `Run ${runId} ${phase}: ${c.projectCode}, pit ${c.pitId}`,
+      text: `Run ${runId} at pit ${c.pitId} (${c.projectCode}) ${phase === 'completed' ? 'completed' : 'was stopped'}${reason ? `: ${reason}` : ''}.\nIt is ready for interpretation and review.`,
+    }),
+  );
+
+/** Tells the other engineers and admins (who may sign) that a run was submitted for review. */
+export const notifyReviewRequested = (runId: number, submitter: User) =>
+  notifyStaff(
+    runId,
+    'review request',
+    () => User.findAll({ where: { role: ['engineer', 'admin'], active: true, id: { [Op.ne]: submitter.id } } }),
+    (c) => ({
+      subject: `Run ${runId} needs review: ${c.projectCode}, pit ${c.pitId}`,
+      text: `${submitter.name} submitted run ${runId} at pit ${c.pitId} (${c.projectCode}) for review.\nOpen its review page in Settlescope to check the interpretation and sign it.`,
+    }),
+  );

@@ -145,6 +145,21 @@ describe('sending a report', () => {
   });
 });
 
+describe('review requests', () => {
+  it('tell the other engineers and admins when a run is submitted for review', async () => {
+    const saved = await engineer.post(`/api/runs/${runs.ownUnsigned}/interpretations`, { chosenMethod: 'hyperbolic', reason: 'Smooth curve.' });
+    expect(saved.status).toBe(201);
+    expect((await engineer.post(`/api/runs/${runs.ownUnsigned}/signoff/submit`)).status).toBe(200);
+    const subject = `Run ${runs.ownUnsigned} needs review: KQ-DC2, pit `;
+    type Item = { to: string[]; subject: string; text: string };
+    const notice = async () => ((await (await admin.get('/api/mailbox')).json()).items as Item[]).find((m) => m.subject.startsWith(subject));
+    await expect.poll(notice, { timeout: 10_000 }).toBeDefined();
+    const message = (await notice())!;
+    expect(message.to).toEqual([demoEmail('admin')]); // the submitter is not told of their own submission
+    expect(message.text).toContain('submitted run');
+  });
+});
+
 describe('client portal', () => {
   it('lists only the signed reports of the client’s own organisation', async () => {
     const res = await client.get('/api/reports');
