@@ -73,6 +73,8 @@ export class RunEngine {
   private readonly connection: RigConnection | null;
   private readonly latest = new Map<string, number | null>();
   private readonly lastOkWallMs = new Map<string, number>();
+  /** Channels whose port reported itself gone; cleared by their next good sample. */
+  private readonly portLost = new Set<string>();
   private pending: SampleRow[] = [];
   private series: { tMin: number; settlementMm: number }[] = [];
   private lastSeriesMs = -Infinity;
@@ -149,7 +151,12 @@ export class RunEngine {
     const tMs = Math.round(this.nowMs(r.wallMs));
     const seq = ++this.persisted.lastSeq;
     this.pending.push({ seq, tMs, channel: r.channelIndex, raw: r.raw === null ? null : toMicro(r.raw), value: r.value === null ? null : toMicro(r.value), status: SAMPLE_STATUS[r.status] });
+    if (r.status === 'disconnected' && !this.portLost.has(r.key)) {
+      this.portLost.add(r.key);
+      this.alarmNow(); // a pulled cable is known at once (QUALITY R3): no need to wait for the silence
+    }
     if (r.value === null) return;
+    this.portLost.delete(r.key);
     this.latest.set(r.key, r.value);
     this.lastOkWallMs.set(r.key, r.wallMs);
     this.persisted.lastSampleMs = tMs;
@@ -312,12 +319,21 @@ export class RunEngine {
       const reading = this.latest.get(c.key);
       if (c.gauge && reading != null) alarms.push({ ...gaugeTravelAlarm({ gauge: c.key, readingMm: reading, travelMm: c.gauge.travelMm, sign: c.gauge.direction }) });
       if (this.setup.rig.rig.mode === 'serial' && s.phase !== 'preparing') {
-        alarms.push(signalLostAlarm({ channel: c.key, lastSampleAtMs: this.lastOkWallMs.get(c.key) ?? null, nowMs: nowWall }));
+        alarms.push(signalLostAlarm({ channel: c.key, lastSampleAtMs: this.lastOkWallMs.get(c.key) ?? null, nowMs: nowWall, portLost: this.portLost.has(c.key) }));
       }
     }
     if (m.meanSettlementMm !== null && s.phase !== 'preparing') alarms.push(stopLimitAlarm({ meanSettlementMm: m.meanSettlementMm, stopLimitMm: this.stopLimit() }));
     if (m.jackForceKn !== null) alarms.push(reactionCapacityAlarm({ jackForceKn: m.jackForceKn, capacityKn: this.setup.plan.reaction.capacityKn }));
     return alarms;
+  }
+
+  /** Reconciles the alarms between evaluations, saving and pushing any change. */
+  private alarmNow(): void {
+    const events: RunEventDraft[] = [];
+    this.updateAlarms(this.nowMs(), events);
+    if (events.length === 0) return;
+    this.queueSave(events);
+    this.io.pushView(this.runId, this.view());
   }
 
   private updateAlarms(now: number, events: RunEventDraft[]): void {

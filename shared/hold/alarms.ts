@@ -222,13 +222,15 @@ export interface SignalInput {
   nowMs: number;
   /** Longest silence before the alarm, s. Default 2. */
   maxGapS?: number;
+  /** The port itself reported gone (closed, unplugged): alarm at once rather than after the silence. */
+  portLost?: boolean;
 }
 
 /** Stale data / signal lost: no sample on a channel for longer than `maxGapS` (QUALITY R3: alarm within 2 s). */
 export function signalLostAlarm(input: SignalInput): Alarm {
   const limit = requirePositive(input.maxGapS ?? 2, 'maxGapS');
   const gapS = input.lastSampleAtMs === null ? null : (requireFinite(input.nowMs, 'nowMs') - requireFinite(input.lastSampleAtMs, 'lastSampleAtMs')) / 1000;
-  const active = gapS === null || gapS > limit;
+  const active = gapS === null || gapS > limit || input.portLost === true;
   return {
     code: 'signal-lost',
     subject: input.channel,
@@ -237,7 +239,9 @@ export function signalLostAlarm(input: SignalInput): Alarm {
     message:
       gapS === null
         ? `No sample from ${input.channel} yet.`
-        : active
+        : input.portLost
+          ? `The port of ${input.channel} is gone: check the cable and the instrument.`
+          : active
           ? `No sample from ${input.channel} for ${gapS.toFixed(1)} s: check the cable and the instrument.`
           : `${input.channel} live.`,
     value: gapS,

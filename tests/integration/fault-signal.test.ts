@@ -64,7 +64,10 @@ describe('signal faults (QUALITY R3, R4, R5)', () => {
     const vanishAt = Date.now();
     await fault({ kind: 'vanish', durationS: 10, device: 'gauge-1' });
     const alarmed = await waitFor(operator, runId, (v) => v.alarms.some((a) => a.code === 'signal-lost' && a.subject === 'g1'), 'signal-lost alarm', 10_000);
-    expect(Date.now() - vanishAt).toBeLessThanOrEqual(2500); // 2 s rule plus one polling step of this test
+    const alarmMs = Date.now() - vanishAt;
+    // The vanished port reports itself gone, so the alarm comes well inside the 2 s rule; the rest is this test's polling.
+    expect(alarmMs).toBeLessThanOrEqual(2500);
+    expect(alarmed.alarms.find((a) => a.subject === 'g1')?.alarm.message).toMatch(/port of g1 is gone/);
     expect(alarmed.alarms.find((a) => a.subject === 'g1')?.state).toBe('unacknowledged');
     await waitFor(operator, runId, (v) => !v.alarms.some((a) => a.code === 'signal-lost' && a.subject === 'g1' && a.state !== 'cleared'), 'reconnection', 30_000);
 

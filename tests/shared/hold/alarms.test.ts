@@ -111,6 +111,8 @@ describe('signal lost (alarm within 2 s — QUALITY R3)', () => {
   it('is active after more than 2 s without a sample, or before the first', () => {
     expect(signalLostAlarm({ channel: 'pressure', lastSampleAtMs: 10_000, nowMs: 11_500 }).active).toBe(false);
     expect(signalLostAlarm({ channel: 'pressure', lastSampleAtMs: 10_000, nowMs: 12_500 })).toMatchObject({ active: true, value: 2.5, unit: 's' });
+    // A port that reports itself gone alarms at once, without waiting for the silence.
+    expect(signalLostAlarm({ channel: 'g1', lastSampleAtMs: 10_000, nowMs: 10_100, portLost: true })).toMatchObject({ active: true, message: expect.stringMatching(/port of g1 is gone/) });
     expect(signalLostAlarm({ channel: 'G1', lastSampleAtMs: null, nowMs: 0 })).toMatchObject({ active: true, value: null });
   });
 });
