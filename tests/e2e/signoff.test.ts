@@ -1,6 +1,7 @@
 /**
- * From a finished simulated run to the client's inbox in real browsers: the engineer replays the run,
- * adds a pit photo from the console, interprets it, submits and signs it, and e-mails the report; an admin sees the message in the
+ * From a simulated run to the client's inbox in real browsers alone: the operator runs the test on the
+ * console (with a note about the weather) to the finish; the engineer replays the run, adds a pit photo
+ * from the console, interprets it, submits and signs it, and e-mails the report; an admin sees the message in the
  * mailbox; the client signs in and downloads the signed PDF. Screenshots in .artifacts/e2e/signoff/.
  */
 import { writeFileSync } from 'node:fs';
@@ -16,34 +17,28 @@ import { Client, demoEmail } from '../support/api';
 import { launchChromium, screenshotter, signInPage, watchForErrors } from '../support/browser';
 import { startLiveServer } from '../support/live-server';
 import { pdfText } from '../support/pdf';
-import { command, simPlan, simulatedRig, startedRun, waitFor } from '../support/sim-run';
+import { simPlan, simulatedRig } from '../support/sim-run';
 
 let server: RunningServer;
 let browser: Browser;
 let sim: SimulatorProcess;
-let runId: number;
+let planId: number;
+let rigName: string;
 
 beforeAll(async () => {
   server = await startLiveServer({ clientDir: path.join(ROOT_DIR, 'dist', 'client') });
   browser = await launchChromium();
   const started = await simulatedRig('dense-sand', 100, 'Sign-off rig (simulated)');
   sim = started.sim;
-  // A short bearing test at a Harrowgate Freight pit, run to the end through the API.
+  rigName = started.rig.name;
+  // A short bearing test at a Harrowgate Freight pit.
   const engineer = await new Client(server.url).signIn(demoEmail('engineer'));
-  const operator = await new Client(server.url).signIn(demoEmail('operator'));
-  const planId = await simPlan(engineer, 'bearing-granular', {
+  planId = await simPlan(engineer, 'bearing-granular', {
     name: 'Sign-off plan',
     loading: { mode: 'list', pressuresKpa: [150, 300, 450, 600] },
     holdRule: { kind: 'rate', maxRateMmPerMin: 0.02, windowMin: 5, minHoldMin: 10 },
     footing: { shape: 'square', widthM: 1.5, lengthM: null, soilBehaviour: 'cohesionless' },
   });
-  runId = await startedRun(operator, planId, started.rig.id);
-  await command(operator, runId, { type: 'note', text: 'Bright, dry, 11 °C', topic: 'weather' });
-  for (let i = 0; i < 5; i++) {
-    await waitFor(operator, runId, (v) => v.phase === 'hold-met' && v.stageIndex === i, `hold met at stage ${i}`, 120_000);
-    await command(operator, runId, i < 4 ? { type: 'advance' } : { type: 'finish' });
-  }
-  await server.runs.archiver.drain();
 }, 400_000);
 afterAll(async () => {
   await browser?.close();
@@ -62,8 +57,37 @@ async function pitPhoto(): Promise<Buffer> {
 const until = (fn: () => Promise<boolean>, timeout = 30_000) => expect.poll(fn, { timeout, interval: 250 }).toBe(true);
 
 describe('replay, interpretation, sign-off and delivery in real browsers', () => {
-  it('takes a finished run to a signed report in the client’s hands', async () => {
+  it('takes a run from the console to a signed report in the client’s hands', async () => {
     const shot = screenshotter('signoff');
+
+    // The operator sets the run up, notes the weather, and takes it through every stage to the finish.
+    const rigPage = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signInPage(rigPage, server.url, demoEmail('operator'));
+    await rigPage.goto(`${server.url}/runs/new?planId=${planId}`);
+    await rigPage.getByLabel('Rig').selectOption({ label: rigName });
+    await rigPage.getByRole('button', { name: 'Set up the run' }).click();
+    await rigPage.waitForURL(/\/runs\/\d+$/);
+    const runId = Number(rigPage.url().split('/').pop());
+    await until(() => rigPage.getByText('Gauge 1').first().isVisible());
+    const note = rigPage.getByRole('form', { name: 'Add a note' });
+    await note.getByLabel('Note (N)').fill('Bright, dry, 11 °C');
+    await note.getByLabel(/About the weather/).check();
+    await note.getByRole('button', { name: 'Add note' }).click();
+    await until(() => rigPage.getByRole('list', { name: 'Run log' }).getByText('Bright, dry, 11 °C').isVisible());
+    await rigPage.getByRole('button', { name: /Zero gauges/ }).click();
+    await rigPage.getByRole('button', { name: /Start \(seating\)/ }).click();
+    for (let stage = 0; stage < 4; stage++) {
+      const next = rigPage.getByRole('button', { name: /Apply next stage$|Apply next stage A/ }).first();
+      await until(() => next.isVisible(), 120_000);
+      await next.click();
+      await until(async () => !(await next.isVisible()));
+    }
+    await until(() => rigPage.getByRole('button', { name: /^Finish/ }).isVisible(), 120_000);
+    await rigPage.getByRole('button', { name: /^Finish/ }).click();
+    await until(() => rigPage.getByText(/Completed/i).first().isVisible());
+    await shot(rigPage, 'run-completed');
+    await server.runs.archiver.drain();
+
     const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
     const errors = watchForErrors(page);
     await signInPage(page, server.url, demoEmail('engineer'));
@@ -134,5 +158,5 @@ describe('replay, interpretation, sign-off and delivery in real browsers', () =>
     const { text } = await pdfText(await pdf.body());
     expect(text).toContain('Pit (this run): Plate and jack after the last stage');
     expect(text).toContain('Weather: Bright, dry, 11 °C');
-  }, 300_000);
+  }, 600_000);
 });

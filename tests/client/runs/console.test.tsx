@@ -91,6 +91,14 @@ describe('run console', () => {
     expect(requests(fetchMock).some((r) => r.key === 'GET /api/runs/7')).toBe(true);
   });
 
+  it('offers no control of a closed run, only its record', async () => {
+    serve();
+    renderConsole(aRunView({ phase: 'completed', controller: { id: 99, name: 'Ines Okafor' } }));
+    expect(await screen.findByText('Ines Okafor')).toBeTruthy();
+    expect(screen.queryByRole('button', { name: 'Take control' })).toBeNull();
+    expect(screen.queryByRole('form', { name: 'Add a note' })).toBeNull();
+  });
+
   it('asks for a reason before applying the next stage while the hold is not met', async () => {
     const fetchMock = serve({ [COMMANDS]: json(200, aRunView({ version: 43, phase: 'pumping', stageIndex: 3 })) });
     const { user } = renderConsole(aRunView());

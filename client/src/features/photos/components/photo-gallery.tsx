@@ -71,7 +71,9 @@ export function PhotoGallery({ photos, label, showOrigin = false, currentRunId, 
                 <KindBadge kind={photo.kind} />
                 {showOrigin && <PhotoOrigin photo={photo} currentRunId={currentRunId} />}
               </div>
-              {!compact && (
+              {compact ? (
+                photo.caption && <p className="truncate text-sm">{photo.caption}</p>
+              ) : (
                 <>
                   <p className="line-clamp-3 break-words">{photo.caption || <span className="text-neutral-700">No caption</span>}</p>
                   <p className="text-sm text-neutral-800">{uploadedLine(photo)}</p>

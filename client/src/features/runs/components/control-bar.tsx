@@ -1,9 +1,9 @@
-import type { RunCommand, RunView } from '@shared/schemas/runs';
+import { ACTIVE_PHASES, type RunCommand, type RunView } from '@shared/schemas/runs';
 import { useState } from 'react';
 import { Button } from '../../../components/button';
 import { ReasonForm } from './command-button';
 
-/** Who commands the run and who watches it, with "Take control" for anyone else. */
+/** Who commands the run and who watches it, with "Take control" for anyone else while the run is open. */
 export function ControlBar({
   view,
   userId,
@@ -24,7 +24,7 @@ export function ControlBar({
       <p>
         <span className="font-semibold">Watching:</span> {view.watchers.length === 0 ? 'nobody' : view.watchers.map((w) => `${w.name} (${w.role})`).join(', ')}
       </p>
-      {view.controller && !mine && (
+      {view.controller && !mine && ACTIVE_PHASES.includes(view.phase) && (
         <Button variant="secondary" busy={busy} onClick={() => void send({ type: 'take-control' })}>
           Take control
         </Button>
