@@ -93,10 +93,14 @@ describe('run console', () => {
 
   it('offers no control of a closed run, only its record', async () => {
     serve();
-    renderConsole(aRunView({ phase: 'completed', controller: { id: 99, name: 'Ines Okafor' } }));
+    renderConsole(aRunView({ phase: 'completed', controller: { id: 99, name: 'Ines Okafor' }, alarms: [TRAVEL_ALARM] }));
     expect(await screen.findByText('Ines Okafor')).toBeTruthy();
     expect(screen.queryByRole('button', { name: 'Take control' })).toBeNull();
     expect(screen.queryByRole('form', { name: 'Add a note' })).toBeNull();
+    // An alarm that stood at the close is shown as it was, with nothing left to do about it.
+    const alarms = screen.getByRole('region', { name: /Alarms/ });
+    expect(within(alarms).getByText(/1 standing when the run closed/)).toBeTruthy();
+    expect(within(alarms).queryByRole('button')).toBeNull();
   });
 
   it('asks for a reason before applying the next stage while the hold is not met', async () => {

@@ -43,7 +43,19 @@ function ShelveForm({
   );
 }
 
-function AlarmItem({ record, send, busy, disabled }: { record: AlarmRecord; send: (c: RunCommand) => Promise<boolean>; busy: boolean; disabled: boolean }) {
+function AlarmItem({
+  record,
+  send,
+  busy,
+  disabled,
+  closed,
+}: {
+  record: AlarmRecord;
+  send: (c: RunCommand) => Promise<boolean>;
+  busy: boolean;
+  disabled: boolean;
+  closed: boolean;
+}) {
   const [shelving, setShelving] = useState(false);
   const key = alarmKey(record);
   const { alarm } = record;
@@ -63,18 +75,20 @@ function AlarmItem({ record, send, busy, disabled }: { record: AlarmRecord; send
       <p className="text-sm">
         Rule: {alarm.source.text} <span className="italic">({alarm.source.tag})</span>
       </p>
-      <div className="mt-2 flex flex-wrap gap-2">
-        {standing && (
-          <Button busy={busy} disabled={disabled} aria-label={`Acknowledge: ${alarm.message}`} onClick={() => void send({ type: 'acknowledge-alarm', key })}>
-            Acknowledge
-          </Button>
-        )}
-        {record.state !== 'shelved' && !shelving && (
-          <Button variant="secondary" disabled={disabled} aria-label={`Shelve: ${alarm.message}`} onClick={() => setShelving(true)}>
-            Shelve…
-          </Button>
-        )}
-      </div>
+      {!closed && (
+        <div className="mt-2 flex flex-wrap gap-2">
+          {standing && (
+            <Button busy={busy} disabled={disabled} aria-label={`Acknowledge: ${alarm.message}`} onClick={() => void send({ type: 'acknowledge-alarm', key })}>
+              Acknowledge
+            </Button>
+          )}
+          {record.state !== 'shelved' && !shelving && (
+            <Button variant="secondary" disabled={disabled} aria-label={`Shelve: ${alarm.message}`} onClick={() => setShelving(true)}>
+              Shelve…
+            </Button>
+          )}
+        </div>
+      )}
       {shelving && (
         <ShelveForm
           alarm={alarm.message}
@@ -87,17 +101,20 @@ function AlarmItem({ record, send, busy, disabled }: { record: AlarmRecord; send
   );
 }
 
-/** Standing alarms, each with what it judged, the rule it follows, and acknowledge / shelve. */
+/** Standing alarms, each with what it judged, the rule it follows, and acknowledge / shelve while the run is open. */
 export function AlarmsPanel({
   alarms,
   send,
   busy,
   disabled,
+  closed = false,
 }: {
   alarms: AlarmRecord[];
   send: (c: RunCommand) => Promise<boolean>;
   busy: boolean;
   disabled: boolean;
+  /** The run is closed: the alarms are shown as they stood at the close, with nothing to do. */
+  closed?: boolean;
 }) {
   const open = alarms.filter((a) => a.state === 'unacknowledged').length;
   return (
@@ -105,7 +122,7 @@ export function AlarmsPanel({
       <h2 id="alarms-heading" className="text-xl font-bold">
         Alarms{' '}
         <span className="font-mono text-base font-normal">
-          ({alarms.length} standing, {open} not acknowledged)
+          {closed ? `(${alarms.length} standing when the run closed)` : `(${alarms.length} standing, ${open} not acknowledged)`}
         </span>
       </h2>
       {alarms.length === 0 ? (
@@ -115,7 +132,7 @@ export function AlarmsPanel({
       ) : (
         <ul className="flex flex-col gap-2">
           {alarms.map((a) => (
-            <AlarmItem key={alarmKey(a)} record={a} send={send} busy={busy} disabled={disabled} />
+            <AlarmItem key={alarmKey(a)} record={a} send={send} busy={busy} disabled={disabled} closed={closed} />
           ))}
         </ul>
       )}

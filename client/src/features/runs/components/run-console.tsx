@@ -109,7 +109,7 @@ export function RunConsole({ view, receivedAtMs, onView, connection, charts }: R
         <div className="min-w-0 lg:col-span-2">{charts}</div>
       </div>
       <div className="mt-4 grid grid-cols-1 gap-4 lg:grid-cols-2">
-        <AlarmsPanel alarms={view.alarms} send={send} busy={busy} disabled={disabled} />
+        <AlarmsPanel alarms={view.alarms} send={send} busy={busy} disabled={disabled} closed={!active} />
         <section aria-labelledby="log-heading" className="flex flex-col gap-3">
           <h2 id="log-heading" className="text-xl font-bold">
             Notes and log
