@@ -346,7 +346,9 @@ export class RunEngine {
 
   /** Applies a person's command, or throws CommandRefused with the reason. */
   async command(command: RunCommand, actor: Actor, version: number): Promise<RunView> {
-    if (version !== this.state.version) throw new CommandRefused('conflict', `The run changed (now version ${this.state.version}); look again and retry.`);
+    // An alarm is answered by its key, whatever else changed meanwhile: the person at the pit is not sent back to look again.
+    const answersAlarm = command.type === 'acknowledge-alarm' || command.type === 'shelve-alarm';
+    if (version !== this.state.version && !answersAlarm) throw new CommandRefused('conflict', `The run changed (now version ${this.state.version}); look again and retry.`);
     const now = this.nowMs();
     if (command.type === 'acknowledge-alarm' || command.type === 'shelve-alarm') this.alarmCommand(command, actor, now);
     const gaugeReadings = Object.fromEntries(this.setup.rig.rig.channels.filter((c) => c.role === 'gauge' && this.latest.get(c.key) != null).map((c) => [c.key, this.latest.get(c.key)!]));

@@ -76,12 +76,12 @@ describe('the console in a real browser', () => {
     await operator.getByRole('button', { name: /^Apply next stage/ }).first().click();
 
     // A pulled cable raises an alarm the operator acknowledges.
-    await fetch(`${sim.controlUrl}/fault`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ kind: 'vanish', durationS: 4, device: 'gauge-1' }) });
+    await fetch(`${sim.controlUrl}/fault`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ kind: 'vanish', durationS: 6, device: 'gauge-1' }) });
     const ack = operator.getByRole('button', { name: /^Acknowledge/ }).first();
     await until(() => ack.isVisible(), 20_000);
     await shot(operator, 'alarm');
     await ack.click();
-    await until(async () => (await operator.getByRole('button', { name: /^Acknowledge/ }).count()) === 0 || (await operator.getByText(/acknowledged/i).count()) > 0);
+    await until(async () => (await operator.getByRole('button', { name: /^Acknowledge/ }).count()) === 0 || (await operator.getByText(/^Acknowledged/).count()) > 0);
 
     // Wait for the 150 kPa hold, then reset gauge 2 while the load is held.
     await until(() => operator.getByText(/Holding|Hold met|hold is met/i).first().isVisible(), 60_000);

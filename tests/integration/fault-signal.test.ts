@@ -8,6 +8,7 @@ import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { RunningServer } from '../../server/main';
 import type { SimulatorProcess } from '../../server/ops/simulated-rig';
+import { alarmKey } from '../../shared/hold/alarm-lifecycle';
 import { SAMPLE_STATUS } from '../../shared/runs/samples';
 import { Client, demoEmail } from '../support/api';
 import { connectSocket, httpSignIn, startLiveServer } from '../support/live-server';
@@ -69,6 +70,11 @@ describe('signal faults (QUALITY R3, R4, R5)', () => {
     expect(alarmMs).toBeLessThanOrEqual(2500);
     expect(alarmed.alarms.find((a) => a.subject === 'g1')?.alarm.message).toMatch(/port of g1 is gone/);
     expect(alarmed.alarms.find((a) => a.subject === 'g1')?.state).toBe('unacknowledged');
+    // Acknowledged by its key even when the run moved on since the operator looked (a stale version).
+    const g1Alarm = alarmed.alarms.find((a) => a.subject === 'g1')!;
+    const ack = await operator.post(`/api/runs/${runId}/commands`, { version: alarmed.version - 1, command: { type: 'acknowledge-alarm', key: alarmKey(g1Alarm) } });
+    expect(ack.status).toBe(200);
+    expect((ack.body as typeof alarmed).alarms.find((a) => a.subject === 'g1')?.state).toBe('acknowledged');
     await waitFor(operator, runId, (v) => !v.alarms.some((a) => a.code === 'signal-lost' && a.subject === 'g1' && a.state !== 'cleared'), 'reconnection', 30_000);
 
     // R5: garbage before every reply of gauge 2 and bad CRCs from the pressure transducer for 5 s.
