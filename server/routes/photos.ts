@@ -11,7 +11,7 @@ import { Run } from '../models/run';
 import { TestPlan } from '../models/test-plan';
 import type { User } from '../models/user';
 import { audited } from '../services/audit';
-import { assertPhotoUnlocked, PhotoFiles, photoFileColumns, photosOfLocation, photosOfRun, processPhoto } from '../services/photos';
+import { assertPhotoUnlocked, PhotoFiles, photoFileColumns, photosOfLocation, photosOfRun, processPhoto, withUploader } from '../services/photos';
 import { assertRunUnlocked } from '../services/signoff';
 
 /** The test location a run was made at (through its plan); 404 for an unknown run. */
@@ -23,7 +23,7 @@ async function locationOfRun(runId: number): Promise<number> {
 }
 
 async function loadPhoto(id: number): Promise<Photo> {
-  const photo = await Photo.findByPk(id, { include: [{ association: 'uploader', attributes: ['id', 'name'] }] });
+  const photo = await Photo.findByPk(id, withUploader);
   if (!photo) throw notFound('Photo');
   return photo;
 }

@@ -1,4 +1,5 @@
 import { idParams } from '../../shared/schemas/common';
+import { SITE_PLAN_MAX_BYTES, SITE_PLAN_TYPES } from '../../shared/schemas/projects';
 import { EDITORS, EVERYONE } from '../auth/permissions';
 import { loadLocation } from '../auth/scope';
 import { notFound } from '../http/errors';
@@ -6,8 +7,6 @@ import { route } from '../http/route';
 import { sendStoredFile, singleUpload, storeUpload, uploadDir } from '../http/uploads';
 import { audited } from '../services/audit';
 
-const IMAGE_TYPES = ['image/png', 'image/jpeg'] as const;
-const MAX_BYTES = 10 * 1024 * 1024;
 
 /** Site-plan images of test locations, kept in `<dataDir>/uploads/site-plans`. */
 export const sitePlanRoutes = (dataDir: string) => {
@@ -20,10 +19,10 @@ export const sitePlanRoutes = (dataDir: string) => {
       summary: 'Upload the site-plan image of a location (PNG or JPEG, ≤ 10 MB)',
       status: 200,
       params: idParams,
-      before: [singleUpload('file', MAX_BYTES)],
+      before: [singleUpload('file', SITE_PLAN_MAX_BYTES)],
       handler: async ({ params, user, req }) => {
         const location = await loadLocation(user!, params.id);
-        const name = await storeUpload(req.file, dir, IMAGE_TYPES);
+        const name = await storeUpload(req.file, dir, SITE_PLAN_TYPES);
         const before = location.get({ plain: true });
         await audited(
           (transaction) => location.update({ sitePlanFile: name }, { transaction }),

@@ -14,7 +14,7 @@ import { lateReadings, nextReadingDue } from '../../shared/hold/schedule';
 import type { HoldEvaluation } from '../../shared/hold/verdict';
 import type { PlannedStage } from '../../shared/plans/stages';
 import { reconcileAlarms } from '../../shared/runs/alarm-board';
-import { type Actor, type RunEventDraft, type RunState, applyCommand, applyObservation } from '../../shared/runs/lifecycle';
+import { type Actor, type RunEventDraft, type RunState, applyCommand, applyObservation, needsCurrentVersion } from '../../shared/runs/lifecycle';
 import { type MeasurementSetup, type Measurements, jackGaugePressure, measure } from '../../shared/runs/measurements';
 import { SAMPLE_STATUS, type SampleRow, fromMicro, toMicro } from '../../shared/runs/samples';
 import type { PlanInput } from '../../shared/schemas/plans';
@@ -346,9 +346,7 @@ export class RunEngine {
 
   /** Applies a person's command, or throws CommandRefused with the reason. */
   async command(command: RunCommand, actor: Actor, version: number): Promise<RunView> {
-    // An alarm is answered by its key, whatever else changed meanwhile: the person at the pit is not sent back to look again.
-    const answersAlarm = command.type === 'acknowledge-alarm' || command.type === 'shelve-alarm';
-    if (version !== this.state.version && !answersAlarm) throw new CommandRefused('conflict', `The run changed (now version ${this.state.version}); look again and retry.`);
+    if (version !== this.state.version && needsCurrentVersion(command)) throw new CommandRefused('conflict', `The run changed (now version ${this.state.version}); look again and retry.`);
     const now = this.nowMs();
     if (command.type === 'acknowledge-alarm' || command.type === 'shelve-alarm') this.alarmCommand(command, actor, now);
     const gaugeReadings = Object.fromEntries(this.setup.rig.rig.channels.filter((c) => c.role === 'gauge' && this.latest.get(c.key) != null).map((c) => [c.key, this.latest.get(c.key)!]));

@@ -7,7 +7,7 @@ import { mkdir, rm, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { Op, QueryTypes, type Transaction } from 'sequelize';
 import sharp from 'sharp';
-import { PHOTO_RENDITION_PX, PHOTO_TYPES, type PhotoSize } from '../../shared/schemas/photos';
+import { PHOTO_RENDITION_PX, PHOTO_SIZES, PHOTO_TYPES, type PhotoSize } from '../../shared/schemas/photos';
 import { conflict, HttpError } from '../http/errors';
 import { checkedUpload, uploadDir } from '../http/uploads';
 import { Photo } from '../models/photo';
@@ -48,7 +48,8 @@ export async function processPhoto(file: { buffer: Buffer } | undefined, field =
   try {
     const meta = await sharp(buffer, { limitInputPixels: MAX_INPUT_PIXELS }).metadata();
     const upright = meta.autoOrient ?? { width: meta.width, height: meta.height };
-    const [thumb, preview] = await Promise.all([rendition(buffer, PHOTO_RENDITION_PX.thumb), rendition(buffer, PHOTO_RENDITION_PX.preview)]);
+    const preview = await rendition(buffer, PHOTO_RENDITION_PX.preview);
+    const thumb = await rendition(preview, PHOTO_RENDITION_PX.thumb); // from the small upright preview, not by decoding the upload again
     return { buffer, mime, ext, sha256: createHash('sha256').update(buffer).digest('hex'), width: upright.width, height: upright.height, thumb, preview };
   } catch {
     throw unreadable(field);
@@ -98,11 +99,12 @@ export class PhotoFiles {
   }
 
   async remove(photo: Pick<Photo, 'fileKey' | 'originalExt'>): Promise<void> {
-    await Promise.all(['original', 'thumb', 'preview'].map((size) => rm(this.path(photo, size as PhotoSize), { force: true })));
+    await Promise.all(PHOTO_SIZES.map((size) => rm(this.path(photo, size), { force: true })));
   }
 }
 
-const withUploader = { include: [{ model: User, as: 'uploader', attributes: ['id', 'name'] }] };
+/** Loads a photo's uploader with it, for the name its view shows. */
+export const withUploader = { include: [{ model: User, as: 'uploader', attributes: ['id', 'name'] }] };
 /** Site views first, then the pit; each in the order taken. */
 const reportOrder: [string, string][] = [
   ['kind', 'DESC'],

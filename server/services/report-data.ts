@@ -71,7 +71,7 @@ export interface ReportData {
   photos: ReportPhoto[];
 }
 
-/** A JPEG ready to embed, with its pixel size. */
+/** A JPEG ready to embed, with its size (the report uses only its shape). */
 export interface ReportImage {
   jpeg: Buffer;
   width: number;
@@ -109,10 +109,9 @@ async function reportPhotos(dataDir: string, runId: number, locationId: number):
   const files = new PhotoFiles(dataDir);
   return Promise.all(
     (await photosOfRun(runId, locationId)).map(async (p) => {
-      const jpeg = await readFile(files.path(p, 'preview'));
-      const { width = p.width, height = p.height } = await sharp(jpeg).metadata();
       return {
-        image: { jpeg, width, height },
+        // The preview is the upload scaled down, upright: the upload's upright size gives its shape.
+        image: { jpeg: await readFile(files.path(p, 'preview')), width: p.width, height: p.height },
         kind: p.kind,
         caption: p.caption,
         ofRun: p.runId === runId,

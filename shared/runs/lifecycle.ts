@@ -79,6 +79,14 @@ export const COMMANDING_ROLES: readonly Role[] = ['admin', 'engineer', 'operator
 
 /** Commands anyone allowed to command may send without holding control. */
 const FREE_COMMANDS = new Set<RunCommand['type']>(['take-control', 'note', 'acknowledge-alarm', 'shelve-alarm', 'accept-overdue']);
+/** Commands that name what they act on (an alarm by its key), so they stand whatever else changed since the sender looked. */
+const KEYED_COMMANDS = new Set<RunCommand['type']>(['acknowledge-alarm', 'shelve-alarm']);
+
+/**
+ * Whether a command must quote the run's current version: every command is decided on what its sender
+ * saw, so a stale one is refused (two stations never cross), except those that name what they act on.
+ */
+export const needsCurrentVersion = (command: RunCommand) => !KEYED_COMMANDS.has(command.type);
 
 export function applyCommand(state: RunState, command: RunCommand, ctx: CommandContext): CommandResult {
   if (!COMMANDING_ROLES.includes(ctx.actor.role)) return refuse('Your role may watch this run but not command it.', 'forbidden');

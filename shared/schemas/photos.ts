@@ -1,6 +1,6 @@
 /** Site and pit photos of a test location or of one run: the upload contract and what the API answers. */
 import { z } from 'zod';
-import { idSchema, optionalText, trimmed } from './common';
+import { idSchema, imageFileProblem, optionalText, trimmed } from './common';
 
 /** A view over the whole site, or of the pit, plate and reaction at the test. */
 export const PHOTO_KINDS = ['site', 'pit'] as const;
@@ -18,12 +18,9 @@ export type PhotoSize = (typeof PHOTO_SIZES)[number];
 /** Longest side in pixels of the renditions made on upload. */
 export const PHOTO_RENDITION_PX = { thumb: 320, preview: 1280 } as const;
 
-/** Why a chosen file cannot be uploaded, or null when it can; the server checks again from the content. */
-export function photoFileProblem(file: { type: string; size: number }): string | null {
-  if (!(PHOTO_TYPES as readonly string[]).includes(file.type)) return 'Choose a JPEG, PNG or WebP image.';
-  if (file.size > PHOTO_MAX_BYTES) return `The image is larger than ${PHOTO_MAX_BYTES / 1024 / 1024} MB.`;
-  return null;
-}
+/** Why a chosen file cannot be uploaded as a photo, or null when it can. */
+export const photoFileProblem = (file: { type: string; size: number }) =>
+  imageFileProblem(file, { types: PHOTO_TYPES, maxBytes: PHOTO_MAX_BYTES, words: 'JPEG, PNG or WebP' });
 
 /** The form fields sent with the file (multipart, so every value arrives as text). */
 export const photoUploadFields = z.object({

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { optionalText, requiredText } from './common';
+import { imageFileProblem, optionalText, requiredText } from './common';
 
 export const projectInput = z.object({
   code: requiredText(40),
@@ -20,6 +20,14 @@ export interface Project extends ProjectInput {
 }
 
 const coordinate = (min: number, max: number) => z.number().min(min).max(max).nullable().default(null);
+
+/** What a location's site plan may be: checked from the content on the server. */
+export const SITE_PLAN_TYPES = ['image/png', 'image/jpeg'] as const;
+export const SITE_PLAN_MAX_BYTES = 10 * 1024 * 1024;
+
+/** Why a chosen file cannot be a site plan, or null when it can. */
+export const sitePlanFileProblem = (file: { type: string; size: number }) =>
+  imageFileProblem(file, { types: SITE_PLAN_TYPES, maxBytes: SITE_PLAN_MAX_BYTES, words: 'PNG or JPEG' });
 
 export const locationInput = z.object({
   pitId: requiredText(40),

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { buildStageSequence } from '../../../shared/plans/stages';
-import { type Actor, type CommandContext, type RunState, applyCommand, applyObservation, initialRunState } from '../../../shared/runs/lifecycle';
+import { type Actor, type CommandContext, type RunState, applyCommand, applyObservation, initialRunState, needsCurrentVersion } from '../../../shared/runs/lifecycle';
 import type { RunCommand } from '../../../shared/schemas/runs';
 
 const stages = buildStageSequence({ seatingPressureKpa: 7, loading: { mode: 'list', pressuresKpa: [100, 200] }, unloadReload: { unloadKpa: [], reload: { mode: 'none' }, repetitionsPerLevel: 1 } });
@@ -50,6 +50,13 @@ describe('run lifecycle', () => {
     const plain = applyCommand(closed, { type: 'note', text: 'Pit backfilled' }, ctx());
     expect(plain).toMatchObject({ ok: true, events: [{ kind: 'note', payload: { text: 'Pit backfilled' } }] });
     if (plain.ok) expect(plain.events[0].payload).not.toHaveProperty('topic');
+  });
+
+  it('asks every command for the version its sender saw, except those that name the alarm they answer', () => {
+    expect(needsCurrentVersion({ type: 'advance' })).toBe(true);
+    expect(needsCurrentVersion({ type: 'note', text: 'x' })).toBe(true); // twin notes from two stations: one lands
+    expect(needsCurrentVersion({ type: 'acknowledge-alarm', key: 'signal-lost:g1' })).toBe(false);
+    expect(needsCurrentVersion({ type: 'shelve-alarm', key: 'tilt', minutes: 5, reason: 'known' })).toBe(false);
   });
 
   it('lets one station command at a time (QUALITY R7)', () => {

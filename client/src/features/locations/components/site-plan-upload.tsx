@@ -1,6 +1,7 @@
+import { SITE_PLAN_TYPES, sitePlanFileProblem } from '@shared/schemas/projects';
 import { type ChangeEvent, useId, useState } from 'react';
 import { FormError, FormNotice } from '../../../components/form-alert';
-import { sitePlanProblem, useUploadSitePlan } from '../api/upload-site-plan';
+import { useUploadSitePlan } from '../api/upload-site-plan';
 
 /** Uploads (or replaces) a location's site-plan image: PNG or JPEG up to 10 MB. */
 export function SitePlanUpload({ locationId, hasPlan }: { locationId: number; hasPlan: boolean }) {
@@ -12,7 +13,7 @@ export function SitePlanUpload({ locationId, hasPlan }: { locationId: number; ha
     const file = event.target.files?.[0];
     event.target.value = ''; // choosing the same file again should upload again
     if (!file) return;
-    const reason = sitePlanProblem(file);
+    const reason = sitePlanFileProblem(file);
     setProblem(reason);
     if (!reason) upload.mutate(file);
   };
@@ -25,7 +26,7 @@ export function SitePlanUpload({ locationId, hasPlan }: { locationId: number; ha
       <input
         id={inputId}
         type="file"
-        accept="image/png,image/jpeg"
+        accept={SITE_PLAN_TYPES.join(',')}
         onChange={onChange}
         disabled={upload.isPending}
         className="min-h-touch max-w-md rounded-md border-2 border-neutral-700 p-2 file:mr-3 file:min-h-9 file:rounded file:border-0 file:bg-neutral-900 file:px-3 file:font-semibold file:text-white"
