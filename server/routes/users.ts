@@ -1,5 +1,5 @@
 import { idParams } from '../../shared/schemas/common';
-import { createUserInput, organizationInput, updateUserInput } from '../../shared/schemas/users';
+import { createUserInput, organizationInput, organizationPatch, updateUserInput } from '../../shared/schemas/users';
 import { hashPassword } from '../auth/passwords';
 import { ADMINS, EDITORS, STAFF } from '../auth/permissions';
 import { badRequest, notFound } from '../http/errors';
@@ -83,7 +83,7 @@ export const userRoutes = [
     access: EDITORS,
     summary: 'Change a client organisation',
     params: idParams,
-    body: organizationInput.partial(),
+    body: organizationPatch,
     handler: async ({ params, body, user }) => {
       const org = await Organization.findByPk(params.id);
       if (!org) throw notFound('Organisation');

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { imageFileProblem, optionalText, requiredText } from './common';
+import { imageFileProblem, optionalText, patchOf, requiredText } from './common';
 
 export const projectInput = z.object({
   code: requiredText(40),
@@ -10,7 +10,7 @@ export const projectInput = z.object({
   notes: optionalText(2000),
 });
 export type ProjectInput = z.infer<typeof projectInput>;
-export const projectPatch = projectInput.partial();
+export const projectPatch = patchOf(projectInput);
 
 export interface Project extends ProjectInput {
   id: number;
@@ -43,7 +43,7 @@ export const locationInput = z.object({
   notes: optionalText(2000),
 });
 export type LocationInput = z.infer<typeof locationInput>;
-export const locationPatch = locationInput.partial();
+export const locationPatch = patchOf(locationInput);
 
 export interface TestLocation extends LocationInput {
   id: number;

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { requiredText } from './common';
+import { patchOf, requiredText } from './common';
 
 export const ROLES = ['admin', 'engineer', 'operator', 'client'] as const;
 export const roleSchema = z.enum(ROLES);
@@ -58,6 +58,7 @@ export const organizationInput = z.object({
   contactEmails: z.array(z.string().trim().toLowerCase().email('a valid e-mail address')).max(20).default([]),
 });
 export type OrganizationInput = z.infer<typeof organizationInput>;
+export const organizationPatch = patchOf(organizationInput);
 
 export interface Organization {
   id: number;
