@@ -8,6 +8,7 @@ import * as signoff from './migrations/0005-signoff';
 import * as corrections from './migrations/0006-corrections';
 import * as rollups from './migrations/0007-sample-rollups';
 import * as photos from './migrations/0008-photos';
+import * as instrumentFields from './migrations/0009-instrument-fields';
 
 export interface Migration {
   up(qi: QueryInterface, S: typeof Sequelize): Promise<void>;
@@ -24,6 +25,7 @@ const MIGRATIONS: [string, Migration][] = [
   ['0006-corrections', corrections],
   ['0007-sample-rollups', rollups],
   ['0008-photos', photos],
+  ['0009-instrument-fields', instrumentFields],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

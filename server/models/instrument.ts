@@ -45,18 +45,20 @@ export class Instrument extends Model<InferAttributes<Instrument>, InferCreation
   }
 
   static initModel(sequelize: Sequelize) {
-    const num = { type: DataTypes.DOUBLE, allowNull: true };
+    // A fresh object per attribute: Sequelize writes each attribute's column name into its object, so a
+    // shared one would map every attribute to the first one's column (migration 0009 repairs that).
+    const num = () => ({ type: DataTypes.DOUBLE, allowNull: true });
     Instrument.init(
       {
         id: { type: DataTypes.INTEGER.UNSIGNED, autoIncrement: true, primaryKey: true },
         kind: { type: DataTypes.ENUM(...INSTRUMENT_KINDS), allowNull: false },
         makeModel: { type: DataTypes.STRING(120), allowNull: false },
         serialNumber: { type: DataTypes.STRING(80), allowNull: false },
-        rangeMin: num,
-        rangeMax: num,
+        rangeMin: num(),
+        rangeMax: num(),
         unit: { type: DataTypes.STRING(16), allowNull: false },
-        resolution: num,
-        travelMm: num,
+        resolution: num(),
+        travelMm: num(),
         notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         createdAt: DataTypes.DATE(3),
         updatedAt: DataTypes.DATE(3),

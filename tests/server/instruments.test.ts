@@ -36,6 +36,25 @@ describe('instrument register', () => {
     expect(detail.body.calibrations.map((c: { calibratedOn: string }) => c.calibratedOn)).toEqual(['2026-06-01', '2020-01-10']);
   });
 
+  it('keeps range, resolution and travel as entered, in the API and in their own columns', async () => {
+    const created = await engineer.post('/api/instruments', { ...gauge, serialNumber: 'T-RT' });
+    expect(created.status).toBe(201);
+    const fields = { rangeMin: 0, rangeMax: 25, unit: 'mm', resolution: 0.001, travelMm: 25 };
+    expect(created.body).toMatchObject(fields);
+    expect((await engineer.get(`/api/instruments/${created.body.id}`)).body).toMatchObject(fields);
+    const row = async () => (await t.sequelize.query('SELECT range_min, range_max, resolution, travel_mm FROM instruments WHERE id = ?', { replacements: [created.body.id], type: 'SELECT' }))[0];
+    expect(await row()).toEqual({ range_min: 0, range_max: 25, resolution: 0.001, travel_mm: 25 });
+    // A change of one field leaves the others as they were.
+    const changed = await engineer.patch(`/api/instruments/${created.body.id}`, { ...gauge, serialNumber: 'T-RT', resolution: 0.01 });
+    expect(changed.body).toMatchObject({ ...fields, resolution: 0.01 });
+    expect(await row()).toEqual({ range_min: 0, range_max: 25, resolution: 0.01, travel_mm: 25 });
+  });
+
+  it('keeps the range of a 0–700 bar transducer that has no travel', async () => {
+    const created = await engineer.post('/api/instruments', { kind: 'pressure', makeModel: 'Test transducer', serialNumber: 'T-P', unit: 'bar', rangeMin: 0, rangeMax: 700, resolution: 0.1, travelMm: null });
+    expect((await engineer.get(`/api/instruments/${created.body.id}`)).body).toMatchObject({ rangeMin: 0, rangeMax: 700, resolution: 0.1, travelMm: null });
+  });
+
   it('rejects bad calibrations naming the field', async () => {
     const id = (await engineer.get('/api/instruments')).body.items[0].id;
     const order = await engineer.post(`/api/instruments/${id}/calibrations`, { calibratedOn: '2026-06-01', dueOn: '2026-01-01', method: line });
