@@ -1,5 +1,4 @@
 import { type CsvError, parse } from 'csv-parse/sync';
-import { stringify } from 'csv-stringify/sync';
 import type { ReductionRule, StagePoint } from '../interpretation/reduction';
 import { GAUGE_KEY_PATTERN, RECORD_BRANCHES, RECORD_FORMAT, RECORD_LIMITS, RECORD_VERSION, type TestRecord } from './schema';
 import { IssueList, issueField, type RecordImport, type RecordIssue, validateRecord } from './validate';
@@ -9,7 +8,8 @@ import { IssueList, issueField, type RecordImport, type RecordIssue, validateRec
  *
  * - Lines whose first character is `#` are comments and are ignored, except the settings at the top:
  *   before the header, `# name: value` with a name from {@link CSV_SETTINGS} (e.g. `# plate_size_mm: 450`)
- *   sets that part of the record. `plate_shape` and `plate_size_mm` are required unless the caller gives
+ *   sets that part of the record. Above the header such a line may also be one quoted cell
+ *   (`"# weather: Dry, 14 °C"`, a `"` doubled inside), as exports write them. `plate_shape` and `plate_size_mm` are required unless the caller gives
  *   the plate. Blank lines are ignored.
  * - The header is the first other line: `stage,branch,target_kpa,t_min,pressure_kpa` in this order
  *   (case and surrounding spaces ignored), then one column per gauge named by its key (a letter, then up
@@ -71,13 +71,29 @@ function setPath(root: Json, path: readonly string[], value: unknown): void {
 
 const quote = (text: string) => JSON.stringify(text.length > 40 ? `${text.slice(0, 40)}…` : text);
 
+/** A comment line above the header written as one quoted cell (`"# name: value"`): its text, else null. */
+function quotedComment(line: string): string | null {
+  const text = line.trim();
+  if (!text.startsWith('"#') || !text.endsWith('"') || text.length < 3) return null;
+  const inner = text.slice(1, -1);
+  return /^(?:[^"]|"")*$/.test(inner) ? inner.replaceAll('""', '"') : null;
+}
+
+/** The lines above the header: blank lines and comments, plain or quoted. */
+function preambleLength(lines: readonly string[]): number {
+  const i = lines.findIndex((raw) => {
+    const text = raw.trim();
+    return text !== '' && !text.startsWith('#') && quotedComment(text) === null;
+  });
+  return i < 0 ? lines.length : i;
+}
+
 /** Reads the `# name: value` lines above the header into `draft`; returns the line number of each setting. */
 function readSettings(lines: readonly string[], draft: Json, issues: IssueList): Map<string, number> {
   const settingLines = new Map<string, number>();
-  for (const [i, raw] of lines.entries()) {
-    const text = raw.trim();
-    if (text === '') continue;
-    if (!text.startsWith('#')) break;
+  for (const [i, raw] of lines.slice(0, preambleLength(lines)).entries()) {
+    const text = quotedComment(raw) ?? raw.trim();
+    if (!text.startsWith('#')) continue;
     const match = SETTING_LINE.exec(text);
     const setting = match && CSV_SETTINGS.find((s) => s.name === match[1]);
     if (!match || !setting) continue;
@@ -258,7 +274,10 @@ export function readingsCsvToRecord(text: string, base: RecordBase = {}): Record
 
   const draft: Json = { ...base, format: RECORD_FORMAT, version: RECORD_VERSION };
   const settingLines = readSettings(lines, draft, issues);
-  const rows = parseRows(text, issues);
+  // Quoted comments above the header are settings already read; blank them (keeping line numbers) for the parser.
+  const top = preambleLength(lines);
+  const quoted = lines.slice(0, top).some((l) => quotedComment(l) !== null);
+  const rows = parseRows(quoted ? [...lines.slice(0, top).map(() => ''), ...lines.slice(top)].join('\n') : text, issues);
   if (rows === null) return issues.failed();
   const [header, ...data] = rows;
   if (header === undefined) {
@@ -285,25 +304,49 @@ export function readingsCsvToRecord(text: string, base: RecordBase = {}): Record
   return record === null || issues.size > 0 ? issues.failed() : { ok: true, record };
 }
 
-/** The `# name: value` lines for the settings the record carries. */
+/** A text cell a spreadsheet would run as a formula (OWASP CSV injection guidance). */
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+/**
+ * One cell of an exported CSV, safe to open in a spreadsheet: a finite number is written bare (so it stays
+ * a number, negative ones included); anything else is text, always quoted with `"` doubled, and led by an
+ * apostrophe when it begins with `=`, `+`, `-`, `@`, tab or CR.
+ */
+export function csvCell(value: string | number | boolean): string {
+  if (typeof value === 'number' && Number.isFinite(value)) return String(value);
+  const text = String(value);
+  return `"${(FORMULA_START.test(text) ? `'${text}` : text).replaceAll('"', '""')}"`;
+}
+
+/** Rows of cells as CSV text, one line each, ending in a newline. */
+export const csvRows = (rows: readonly (readonly (string | number | boolean)[])[]) => rows.map((row) => `${row.map(csvCell).join(',')}\n`).join('');
+
+/** A setting's value on one line: line breaks and other control characters become spaces. */
+// biome-ignore lint/suspicious/noControlCharactersInRegex: control characters are what is replaced
+const oneLine = (value: unknown) => String(value).replace(/[\u0000-\u001f\u007f\u2028\u2029]+/g, ' ');
+
+/** The `# name: value` lines for the settings the record carries, each one quoted cell. */
 function settingsPreamble(record: TestRecord): string[] {
   return CSV_SETTINGS.flatMap(({ name, path, kind }) => {
     const value = getPath(record as unknown as Json, path);
     if (value === undefined) return [];
-    if (kind !== 'readAtMin') return [`# ${name}: ${value}`];
+    if (kind !== 'readAtMin') return [`# ${name}: ${oneLine(value)}`];
     const rule = value as ReductionRule;
     return rule.kind === 'atTime' ? [`# ${name}: ${rule.minutes}`] : [];
   });
 }
 
-/** Every reading of the record as a readings CSV (header rules above), with the record's settings as `# name: value` lines on top. */
+/**
+ * Every reading of the record as a readings CSV (header rules above), with the record's settings as
+ * `# name: value` lines on top. Every text cell is quoted and neutralised ({@link csvCell}), the settings too.
+ */
 export function recordToReadingsCsv(record: TestRecord): string {
   const keys = record.gauges.map((g) => g.key);
   const rows = record.stages.flatMap((stage) =>
     stage.readings.map((r) => [stage.index, stage.branch, stage.targetKpa, r.tMin, r.pressureKpa, ...keys.map((k) => r.gauges[k])]),
   );
-  const preamble = [`# ${RECORD_FORMAT} readings, version ${RECORD_VERSION}`, ...settingsPreamble(record)].join('\n');
-  return `${preamble}\n${stringify(rows, { header: true, columns: [...READINGS_COLUMNS, ...keys] })}`;
+  const preamble = [`# ${RECORD_FORMAT} readings, version ${RECORD_VERSION}`, ...settingsPreamble(record)].map((line) => [line]);
+  return csvRows([...preamble, [...READINGS_COLUMNS, ...keys], ...rows]);
 }
 
 /**
@@ -313,6 +356,6 @@ export function recordToReadingsCsv(record: TestRecord): string {
 export function stagePointsToCsv(points: readonly StagePoint[], gaugeKeys?: readonly string[]): string {
   const gaugeCount = Math.max(0, ...points.map((p) => p.gaugesMm.length));
   const keys = gaugeKeys ?? Array.from({ length: gaugeCount }, (_, i) => `g${i + 1}`);
-  const rows = points.map((p) => [p.index, p.branch, p.tMin, p.pressureKpa, p.settlementMm, String(p.cutShort), ...p.gaugesMm]);
-  return stringify(rows, { header: true, columns: ['stage', 'branch', 't_min', 'pressure_kpa', 'settlement_mm', 'cut_short', ...keys] });
+  const rows = points.map((p) => [p.index, p.branch, p.tMin, p.pressureKpa, p.settlementMm, p.cutShort, ...p.gaugesMm]);
+  return csvRows([['stage', 'branch', 't_min', 'pressure_kpa', 'settlement_mm', 'cut_short', ...keys], ...rows]);
 }

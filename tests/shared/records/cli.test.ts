@@ -81,7 +81,7 @@ describe('npm run analyze', { timeout: 30_000 }, () => {
 
   it('exits 2 naming the file, line and column of a broken CSV', async () => {
     const lines = fixtureText('sand-bearing-450-square.csv').split('\n');
-    const at = lines.findIndex((l) => l.startsWith('2,loading'));
+    const at = lines.findIndex((l) => l.startsWith('2,"loading"'));
     lines[at] = lines[at].replace(/^(([^,]*,){4})[^,]*/, '$1twelve');
     const file = scratchFile('broken.csv', lines.join('\n'));
     const run = await analyze(file);

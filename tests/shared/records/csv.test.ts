@@ -1,5 +1,5 @@
 import { reduceStages } from '@shared/interpretation/reduction';
-import { readingsCsvToRecord, recordToReadingsCsv, stagePointsToCsv } from '@shared/records/csv';
+import { CSV_SETTINGS, csvCell, readingsCsvToRecord, recordToReadingsCsv, stagePointsToCsv } from '@shared/records/csv';
 import { toStageReadings } from '@shared/records/readings';
 import { GAUGE_KEY_PATTERN, RECORD_BRANCHES, type TestRecord } from '@shared/records/schema';
 import { MAX_LISTED_ISSUES, type RecordImport } from '@shared/records/validate';
@@ -137,7 +137,7 @@ describe('readings CSV import', () => {
 
   it('is all or nothing: one bad line among good ones gives no record', () => {
     const lines = fixtureText('sand-bearing-450-square.csv').split('\n');
-    const at = lines.findIndex((l) => l.startsWith('3,loading'));
+    const at = lines.findIndex((l) => l.startsWith('3,"loading"'));
     lines[at] = lines[at].replace(/,[^,]*$/, ',1.2.3');
     expect(errorsOf(readingsCsvToRecord(lines.join('\n')))).toEqual([{ line: at + 1, column: 'g4', message: 'expected a number (got "1.2.3")' }]);
   });
@@ -206,6 +206,69 @@ describe('round trip', () => {
         expect(recordOf(readingsCsvToRecord(recordToReadingsCsv(record)))).toEqual(record);
       }),
       { numRuns: 200 },
+    );
+  });
+});
+
+/** Text a spreadsheet would run: formula starts (OWASP CSV injection guidance), quotes, separators, line breaks. */
+const hostileText = fc.oneof(
+  fc.string({ maxLength: 60 }),
+  fc
+    .tuple(fc.constantFrom('=', '+', '-', '@', '\t', '\r', '"', ',', '\n', ',=', '\r\n=', '"=', "'"), fc.string({ maxLength: 40 }))
+    .map(([lead, rest]) => `${lead}${rest}`),
+  fc.constantFrom('=HYPERLINK("http://example.test/x","click")', 'Sunny,=1+2', '-2+3', '@SUM(A1:A2)', '"\n=cmd|\' /C calc\'!A0'),
+);
+const FORMULA_START = /^[=+\-@\t\r]/;
+const NUMBER_CELL = /^-?\d+(\.\d+)?(e[+-]\d+)?$/;
+
+/** Every cell as a spreadsheet splits the file (RFC 4180, no comment lines): none may start a formula unless it is a plain number. */
+function unsafeCells(csv: string): string[] {
+  const rows = parse(csv, { relax_column_count: true, relax_quotes: true }) as string[][];
+  return rows.flat().filter((cell) => FORMULA_START.test(cell) && !NUMBER_CELL.test(cell));
+}
+
+const TEXT_SETTINGS = CSV_SETTINGS.filter((s) => s.kind === 'text' && s.path[0] === 'metadata');
+
+describe('CSV exports are safe to open in a spreadsheet', () => {
+  it('a cell: numbers bare (negative ones too), text quoted, formula starts led by an apostrophe', () => {
+    expect(csvCell(-1.5)).toBe('-1.5');
+    expect(csvCell('-1.5')).toBe(`"'-1.5"`);
+    expect(csvCell('=1+2')).toBe(`"'=1+2"`);
+    expect(csvCell('say "hi", then')).toBe('"say ""hi"", then"');
+    expect(csvCell(Number.NaN)).toBe('"NaN"');
+  });
+
+  it('readings CSV: hostile settings stay inside one neutral cell, negative readings stay numbers, and read back the same', () => {
+    const base = fixtureRecord('sand-bearing-450-square.json');
+    fc.assert(
+      fc.property(fc.tuple(...TEXT_SETTINGS.map(() => hostileText)), fc.double({ min: -500, max: -0.001, noNaN: true }), (texts, negative) => {
+        const metadata = Object.fromEntries(TEXT_SETTINGS.map((s, i) => [s.path[1], texts[i].slice(0, 40)])); // within every field's limit
+        const stages = base.stages.map((st, i) => (i === 1 ? { ...st, readings: st.readings.map((r) => ({ ...r, gauges: { ...r.gauges, g1: negative } })) } : st));
+        const csv = recordToReadingsCsv({ ...base, metadata, stages });
+        expect(unsafeCells(csv)).toEqual([]);
+        const back = recordOf(readingsCsvToRecord(csv));
+        // A setting is one line: control characters become spaces, and the ends are trimmed.
+        // biome-ignore lint/suspicious/noControlCharactersInRegex: the characters the export replaces
+        const expected = Object.fromEntries(Object.entries(metadata).map(([k, v]) => [k, v.replace(/[\u0000-\u001f\u007f\u2028\u2029]+/g, ' ').trim()]));
+        expect(back.metadata).toEqual({ ...base.metadata, ...expected });
+        expect(back.stages[1].readings.every((r) => r.gauges.g1 === negative)).toBe(true);
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it('stage points CSV: hostile gauge names are neutral cells, negative settlements stay numbers', () => {
+    const record = fixtureRecord('modulus-two-cycle-300.json');
+    const points = reduceStages(toStageReadings(record), { kind: 'atTime', minutes: 2 }).map((p) => ({ ...p, settlementMm: -p.settlementMm - 0.5 }));
+    fc.assert(
+      fc.property(hostileText, (name) => {
+        const csv = stagePointsToCsv(points, [name]);
+        expect(unsafeCells(csv)).toEqual([]);
+        const rows = parse(csv) as string[][];
+        expect(rows[0][6].replace(/^'(?=[=+\-@\t\r])/, '')).toBe(name);
+        expect(rows.slice(1).map((r) => Number(r[4]))).toEqual(points.map((p) => p.settlementMm));
+      }),
+      { numRuns: 300 },
     );
   });
 });
