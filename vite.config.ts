@@ -3,8 +3,8 @@ import tailwindcss from '@tailwindcss/vite';
 import react from '@vitejs/plugin-react';
 import { defineConfig } from 'vite';
 
-/** The Express server the dev server forwards API and socket traffic to. */
-const API_ORIGIN = 'http://127.0.0.1:8080';
+/** The Express server the dev server forwards API and socket traffic to (`PORT`, default 8080). */
+const API_ORIGIN = `http://127.0.0.1:${process.env.PORT ?? 8080}`;
 
 export default defineConfig({
   root: fileURLToPath(new URL('./client', import.meta.url)),
@@ -27,7 +27,7 @@ export default defineConfig({
   },
   server: {
     host: '127.0.0.1',
-    port: 5173,
+    port: Number(process.env.SSCOPE_DEV_PORT ?? 5173),
     strictPort: true,
     proxy: {
       '/api': API_ORIGIN,

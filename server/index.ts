@@ -7,9 +7,11 @@ import { startServer } from './main';
 
 const server = await startServer(defaultConfig({ clientDir: null }));
 console.log(`API listening on ${server.url}`);
-const stop = async () => {
-  await server.close();
-  process.exit(0);
+let stopping = false;
+const stop = () => {
+  if (stopping) return; // a second Ctrl-C while closing changes nothing
+  stopping = true;
+  void server.close().then(() => process.exit(0));
 };
-process.once('SIGINT', stop);
-process.once('SIGTERM', stop);
+process.on('SIGINT', stop);
+process.on('SIGTERM', stop);

@@ -43,6 +43,8 @@ export interface SimArgs {
   maintain?: number;
   gaugeProfile?: AsciiProfile;
   pressureProfile?: ModbusProfile;
+  /** Stop when standard input closes: the process that started the rig has gone, even by kill -9. */
+  stopWithStdin?: boolean;
 }
 
 function numberOption(name: string, text: string | undefined, fallback: number | undefined, ok: (n: number) => boolean, rule: string): number | undefined {
@@ -52,27 +54,26 @@ function numberOption(name: string, text: string | undefined, fallback: number |
   return value;
 }
 
+const SIM_OPTIONS = {
+  scenario: { type: 'string' },
+  speed: { type: 'string' },
+  gauges: { type: 'string' },
+  'control-port': { type: 'string' },
+  dir: { type: 'string' },
+  name: { type: 'string' },
+  seed: { type: 'string' },
+  maintain: { type: 'string' },
+  'gauge-profile': { type: 'string' },
+  'pressure-profile': { type: 'string' },
+  'stop-with-stdin': { type: 'boolean' },
+} as const;
+type ParseArgsValues = ReturnType<typeof parseArgs<{ args: string[]; strict: true; allowPositionals: false; options: typeof SIM_OPTIONS }>>['values'];
+
 /** Reads the command line; errors name the option in quotes. */
 export function parseSimArgs(argv: string[]): SimArgs {
-  let values: Record<string, string | undefined>;
+  let values: ParseArgsValues;
   try {
-    ({ values } = parseArgs({
-      args: argv,
-      strict: true,
-      allowPositionals: false,
-      options: {
-        scenario: { type: 'string' },
-        speed: { type: 'string' },
-        gauges: { type: 'string' },
-        'control-port': { type: 'string' },
-        dir: { type: 'string' },
-        name: { type: 'string' },
-        seed: { type: 'string' },
-        maintain: { type: 'string' },
-        'gauge-profile': { type: 'string' },
-        'pressure-profile': { type: 'string' },
-      },
-    }) as { values: Record<string, string | undefined> });
+    ({ values } = parseArgs({ args: argv, strict: true, allowPositionals: false, options: SIM_OPTIONS }));
   } catch (error) {
     throw new TypeError((error as Error).message.replace(/'(--?[\w-]+)'/g, '"$1"'));
   }
@@ -93,6 +94,7 @@ export function parseSimArgs(argv: string[]): SimArgs {
     maintain: numberOption('maintain', values.maintain, undefined, (n) => n > 0 && n < 0.5, 'a fraction above 0 and below 0.5'),
     gaugeProfile: profileOption('gauge-profile', values['gauge-profile'], 'ascii'),
     pressureProfile: profileOption('pressure-profile', values['pressure-profile'], 'modbus-rtu'),
+    stopWithStdin: values['stop-with-stdin'] === true,
   };
 }
 
@@ -140,6 +142,10 @@ async function main(): Promise<void> {
   };
   process.on('SIGINT', () => void shutdown('SIGINT'));
   process.on('SIGTERM', () => void shutdown('SIGTERM'));
+  if (args.stopWithStdin) {
+    process.stdin.on('end', () => void shutdown('parent gone'));
+    process.stdin.resume();
+  }
 }
 
 if (process.argv[1] && import.meta.url === pathToFileURL(realpathSync(process.argv[1])).href) {

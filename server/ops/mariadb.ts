@@ -4,6 +4,7 @@
  */
 import { type ChildProcess, execFile, spawn } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
+import net from 'node:net';
 import { userInfo } from 'node:os';
 import path from 'node:path';
 import { promisify } from 'node:util';
@@ -20,6 +21,8 @@ export interface MariadbOptions {
   port: number;
   /** InnoDB buffer pool, e.g. "256M". Default "128M". */
   bufferPool?: string;
+  /** Where to say what happened to an instance left running by an earlier start. Default console.log. */
+  log?: (message: string) => void;
 }
 
 export interface MariadbInstance {
@@ -84,40 +87,126 @@ const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
 /** Initialises (first time only) and starts the private instance; resolves when it answers. */
 export async function startMariadb(options: MariadbOptions): Promise<MariadbInstance> {
-  const o = { bufferPool: '128M', ...options };
+  const o = { bufferPool: '128M', log: console.log, ...options };
   const dataDir = path.join(o.baseDir, 'mariadb');
   const runDir = path.join(o.baseDir, 'run');
   const socket = path.join(runDir, 'mysqld.sock');
   mkdirSync(runDir, { recursive: true });
   await initialise(dataDir);
-  if (await ping(socket)) throw new Error(`A MariaDB instance is already running on ${socket}; stop it first.`);
+  await stopLeftover(runDir, dataDir, socket, o.log);
+  await assertPortFree(o.port, o.baseDir);
   rmSync(socket, { force: true });
 
-  const child = spawn(findBinary('mariadbd') ?? 'mariadbd', serverArgs(o, dataDir, runDir), { stdio: 'ignore' });
+  // Its own process group: a Ctrl-C in the terminal reaches the start script, which stops the
+  // database last and waits for it, instead of the database dying mid-shutdown beside it.
+  const child = spawn(findBinary('mariadbd') ?? 'mariadbd', serverArgs(o, dataDir, runDir), { stdio: 'ignore', detached: true });
   let exited = false;
-  child.once('exit', () => {
-    exited = true;
+  const exit = new Promise<void>((resolve) => {
+    child.once('exit', () => {
+      exited = true;
+      resolve();
+    });
   });
   const deadline = Date.now() + 30_000;
   while (!(await ping(socket))) {
     if (exited) throw new Error(`MariaDB exited during start-up; see ${path.join(o.baseDir, 'mariadb.err')}:\n${tail(path.join(o.baseDir, 'mariadb.err'))}`);
-    if (Date.now() > deadline) throw new Error('MariaDB did not answer within 30 s');
+    if (Date.now() > deadline) {
+      child.kill('SIGKILL');
+      throw new Error('MariaDB did not answer within 30 s');
+    }
     await sleep(50);
   }
-  debug('ready on 127.0.0.1:%d', o.port);
+  debug('ready on 127.0.0.1:%d (pid %d)', o.port, child.pid);
 
   const adminSql = async (sql: string) => {
     const { stdout } = await run(findBinary('mariadb') ?? 'mariadb', ['--no-defaults', `--socket=${socket}`, `-u${userInfo().username}`, '-N', '-B', '-e', sql]);
     return stdout;
   };
-  const stop = async () => {
-    if (exited) return;
-    child.kill('SIGTERM');
-    const until = Date.now() + 20_000;
-    while (!exited && Date.now() < until) await sleep(50);
-    if (!exited) child.kill('SIGKILL');
+  let stopping: Promise<void> | null = null;
+  // Once, however many callers ask: a clean shutdown (SIGTERM), SIGKILL only after 30 s.
+  const stop = () => {
+    stopping ??= (async () => {
+      if (exited) return;
+      child.kill('SIGTERM');
+      if (!(await settlesWithin(exit, 30_000))) {
+        child.kill('SIGKILL');
+        await exit;
+      }
+    })();
+    return stopping;
   };
   return { port: o.port, socket, adminSql, stop, process: child };
+}
+
+const settlesWithin = (p: Promise<unknown>, ms: number) =>
+  new Promise<boolean>((resolve) => {
+    const timer = setTimeout(() => resolve(false), ms);
+    void p.then(() => {
+      clearTimeout(timer);
+      resolve(true);
+    });
+  });
+
+const alive = (pid: number) => {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch {
+    return false;
+  }
+};
+
+/** The pid of a mariadbd serving this data folder, from its pid file (checked against /proc). */
+function ownServerPid(runDir: string, dataDir: string): number | null {
+  let pid: number;
+  try {
+    pid = Number(readFileSync(path.join(runDir, 'mysqld.pid'), 'utf8').trim());
+  } catch {
+    return null;
+  }
+  if (!Number.isInteger(pid) || pid <= 0 || !alive(pid)) return null;
+  try {
+    const cmdline = readFileSync(`/proc/${pid}/cmdline`, 'utf8').split('\0');
+    return cmdline.includes(`--datadir=${dataDir}`) ? pid : null;
+  } catch {
+    return null; // no /proc: cannot prove it is ours
+  }
+}
+
+/**
+ * An instance of ours left running (the start script was killed, or crashed) is stopped cleanly
+ * so this start owns the one it runs; a server on our socket that we cannot identify stops the start.
+ */
+async function stopLeftover(runDir: string, dataDir: string, socket: string, log: (m: string) => void): Promise<void> {
+  const pid = ownServerPid(runDir, dataDir);
+  if (pid === null) {
+    if (await ping(socket)) {
+      throw new Error(`A MariaDB server answers on ${socket} but its pid file does not name it; stop it with:\n  mariadb-admin --no-defaults --socket=${socket} -u${userInfo().username} shutdown`);
+    }
+    return;
+  }
+  log(`A MariaDB of this data folder was left running by an earlier start (pid ${pid}); stopping it cleanly before starting again…`);
+  process.kill(pid, 'SIGTERM');
+  const until = Date.now() + 60_000;
+  while (alive(pid) && Date.now() < until) await sleep(50);
+  if (alive(pid)) {
+    log(`MariaDB (pid ${pid}) did not stop within 60 s; killing it (InnoDB recovers on the next start).`);
+    process.kill(pid, 'SIGKILL');
+    while (alive(pid)) await sleep(50);
+  }
+  log('The earlier MariaDB has stopped.');
+}
+
+/** Refuses to start when another program already listens on the port, naming what to do. */
+async function assertPortFree(port: number, baseDir: string): Promise<void> {
+  const free = await new Promise<boolean>((resolve) => {
+    const probe = net.createServer();
+    probe.once('error', () => resolve(false));
+    probe.listen(port, '127.0.0.1', () => probe.close(() => resolve(true)));
+  });
+  if (!free) {
+    throw new Error(`Port ${port} on 127.0.0.1 is taken by another program (not the database in ${baseDir}). Stop that program (see: ss -ltnp 'sport = :${port}'), or use another port, e.g. SSCOPE_DB_PORT=${port + 1} npm start.`);
+  }
 }
 
 function tail(file: string): string {

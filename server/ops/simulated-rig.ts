@@ -32,8 +32,9 @@ export interface SimulatorOptions {
 
 export async function startSimulator(o: SimulatorOptions): Promise<SimulatorProcess> {
   await ensureDebianPackages([{ binary: 'socat', pkg: 'socat' }]);
-  const args = ['simulators/cli.ts', '--scenario', o.scenario, '--speed', String(o.speed), '--gauges', String(o.gauges), '--control-port', String(o.controlPort), '--dir', o.dir, '--name', o.name];
-  const child = spawn(process.execPath, ['--import', 'tsx', ...args], { cwd: ROOT_DIR, stdio: ['ignore', 'pipe', 'inherit'] });
+  const args = ['simulators/cli.ts', '--scenario', o.scenario, '--speed', String(o.speed), '--gauges', String(o.gauges), '--control-port', String(o.controlPort), '--dir', o.dir, '--name', o.name, '--stop-with-stdin'];
+  // stdin is a pipe from us: when this process ends, even by kill -9, the simulator sees it close and stops.
+  const child = spawn(process.execPath, ['--import', 'tsx', ...args], { cwd: ROOT_DIR, stdio: ['pipe', 'pipe', 'inherit'] });
   const first = await new Promise<string>((resolve, reject) => {
     const lines = createInterface({ input: child.stdout! });
     lines.once('line', resolve);

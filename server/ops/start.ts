@@ -2,91 +2,124 @@
  * `npm start`: everything a new user needs, on one machine, with no manual step —
  * a private MariaDB, migrations, demo data, the built client and the API on http://127.0.0.1:8080.
  * `npm run dev` (`--dev`): the same, with the Vite dev server and an API that reloads on change.
- * Ctrl-C stops everything this started.
+ * Ctrl-C (once or more) or SIGTERM stops everything this started, the database last and cleanly.
  */
 import { type ChildProcess, spawn } from 'node:child_process';
 import path from 'node:path';
 import { ROOT_DIR, defaultConfig } from '../config';
+import { initModels } from '../db/models';
+import { migrate } from '../db/migrator';
+import { createSequelize } from '../db/sequelize';
 import { startServer } from '../main';
 import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../seed/demo';
 import { seedDemoMedia } from '../seed/demo-media';
+import { clientBuildIsCurrent } from './client-build';
 import { loadOrCreateSecrets } from './local-state';
 import { ensureDatabase, ensureMariadbInstalled, startMariadb } from './mariadb';
-import { startSimulator, upsertDemoRig } from './simulated-rig';
+import { createShutdown } from './shutdown';
+import { type SimulatorProcess, startSimulator, upsertDemoRig } from './simulated-rig';
 
 const dev = process.argv.includes('--dev');
 const base = defaultConfig();
 const secrets = loadOrCreateSecrets(base.dataDir);
 const config = defaultConfig({ sessionSecret: process.env.SSCOPE_SESSION_SECRET ?? secrets.sessionSecret, db: { ...base.db, password: process.env.SSCOPE_DB_PASSWORD ?? secrets.dbPassword } });
-const cleanups: (() => Promise<void> | void)[] = [];
+const shutdown = createShutdown();
+/** A path as the user best reads it: relative inside the checkout, absolute elsewhere. */
+const shown = (p: string) => (p.startsWith(ROOT_DIR + path.sep) ? path.relative(ROOT_DIR, p) : p);
 
-async function stopAll(code = 0) {
-  for (const fn of cleanups.reverse()) {
+/** Resolves when the API answers its health check (the dev API starts in its own process). */
+async function apiAnswers(url: string, child: ChildProcess): Promise<void> {
+  for (const until = Date.now() + 120_000; ; ) {
+    if (child.exitCode !== null) throw new Error(`the API exited (code ${child.exitCode}) before it answered`);
     try {
-      await fn();
-    } catch (err) {
-      console.error(err);
-    }
+      if ((await fetch(url)).ok) return;
+    } catch {}
+    if (Date.now() > until) throw new Error(`the API did not answer ${url} within 120 s`);
+    await new Promise((r) => setTimeout(r, 250));
   }
-  process.exit(code);
 }
-process.once('SIGINT', () => void stopAll());
-process.once('SIGTERM', () => void stopAll());
 
-function child(cmd: string, args: string[], env: NodeJS.ProcessEnv): ChildProcess {
+/** A child process that the shutdown stops (SIGTERM, SIGKILL after 10 s) and waits for. */
+function child(name: string, cmd: string, args: string[], env: NodeJS.ProcessEnv): ChildProcess {
   const c = spawn(cmd, args, { cwd: ROOT_DIR, env: { ...process.env, ...env }, stdio: 'inherit' });
-  cleanups.push(() => {
+  const exited = new Promise<void>((resolve) => c.once('exit', () => resolve()));
+  shutdown.add(name, async () => {
+    if (c.exitCode !== null || c.signalCode !== null) return;
     c.kill('SIGTERM');
+    const timer = setTimeout(() => c.kill('SIGKILL'), 10_000);
+    await exited;
+    clearTimeout(timer);
   });
   return c;
 }
 
+async function startDemoRig(): Promise<SimulatorProcess | null> {
+  if (process.env.SSCOPE_SIMULATOR === '0') return null;
+  const scenario = process.env.SSCOPE_SIM_SCENARIO ?? 'dense-sand';
+  const speed = Number(process.env.SSCOPE_SIM_SPEED ?? 60);
+  const sim = await startSimulator({ scenario, speed, gauges: 3, controlPort: Number(process.env.SSCOPE_SIM_PORT ?? 8091), dir: path.join(config.dataDir, 'pty'), name: 'demo' });
+  shutdown.add('the simulated rig', () => sim.stop());
+  console.log(`Simulated rig: ${scenario} at ×${speed}, ports in ${shown(path.join(config.dataDir, 'pty'))}/, control ${sim.controlUrl}`);
+  return sim;
+}
+
+/** Demo data once into an empty database, and the demo rig pointed at this start's simulator. */
+async function seedDemoData(sim: SimulatorProcess | null): Promise<void> {
+  if (await seedDemo()) {
+    await seedDemoMedia(config.dataDir);
+    console.log('Demo data seeded.');
+  }
+  if (sim) await upsertDemoRig(sim);
+}
+
 try {
   await ensureMariadbInstalled();
-  console.log(`Starting the private MariaDB on 127.0.0.1:${config.db.port} (data in ${path.relative(ROOT_DIR, config.dataDir)}/db)…`);
+  console.log(`Starting the private MariaDB on 127.0.0.1:${config.db.port} (data in ${shown(config.dataDir)}/db)…`);
   const db = await startMariadb({ baseDir: path.join(config.dataDir, 'db'), port: config.db.port, bufferPool: '256M' });
-  cleanups.push(() => db.stop());
+  shutdown.add('MariaDB', async () => {
+    await db.stop();
+    console.log('MariaDB stopped.');
+  });
   await ensureDatabase(db, config.db.database, config.db.user, config.db.password);
+  const sim = await startDemoRig();
 
   let url: string;
   if (dev) {
+    // Migrate and seed on a connection of our own before the watcher starts its API, so the first
+    // page load finds demo data; the connection is closed only after its last use.
+    const sequelize = createSequelize(config.db, 2);
+    try {
+      initModels(sequelize);
+      await migrate(sequelize);
+      await seedDemoData(sim);
+    } finally {
+      await sequelize.close();
+    }
     const env = { SSCOPE_DB_PASSWORD: config.db.password, SSCOPE_SESSION_SECRET: config.sessionSecret, PORT: String(config.port) };
-    // Migrate and seed before the watcher starts, so the first page load finds demo data.
-    const once = await startServer({ ...config, port: 0, clientDir: null });
-    if (await seedDemo()) await seedDemoMedia(config.dataDir);
-    await once.close();
-    child(path.join(ROOT_DIR, 'node_modules', '.bin', 'tsx'), ['watch', 'server/index.ts'], env);
+    const api = child('the API', path.join(ROOT_DIR, 'node_modules', '.bin', 'tsx'), ['watch', 'server/index.ts'], env);
+    await apiAnswers(`http://${config.host}:${config.port}/api/health`, api);
     const { createServer } = await import('vite');
     const vite = await createServer({ configFile: path.join(ROOT_DIR, 'vite.config.ts') });
     await vite.listen();
-    cleanups.push(() => vite.close());
+    shutdown.add('the Vite dev server', () => vite.close());
     url = vite.resolvedUrls?.local[0] ?? 'http://127.0.0.1:5173/';
   } else {
-    console.log('Building the client…');
-    const { build } = await import('vite');
-    await build({ configFile: path.join(ROOT_DIR, 'vite.config.ts'), logLevel: 'warn' });
-    const server = await startServer(config);
-    cleanups.push(() => server.close());
-    if (await seedDemo()) {
-      await seedDemoMedia(config.dataDir);
-      console.log('Demo data seeded.');
+    if (clientBuildIsCurrent()) console.log('The client build is up to date.');
+    else {
+      console.log('Building the client…');
+      const { build } = await import('vite');
+      await build({ configFile: path.join(ROOT_DIR, 'vite.config.ts'), logLevel: 'warn' });
     }
+    const server = await startServer(config);
+    shutdown.add('the server', () => server.close());
+    await seedDemoData(sim);
     url = `${server.url}/`;
-  }
-
-  if (process.env.SSCOPE_SIMULATOR !== '0') {
-    const scenario = process.env.SSCOPE_SIM_SCENARIO ?? 'dense-sand';
-    const speed = Number(process.env.SSCOPE_SIM_SPEED ?? 60);
-    const sim = await startSimulator({ scenario, speed, gauges: 3, controlPort: Number(process.env.SSCOPE_SIM_PORT ?? 8091), dir: '.data/pty', name: 'demo' });
-    cleanups.push(() => sim.stop());
-    await upsertDemoRig(sim);
-    console.log(`Simulated rig: ${scenario} at ×${speed}, ports in .data/pty/, control ${sim.controlUrl}`);
   }
 
   console.log(`\nSettlescope is running at ${url}\n\nDemo sign-ins (password "${DEMO_PASSWORD}" for each):`);
   for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(9)} ${u.email}`);
-  console.log('\nPress Ctrl-C to stop (the database stops too; data stays in .data/).');
+  console.log(`\nPress Ctrl-C to stop (the database stops too; data stays in ${shown(config.dataDir)}/).`);
 } catch (err) {
   console.error(`\nStart-up failed: ${(err as Error).message}`);
-  await stopAll(1);
+  await shutdown.stop(1);
 }
