@@ -26,6 +26,7 @@ let reader: DeviceReader | undefined;
 afterEach(async () => {
   await reader?.stop();
   reader = undefined;
+  MockDevice.disposeAll();
   SerialPortMock.binding.reset();
 });
 
@@ -62,7 +63,7 @@ describe('AsciiIndicatorReader, polled', () => {
   it('assembles an answer that arrives in pieces', async () => {
     const device = new MockDevice('/dev/poll-pieces');
     device.respond = () => {
-      setTimeout(() => device.emit('2.345 mm\r\n'), 5);
+      device.emitLater('2.345 mm\r\n', 5);
       return '+01';
     };
     const { samples } = start((onSample) => new AsciiIndicatorReader({ ...common(device), profile: polled, onSample }));

@@ -17,12 +17,24 @@ export type Responder = (request: Buffer) => Uint8Array | string | undefined;
  * would be a second copy that serialport never sees.
  */
 export class MockDevice {
+  private static readonly all = new Set<MockDevice>();
   readonly ports: SerialPortMock[] = [];
   readonly writes: Buffer[] = [];
   respond: Responder = () => undefined;
+  private readonly timers = new Set<NodeJS.Timeout>();
 
   constructor(readonly path: string) {
     SerialPortMock.binding.createPort(path);
+    MockDevice.all.add(this);
+  }
+
+  /** Cancels every device's bytes still due, so nothing a test scheduled outlives it (call in afterEach). */
+  static disposeAll(): void {
+    for (const device of MockDevice.all) {
+      for (const timer of device.timers) clearTimeout(timer);
+      device.timers.clear();
+    }
+    MockDevice.all.clear();
   }
 
   /** Port factory for the reader under test. */
@@ -51,6 +63,19 @@ export class MockDevice {
   /** Bytes arriving from the device unasked (streaming devices, noise). */
   emit(data: Uint8Array | string): void {
     this.binding.emitData(data);
+  }
+
+  /**
+   * Bytes the device sends `ms` from now on the port open now (the rest of a reply that comes in
+   * pieces). Dropped if that port has closed by then, as they would be on a real line.
+   */
+  emitLater(data: Uint8Array | string, ms: number): void {
+    const port = this.ports.at(-1);
+    const timer = setTimeout(() => {
+      this.timers.delete(timer);
+      if (port?.isOpen) (port.port as unknown as MockPortBinding).emitData(data);
+    }, ms);
+    this.timers.add(timer);
   }
 
   /** The cable is pulled: the pending read fails as a real binding's would, and the port is gone. */
