@@ -104,8 +104,10 @@ describe('sim command line', () => {
       maintain: undefined,
       gaugeProfile: undefined,
       pressureProfile: undefined,
+      stopWithStdin: false,
     });
-    expect(parseSimArgs(['--scenario', 'soft-clay', '--gauges', '4', '--control-port', '0', '--dir', '/tmp/x', '--maintain', '0.02'])).toMatchObject({
+    expect(parseSimArgs(['--scenario', 'soft-clay', '--gauges', '4', '--control-port', '0', '--dir', '/tmp/x', '--maintain', '0.02', '--stop-with-stdin'])).toMatchObject({
+      stopWithStdin: true,
       gauges: 4,
       controlPort: 0,
       dir: '/tmp/x',
