@@ -2,7 +2,7 @@ import { appendFileSync, mkdtempSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { QueryTypes } from 'sequelize';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { migrate } from '../../server/db/migrator';
 import { createSequelize } from '../../server/db/sequelize';
 import { Archiver } from '../../server/runs/archiver';
@@ -53,8 +53,7 @@ describe('archiver', () => {
     await sequelize.query('RENAME TABLE samples TO samples_away');
     try {
       a.enqueue(2, rows(1, 500));
-      await new Promise((r) => setTimeout(r, 150));
-      expect(a.healthy).toBe(false);
+      await vi.waitFor(() => expect(a.healthy).toBe(false), { timeout: 10_000 }); // the first write has failed
       expect(a.backlog).toBe(500);
       a.enqueue(2, rows(501, 500));
     } finally {
