@@ -2,7 +2,7 @@ import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { SerialPort } from 'serialport';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { DevicePort } from '../../simulators/devices/device-port';
 import { FaultBoard } from '../../simulators/devices/faults';
 import { PtyPair } from '../../simulators/pty';
@@ -64,7 +64,7 @@ describe('device port faults', () => {
   const dir = mkdtempSync(join(tmpdir(), 'settlescope-port-'));
   const pair = new PtyPair({ name: 'faults', dir });
   const faults = new FaultBoard();
-  const device = new DevicePort({ path: pair.devicePath, serial, faults, onData: () => {} });
+  const device = new DevicePort({ path: pair.devicePath, serial, faults, onData: () => {}, splitGapMs: 30 }); // a gap a busy machine still sees
   let app: SerialPort;
   const chunks: Buffer[] = [];
 
@@ -83,21 +83,25 @@ describe('device port faults', () => {
     rmSync(dir, { recursive: true, force: true });
   });
 
-  /** What the application received for one send, chunk by chunk. */
-  async function received(send: () => void): Promise<Buffer[]> {
+  /**
+   * What the application received for one send, chunk by chunk: once the bytes end with `until`, or,
+   * when nothing should arrive, whatever came within 60 ms.
+   */
+  async function received(send: () => void, until?: string): Promise<Buffer[]> {
     chunks.length = 0;
     send();
-    await sleep(60);
+    if (until === undefined) await sleep(60);
+    else await vi.waitFor(() => expect(Buffer.concat(chunks).toString('latin1').endsWith(until)).toBe(true), { timeout: 5000, interval: 5 });
     return [...chunks];
   }
 
   it('passes a write through unchanged without faults', async () => {
-    expect(Buffer.concat(await received(() => device.send('+001.234 mm\r\n'))).toString()).toBe('+001.234 mm\r\n');
+    expect(Buffer.concat(await received(() => device.send('+001.234 mm\r\n'), '\r\n')).toString()).toBe('+001.234 mm\r\n');
   });
 
   it('splits a write into pieces that arrive apart', async () => {
     faults.set('split', 1);
-    const got = await received(() => device.send('+001.234 mm\r\n'));
+    const got = await received(() => device.send('+001.234 mm\r\n'), '\r\n');
     faults.clear();
     expect(got.length).toBeGreaterThanOrEqual(2);
     expect(Buffer.concat(got).toString()).toBe('+001.234 mm\r\n');
@@ -107,14 +111,14 @@ describe('device port faults', () => {
     faults.set('merge', 1);
     expect(await received(() => device.send('A\r\n'))).toEqual([]);
     faults.clear();
-    const got = await received(() => device.send('B\r\n'));
+    const got = await received(() => device.send('B\r\n'), 'B\r\n');
     expect(got).toHaveLength(1);
     expect(got[0].toString()).toBe('A\r\nB\r\n');
   });
 
   it('prefixes garbage, and drops writes', async () => {
     faults.set('garbage', 1);
-    const noisy = Buffer.concat(await received(() => device.send('C\r\n')));
+    const noisy = Buffer.concat(await received(() => device.send('C\r\n'), 'C\r\n'));
     faults.clear();
     expect(noisy.length).toBeGreaterThan(3);
     expect(noisy.subarray(-3).toString()).toBe('C\r\n');
