@@ -4,20 +4,34 @@ import type { RecordFooting, TestRecord } from '../records/schema';
 import {
   type AllowableBearingPressure,
   allowableBearingPressure,
+  designFootingWidth,
+  type FootingWidth,
   type SettlementAllowable,
   type ShearAllowable,
   settlementAllowable,
   shearAllowable,
 } from './allowable';
-import { type CurvePoint, settlementAtPressure } from './curve';
+import { type CurvePoint, checkLoadingCurve, settlementAtPressure } from './curve';
 import { type DeformationModuli, deformationModuli, evBranchesFromStages, type Sigma0MaxConvention } from './deformation-modulus';
 import { type ElasticModulus, rigidPlateModulus } from './elastic';
 import { InterpretationInputError, requireInRange } from './input-checks';
+import { type MethodGroup, type ProcedureReading, procedureReading } from './procedure-methods';
 import { type ReductionRule, reduceStages, type StagePoint, type StageReadings, stageSettlementSeries } from './reduction';
-import { footingUltimatePressure, type ScalingWarning, type SettlementScaling, scalingWarnings } from './scaling';
-import { type SubgradeModulus, subgradeModulusAtPressure, subgradeModulusAtSettlement } from './subgrade';
-import { type CreepCoefficient, creepPerLogCycle, type HyperbolicTimeFit, hyperbolicTimeFit } from './time-settlement';
-import { type AnyUltimateResult, type CompareUltimateOptions, compareUltimateMethods, type UltimateMethod } from './ultimate';
+import {
+  breadthOverLength,
+  footingUltimatePressure,
+  type ScalingWarning,
+  type SettlementScaling,
+  type ShapeCorrection,
+  scalingName,
+  scalingWarnings,
+} from './scaling';
+import { FIXED_PRESSURE_KPA, kForStandardPlate, kLabel, type StandardPlateK, type SubgradeModulus, subgradeModulusAtPressure, subgradeModulusAtSettlement } from './subgrade';
+import { type CreepCoefficient, type CycleSplit, creepPerLogCycle, cyclicSplit, type HyperbolicTimeFit, hyperbolicTimeFit } from './time-settlement';
+import { type CompareUltimateOptions, compareUltimateMethods, criterionSettlementMm, type UltimateMethod } from './ultimate';
+import { type AssessedUltimate, assessUltimate, type ChosenUltimate, chooseUltimate, type TestExtent, testExtent } from './ultimate-standing';
+
+export type { ChosenUltimate } from './ultimate-standing';
 
 /** A method's result, or why it does not apply to this record. */
 export type Finding<T> = { applies: true; result: T } | { applies: false; reason: string };
@@ -30,11 +44,11 @@ export interface Caution {
 
 /** Options of {@link analyzeRecord}. */
 export interface AnalyzeRecordOptions {
-  /** Which reading stands for each stage. Default: the record's `plan.reduction`, else the end of each hold. */
+  /** Which reading stands for each stage. Default: the record's `plan.reduction`, else the procedure's rule (2 min for the modulus test), else the end of each hold. */
   reduction?: ReductionRule;
-  /** Options of the ultimate-pressure methods (log–log split, tangent points, settlement criterion). Default: each method's own. */
+  /** Options of the ultimate-pressure methods (log–log split, tangent points, settlement criterion, reading resolution). Default: each method's own. */
   ultimate?: CompareUltimateOptions;
-  /** The method whose ultimate pressure is scaled to the footing. Default: the lowest value any method determines (the cautious choice). */
+  /** The method whose ultimate pressure is scaled to the footing. Default: the lowest that stands as an ultimate within the test, else q_ult ≥ q_max. */
   ultimateMethod?: UltimateMethod;
   /** Footing settlement scaling. Default: Terzaghi & Peck's sand rule for cohesionless soil, the linear rule for cohesive soil. */
   scaling?: SettlementScaling;
@@ -46,27 +60,38 @@ export interface AnalyzeRecordOptions {
   evConvention?: Sigma0MaxConvention;
   /** Creep window [from, to], minutes since the stage's target was reached. Default: the last log cycle of each hold. */
   creepWindowMin?: readonly [number, number];
+  /** Which application of each load level makes the loading curve and k (repeated-loading tests). Default: the procedure's (1, the first). */
+  kApplication?: number;
+  /** Settlement at which k is read, mm. Default: the procedure's basis (1.27 mm = 0.05 in for the ASTM pavement family, else 1.25 mm). */
+  kSettlementMm?: number;
+  /** Column load on a square footing, kN: when given, the footing width that keeps the settlement within the limit. */
+  columnLoadKn?: number;
 }
 
-/** The ultimate pressure carried into the footing checks, and how it was picked. */
-export interface ChosenUltimate {
-  method: UltimateMethod;
-  label: string;
-  qUltKpa: number;
-  basis: 'engineer' | 'lowest';
-  formula: string;
-  source: string;
+/** The origin of the load–settlement curve: the seating point, where the gauges were zeroed. */
+export interface ZeroCorrection {
+  origin: CurvePoint;
+  /** True when the record has a seating stage; false when the origin is taken from the plan or as q = 0. */
+  fromSeatingStage: boolean;
+  /** One sentence every view prints. */
+  statement: string;
 }
 
 /** Scaling of the plate results to the record's footing (DOMAIN §B.3, §B.4). */
 export interface FootingAnalysis {
   footing: RecordFooting;
   plateWidthM: number;
+  plateLabel: string;
   scaling: SettlementScaling;
-  ultimate: Finding<{ qUltKpa: number; fromMethod: UltimateMethod; formula: string; source: string }>;
+  scalingName: string;
+  ultimate: Finding<{ qUltKpa: number; fromMethod: UltimateMethod | null; lowerBound: boolean; shape: ShapeCorrection | null; formula: string; source: string }>;
   shear: Finding<ShearAllowable>;
   settlement: Finding<SettlementAllowable>;
   allowable: Finding<AllowableBearingPressure>;
+  /** What the allowable pressure is and rests on: net or gross, factor of safety, settlement limit, scaling rule, plate. */
+  basis: { pressure: 'net'; factorOfSafety: number; permissibleSettlementMm: number; statement: string };
+  /** Square footing width for the column load of the options; null when none was given. */
+  widthForColumnLoad: Finding<FootingWidth & { columnLoadKn: number }> | null;
 }
 
 /** Young's modulus from the first loading's secant, with the range it used. */
@@ -76,6 +101,33 @@ export interface SecantElasticModulus extends ElasticModulus {
   toKpa: number;
   fromMm: number;
   toMm: number;
+}
+
+/** k labelled with the plate it was measured on. */
+export type LabelledModulus = SubgradeModulus & { label: string };
+
+/** k of the plate used, and its 750/762 mm plate value where one is measured or named. */
+export interface SubgradeAnalysis {
+  plateMm: number;
+  /** Which application of each load level the curve takes (1 = the first). */
+  application: number;
+  /** The settlement basis and the convention that fixes it. */
+  settlementBasis: string;
+  atSettlement: Finding<LabelledModulus>;
+  atPressure: Finding<LabelledModulus>;
+  standardPlate: Finding<Exclude<StandardPlateK, { kind: 'none' }>>;
+}
+
+/** Deformation moduli with what they depend on stated. */
+export type StatedModuli = DeformationModuli & { statement: string };
+
+/** One load–release cycle of a repeated-loading test. */
+export interface LoadCycle extends CycleSplit {
+  levelKpa: number;
+  /** 1-based application of this load level. */
+  application: number;
+  loadStage: number;
+  releaseStage: number;
 }
 
 /** Time–settlement evaluation of one loading or reloading stage (DOMAIN §B.8). */
@@ -89,8 +141,12 @@ export interface StageTimeSettlement {
   hyperbolicFit: Finding<HyperbolicTimeFit>;
 }
 
+/** The version of the analysis's shape; saved analyses without it are of the first shape. */
+export const ANALYSIS_VERSION = 2;
+
 /** Everything Settlescope can say about one test record. */
 export interface RecordAnalysis {
+  analysisVersion: typeof ANALYSIS_VERSION;
   summary: {
     metadata: NonNullable<TestRecord['metadata']>;
     procedureId: string | null;
@@ -99,27 +155,33 @@ export interface RecordAnalysis {
     stages: number;
     readings: number;
   };
+  /** How the procedure is read: which methods are shown and why the others are not. */
+  procedure: ProcedureReading;
   reduction: { rule: ReductionRule; points: StagePoint[]; formula: string; source: string };
-  /** The first loading (the last seating point, then the loading stages): the curve of the loading methods. */
+  zeroCorrection: ZeroCorrection;
+  /** The corrected first loading: the origin, then the loading stages (one application per level); the curve every method reads. */
   firstLoading: CurvePoint[];
-  ultimate: Finding<AnyUltimateResult[]>;
+  /** The extent of the test (largest pressure and settlement) and its failure signs. */
+  extent: Finding<TestExtent>;
+  ultimate: Finding<AssessedUltimate[]>;
   chosenUltimate: Finding<ChosenUltimate>;
   footing: Finding<FootingAnalysis>;
-  subgradeModulus: { atSettlement: Finding<SubgradeModulus>; atPressure: Finding<SubgradeModulus> };
-  deformationModuli: Finding<DeformationModuli>;
+  subgradeModulus: SubgradeAnalysis;
+  deformationModuli: Finding<StatedModuli>;
   elasticModulus: Finding<SecantElasticModulus>;
+  cycles: Finding<LoadCycle[]>;
   timeSettlement: StageTimeSettlement[];
   scalingWarnings: ScalingWarning[];
   cautions: Caution[];
 }
 
-/** The cautions that stand beside every result (PRODUCT.md). */
+const DEEPER_SOIL_GENERAL =
+  'A footing stresses the soil to about two footing widths below its base, the plate only to about two plate widths: a weaker layer below the plate’s reach does not show in this test.';
+
+/** The cautions that stand beside every result (PRODUCT.md); `deeper_soil` is stated with the test's own depths by {@link cautionsFor}. */
 export const STANDING_CAUTIONS: readonly Caution[] = [
   { code: 'one_spot', message: 'The results describe the soil under one plate, at one spot and one depth; the ground elsewhere on the site may differ.' },
-  {
-    code: 'deeper_soil',
-    message: 'A footing stresses the soil 2–3 plate widths deeper than the plate did: a weaker layer below the plate’s reach does not show in this test.',
-  },
+  { code: 'deeper_soil', message: DEEPER_SOIL_GENERAL },
   {
     code: 'clay_long_term',
     message: 'On clay, long-term consolidation settlement is not captured by a 24-hour hold; estimate it from laboratory consolidation tests.',
@@ -131,6 +193,18 @@ export const STANDING_CAUTIONS: readonly Caution[] = [
   },
   { code: 'judgement', message: 'Apply these figures under the local codes and the judgement of a licensed geotechnical engineer.' },
 ];
+
+const m2 = (x: number) => x.toFixed(2);
+
+/** The standing cautions with the depth caution worked out for this plate and footing (about 2 B below each). */
+export function cautionsFor(plate: Plate, footing: RecordFooting | undefined): Caution[] {
+  const bp = plate.sizeMm / 1000;
+  const plateText = `the ${plate.sizeMm} mm plate only to about ${m2(2 * bp)} m below the test level (two plate widths)`;
+  const message = footing
+    ? `The ${footing.widthM} m footing stresses the soil to about ${m2(2 * footing.widthM)} m below its base (two footing widths), ${plateText}: a weaker layer between those depths does not show in this test.`
+    : `A footing stresses the soil to about two footing widths below its base, ${plateText}: a weaker layer below the plate’s reach does not show in this test.`;
+  return STANDING_CAUTIONS.map((c) => (c.code === 'deeper_soil' ? { code: c.code, message } : c));
+}
 
 const notApplicable = (reason: string): { applies: false; reason: string } => ({ applies: false, reason });
 
@@ -144,46 +218,110 @@ function attempt<T>(method: () => T): Finding<T> {
   }
 }
 
-/** Why there is no first loading to feed the loading-curve methods, or null when there is. */
-function curveProblem(reduction: Finding<StagePoint[]>): string | null {
-  if (!reduction.applies) return `no stage points: ${reduction.reason}`;
-  return reduction.result.some((p) => p.branch === 'loading') ? null : 'the record has no loading stages';
+const f1 = (x: number) => x.toFixed(1);
+
+/**
+ * The zero (seating) correction, common practice: the gauges are zeroed at the seating pressure, so the
+ * seating point is the curve's origin, not a measurement. Without a seating stage the origin is the plan's
+ * seating pressure (or q = 0) at s = 0, taken as the zero reading.
+ */
+export function zeroCorrection(points: readonly StagePoint[], planSeatingKpa: number | undefined): ZeroCorrection {
+  const seating = points.filter((p) => p.branch === 'seating').at(-1);
+  const tail = 'It is no measurement: no fit uses it; readings between it and the first stage are interpolated from it.';
+  if (seating) {
+    const origin = { pressureKpa: seating.pressureKpa, settlementMm: seating.settlementMm };
+    return {
+      origin,
+      fromSeatingStage: true,
+      statement: `Origin of the curve: the end of the seating stage, q = ${f1(origin.pressureKpa)} kPa, s = ${origin.settlementMm.toFixed(2)} mm (the gauges are zeroed at the seating pressure). ${tail}`,
+    };
+  }
+  const firstLoad = points.find((p) => p.branch !== 'seating')?.pressureKpa ?? 0;
+  const q0 = planSeatingKpa !== undefined && planSeatingKpa < firstLoad ? planSeatingKpa : 0;
+  return {
+    origin: { pressureKpa: q0, settlementMm: 0 },
+    fromSeatingStage: false,
+    statement: `The record has no seating stage: the curve starts from q = ${f1(q0)} kPa, s = 0 (${q0 > 0 ? 'the plan’s seating pressure' : 'no load'}), taken as the zero reading. ${tail}`,
+  };
 }
 
-function chooseUltimate(methods: readonly AnyUltimateResult[], wanted: UltimateMethod | undefined): Finding<ChosenUltimate> {
-  const pick = (r: AnyUltimateResult, basis: ChosenUltimate['basis']): Finding<ChosenUltimate> =>
-    r.qUltKpa === null
-      ? notApplicable(`${r.label}: ${r.reason}`)
-      : { applies: true, result: { method: r.method, label: r.label, qUltKpa: r.qUltKpa, basis, formula: r.formula, source: r.source } };
-  if (wanted !== undefined) {
-    const chosen = methods.find((r) => r.method === wanted);
-    return chosen ? pick(chosen, 'engineer') : notApplicable(`unknown ultimate-pressure method "${wanted}"`);
+/**
+ * The loading curve of one application per load level: the `application`-th loading stage at each target,
+ * in test order, keeping only pressures above every earlier one (a repeated or re-approached level appears once).
+ */
+export function loadingEnvelope(points: readonly StagePoint[], targets: ReadonlyMap<number, number>, application = 1): StagePoint[] {
+  const seen = new Map<number, number>();
+  const out: StagePoint[] = [];
+  for (const p of points) {
+    if (p.branch !== 'loading') continue;
+    const level = targets.get(p.index) ?? p.pressureKpa;
+    const n = (seen.get(level) ?? 0) + 1;
+    seen.set(level, n);
+    if (n === application && (out.length === 0 || p.pressureKpa > out[out.length - 1].pressureKpa)) out.push(p);
   }
-  const determined = methods.filter((r) => r.qUltKpa !== null);
-  if (determined.length === 0) return notApplicable('no method determines an ultimate pressure from this curve');
-  return pick(
-    determined.reduce((a, b) => ((b.qUltKpa as number) < (a.qUltKpa as number) ? b : a)),
-    'lowest',
+  return out;
+}
+
+/**
+ * The load–release cycles of a repeated-loading test (DOMAIN §B.9; ASTM D1195 terms): each loading stage
+ * followed by a release, split into total, rebound and residual deflection from the curve's origin.
+ * Throws when no load level is applied more than once.
+ */
+export function repeatedCycles(points: readonly StagePoint[], targets: ReadonlyMap<number, number>, origin: CurvePoint): LoadCycle[] {
+  const pairs: { level: number; load: StagePoint; release: StagePoint }[] = [];
+  points.forEach((p, i) => {
+    const next = points[i + 1];
+    if (p.branch === 'loading' && next?.branch === 'unloading') pairs.push({ level: targets.get(p.index) ?? p.pressureKpa, load: p, release: next });
+  });
+  const counts = new Map<number, number>();
+  for (const pair of pairs) counts.set(pair.level, (counts.get(pair.level) ?? 0) + 1);
+  if (![...counts.values()].some((n) => n > 1)) throw new InterpretationInputError('stages', 'no load level is applied and released more than once');
+  const splits = cyclicSplit(
+    pairs.map((p) => ({ loadedMm: p.load.settlementMm, releasedMm: p.release.settlementMm })),
+    origin.settlementMm,
   );
+  const seen = new Map<number, number>();
+  return pairs.map((pair, i) => {
+    const application = (seen.get(pair.level) ?? 0) + 1;
+    seen.set(pair.level, application);
+    return { ...splits[i], levelKpa: pair.level, application, loadStage: pair.load.index, releaseStage: pair.release.index };
+  });
 }
 
 function defaultScaling(footing: RecordFooting): SettlementScaling {
   return footing.soilBehaviour === 'cohesive' ? { kind: 'clayLinear' } : { kind: 'terzaghiPeckSand' };
 }
 
+function plateName(plate: Plate): string {
+  return `${plate.sizeMm} mm ${plate.shape} plate`;
+}
+
+interface CorrectedCurve {
+  /** The measured loading points (no origin): what fits use. */
+  measured: readonly CurvePoint[];
+  /** Origin then measured points: what interpolation reads. */
+  withOrigin: readonly CurvePoint[];
+  problem: string | null;
+}
+
 function analyzeFooting(
   footing: RecordFooting,
   plate: Plate,
-  curve: { points: readonly CurvePoint[]; problem: string | null },
+  curve: CorrectedCurve,
   chosen: Finding<ChosenUltimate>,
   scaling: SettlementScaling,
+  columnLoadKn: number | undefined,
 ): FootingAnalysis {
   const plateWidthM = plate.sizeMm / 1000;
   const ultimate: FootingAnalysis['ultimate'] = chosen.applies
-    ? attempt(() => ({
-        ...footingUltimatePressure(chosen.result.qUltKpa, plateWidthM, footing.widthM, footing.soilBehaviour),
-        fromMethod: chosen.result.method,
-      }))
+    ? attempt(() => {
+        const bOverL = breadthOverLength(footing.shape, footing.widthM, footing.lengthM);
+        return {
+          ...footingUltimatePressure(chosen.result.qUltKpa, plateWidthM, footing.widthM, footing.soilBehaviour, bOverL),
+          fromMethod: chosen.result.method,
+          lowerBound: chosen.result.basis === 'lowerBound',
+        };
+      })
     : notApplicable(chosen.reason);
   const shear: Finding<ShearAllowable> = ultimate.applies
     ? attempt(() =>
@@ -195,24 +333,44 @@ function analyzeFooting(
         }),
       )
     : notApplicable(ultimate.reason);
+  const permissibleSettlementMm = footing.permissibleSettlementMm ?? 25;
   const settlement: Finding<SettlementAllowable> =
     curve.problem === null
-      ? attempt(() =>
-          settlementAllowable({
-            curve: curve.points,
-            plateWidthM,
-            footingWidthM: footing.widthM,
-            scaling,
-            permissibleSettlementMm: footing.permissibleSettlementMm,
-          }),
-        )
+      ? attempt(() => settlementAllowable({ curve: curve.withOrigin, plateWidthM, footingWidthM: footing.widthM, scaling, permissibleSettlementMm }))
       : notApplicable(curve.problem);
   const allowable: Finding<AllowableBearingPressure> = !shear.applies
     ? notApplicable(shear.reason)
     : !settlement.applies
       ? notApplicable(settlement.reason)
       : attempt(() => allowableBearingPressure(shear.result, settlement.result));
-  return { footing, plateWidthM, scaling, ultimate, shear, settlement, allowable };
+  const factorOfSafety = footing.factorOfSafety ?? 3;
+  const overburden = (footing.unitWeightKnM3 ?? 0) * (footing.foundationDepthM ?? 0);
+  const lowerBound = ultimate.applies && ultimate.result.lowerBound ? ' The shear check rests on the lower bound q_ult ≥ q_max, so it is on the safe side.' : '';
+  const statement =
+    `Net pressure at founding level (gross = net + γ·D_f = net + ${f1(overburden)} kPa); factor of safety ${factorOfSafety} on the net ultimate; ` +
+    `footing settlement limit ${permissibleSettlementMm} mm; settlement scaled by the ${scalingName(scaling)} from the ${plateName(plate)} to the ${footing.widthM} m ${footing.shape} footing.${lowerBound}`;
+  const widthForColumnLoad =
+    columnLoadKn === undefined
+      ? null
+      : curve.problem !== null
+        ? notApplicable(curve.problem)
+        : attempt(() => ({
+            ...designFootingWidth({ columnLoadKn, curve: curve.withOrigin, plateWidthM, scaling, permissibleSettlementMm }),
+            columnLoadKn,
+          }));
+  return {
+    footing,
+    plateWidthM,
+    plateLabel: plateName(plate),
+    scaling,
+    scalingName: scalingName(scaling),
+    ultimate,
+    shear,
+    settlement,
+    allowable,
+    basis: { pressure: 'net', factorOfSafety, permissibleSettlementMm, statement },
+    widthForColumnLoad,
+  };
 }
 
 /** E from the secant of the first loading between two fractions of its largest pressure (DOMAIN §B.7; EN 1997-2 K.2). */
@@ -225,7 +383,7 @@ function secantElasticModulus(curve: readonly CurvePoint[], plate: Plate, poisso
   if (fromMm === null || toMm === null)
     throw new InterpretationInputError('firstLoading', `the curve does not span ${+fromKpa.toFixed(1)}–${+toKpa.toFixed(1)} kPa`);
   const modulus = rigidPlateModulus({ plate, deltaPressureKpa: toKpa - fromKpa, deltaSettlementMm: toMm - fromMm, poisson });
-  const secant = `Δq, Δs: secant of the first loading between ${low} and ${high} of its largest pressure (linear interpolation of the stage points)`;
+  const secant = `Δq, Δs: secant of the first loading between ${low} and ${high} of its largest pressure (linear interpolation from the curve's origin)`;
   return { ...modulus, formula: `${modulus.formula}; ${secant}`, poisson, fromKpa, toKpa, fromMm, toMm };
 }
 
@@ -255,40 +413,111 @@ function stageTimeSettlement(stage: StageReadings, options: AnalyzeRecordOptions
   };
 }
 
+/** Why there is no first loading to feed the loading-curve methods, or null when there is. */
+function curveProblem(reduction: Finding<StagePoint[]>, envelope: readonly CurvePoint[], withOrigin: readonly CurvePoint[]): string | null {
+  if (!reduction.applies) return `no stage points: ${reduction.reason}`;
+  if (!reduction.result.some((p) => p.branch === 'loading')) return 'the record has no loading stages';
+  if (envelope.length === 0) return 'no load level has the application asked for';
+  try {
+    checkLoadingCurve(withOrigin, 'firstLoading');
+  } catch (error) {
+    if (error instanceof InterpretationInputError) return error.message;
+    throw error;
+  }
+  return null;
+}
+
 /**
- * Interprets a whole test record (PRODUCT §7): reduces the readings to stage points, then runs every
- * method that applies — ultimate pressure side by side, scaling to the record's footing with the allowable
- * pressure, k at 1.25 mm and at 10 psi, Ev1/Ev2 for a two-cycle test, E from the first loading, and the
- * time–settlement of each loading and reloading stage — with the standing cautions and scaling warnings.
- * A method that does not apply says why; none throws. Every figure keeps the formula and source of its method.
- * Linear in the number of readings.
+ * Interprets a whole test record (PRODUCT §7). Reduces the readings to stage points; applies the zero
+ * (seating) correction once, so every method reads the same curve (fits use the measured stages only,
+ * interpolation starts from the origin); then runs the methods the test's procedure calls for — ultimate
+ * pressure side by side, each set against the test (within it, a yield, extrapolated), the footing with its
+ * shape factor and allowable pressure, k labelled with its plate, Ev1/Ev2, E, the per-cycle split of a
+ * repeated-loading test, and the time–settlement of each stage — with cautions worked out for this plate
+ * and footing. A method that does not apply or is not shown says why; none throws. Linear in the readings.
  */
 export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions = {}): RecordAnalysis {
   const plate: Plate = record.plate;
+  const procedure = procedureReading(record.plan?.procedureId);
   const stages = toStageReadings(record);
-  const rule = options.reduction ?? record.plan?.reduction ?? { kind: 'endOfHold' };
+  const targets = new Map(stages.map((s) => [s.index, s.targetKpa]));
+  const rule = options.reduction ?? record.plan?.reduction ?? procedure.reduction;
   const reduction = attempt(() => reduceStages(stages, rule));
   const points = reduction.applies ? reduction.result : [];
-  const branches = evBranchesFromStages(points);
-  const firstLoading = branches.firstLoading.map((p) => ({ pressureKpa: p.pressureKpa, settlementMm: p.settlementMm }));
-  const problem = curveProblem(reduction);
-  const onCurve = <T>(method: () => T): Finding<T> => (problem === null ? attempt(method) : notApplicable(problem));
+  const zero = zeroCorrection(points, record.plan?.seatingPressureKpa);
+  const application = options.kApplication ?? procedure.kApplication;
+  const envelope = loadingEnvelope(points, targets, application).map((p) => ({ pressureKpa: p.pressureKpa, settlementMm: p.settlementMm }));
+  const firstLoading = [zero.origin, ...envelope];
+  const problem = curveProblem(reduction, envelope, firstLoading);
+  const curve: CorrectedCurve = { measured: envelope, withOrigin: firstLoading, problem };
+  const shown = (group: MethodGroup): string | null => {
+    const s = procedure.methods[group];
+    return s.shown ? null : `not shown for this procedure (${procedure.name}): ${s.why}`;
+  };
+  const run = <T>(group: MethodGroup | null, method: () => T): Finding<T> => {
+    const hidden = group === null ? null : shown(group);
+    if (hidden !== null) return notApplicable(hidden);
+    return problem === null ? attempt(method) : notApplicable(problem);
+  };
 
-  const ultimate = onCurve(() => compareUltimateMethods(firstLoading, plate.sizeMm, options.ultimate));
-  const chosenUltimate = ultimate.applies ? chooseUltimate(ultimate.result, options.ultimateMethod) : notApplicable(ultimate.reason);
+  const criterionMm = attempt(() => criterionSettlementMm(plate.sizeMm, options.ultimate?.criterion));
+  const extent = run(null, () => testExtent(envelope, zero.origin, criterionMm.applies ? criterionMm.result : plate.sizeMm / 10));
+  const ultimate = run('ultimate', () => {
+    const ext = extent.applies ? extent.result : testExtent(envelope, zero.origin, plate.sizeMm / 10);
+    return compareUltimateMethods(envelope, plate.sizeMm, { ...options.ultimate, origin: zero.origin }).map((r) => assessUltimate(r, ext));
+  });
+  const chosenUltimate: Finding<ChosenUltimate> =
+    ultimate.applies && extent.applies ? chooseUltimate(ultimate.result, extent.result, options.ultimateMethod) : notApplicable(ultimate.applies ? 'no test extent' : ultimate.reason);
   const footing = record.footing;
   const scaling = options.scaling ?? (footing ? defaultScaling(footing) : undefined);
   const poisson = options.poisson ?? (footing?.soilBehaviour === 'cohesive' ? 0.5 : 0.3);
 
-  const deformation = (): Finding<DeformationModuli> => {
+  const footingHidden = shown('footing');
+  const footingFinding: Finding<FootingAnalysis> =
+    footingHidden !== null
+      ? notApplicable(footingHidden)
+      : footing && scaling
+        ? { applies: true, result: analyzeFooting(footing, plate, curve, chosenUltimate, scaling, options.columnLoadKn) }
+        : notApplicable('the record names no footing to scale to');
+
+  const kSettlementMm = options.kSettlementMm ?? procedure.kSettlement.mm;
+  const label = kLabel(plate.sizeMm);
+  const atSettlement = run('subgradeModulus', () => ({ ...subgradeModulusAtSettlement(firstLoading, kSettlementMm), label }));
+  const atPressure = run('subgradeModulus', () => ({ ...subgradeModulusAtPressure(firstLoading, FIXED_PRESSURE_KPA), label }));
+  const standardPlate: SubgradeAnalysis['standardPlate'] = !atSettlement.applies
+    ? notApplicable(atSettlement.reason)
+    : atSettlement.result.kMnM3 === null
+      ? notApplicable(atSettlement.result.reason ?? 'k is not determined')
+      : (() => {
+          const k = kForStandardPlate(atSettlement.result.kMnM3, plate.sizeMm);
+          return k.kind === 'none' ? notApplicable(k.reason) : { applies: true as const, result: k };
+        })();
+
+  const deformation = (): Finding<StatedModuli> => {
+    const hidden = shown('deformationModuli');
+    if (hidden !== null) return notApplicable(hidden);
     if (problem !== null) return notApplicable(problem);
     if (plate.shape !== 'circular') return notApplicable('Ev (DIN 18134) is defined for a circular plate');
+    const branches = evBranchesFromStages(points);
     if (branches.secondLoading === undefined) return notApplicable('needs a reloading branch after the first loading (a two-cycle test)');
     const secondLoading = branches.secondLoading;
-    return attempt(() => deformationModuli({ firstLoading, secondLoading, plateDiameterMm: plate.sizeMm, convention: options.evConvention }));
+    // DIN 18134 fits each branch from its starting point (the zero reading after the preload), as the standard defines the branch.
+    return attempt(() => {
+      const d = deformationModuli({ firstLoading, secondLoading, plateDiameterMm: plate.sizeMm, convention: options.evConvention });
+      const convention = d.convention === 'branchMax' ? 'σ0max of each branch for its own Ev' : 'σ0max of the first loading for Ev1 and Ev2';
+      return { ...d, statement: `${plate.sizeMm} mm circular plate; ${convention} (σ0max = ${(d.ev1.sigma0maxMnM2 * 1000).toFixed(0)} kPa); stages read ${describeRule(rule)}.` };
+    });
   };
 
+  const cycles: Finding<LoadCycle[]> = (() => {
+    const hidden = shown('cycles');
+    if (hidden !== null) return notApplicable(hidden);
+    if (!reduction.applies) return notApplicable(`no stage points: ${reduction.reason}`);
+    return attempt(() => repeatedCycles(points, targets, zero.origin));
+  })();
+
   return {
+    analysisVersion: ANALYSIS_VERSION,
     summary: {
       metadata: record.metadata ?? {},
       procedureId: record.plan?.procedureId ?? null,
@@ -297,6 +526,7 @@ export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions 
       stages: stages.length,
       readings: stages.reduce((n, s) => n + s.readings.length, 0),
     },
+    procedure,
     reduction: {
       rule,
       points,
@@ -304,30 +534,40 @@ export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions 
       source:
         'Common practice: mean of opposite gauges = centre settlement of a rigid plate; end of hold for maintained-load tests, about 2 min for DIN 18134 stages',
     },
+    zeroCorrection: zero,
     firstLoading,
+    extent,
     ultimate,
     chosenUltimate,
-    footing:
-      footing && scaling
-        ? { applies: true, result: analyzeFooting(footing, plate, { points: firstLoading, problem }, chosenUltimate, scaling) }
-        : notApplicable('the record names no footing to scale to'),
+    footing: footingFinding,
     subgradeModulus: {
-      atSettlement: onCurve(() => subgradeModulusAtSettlement(firstLoading)),
-      atPressure: onCurve(() => subgradeModulusAtPressure(firstLoading)),
+      plateMm: plate.sizeMm,
+      application,
+      settlementBasis: options.kSettlementMm === undefined ? procedure.kSettlement.basis : `${options.kSettlementMm} mm (the engineer’s choice)`,
+      atSettlement,
+      atPressure,
+      standardPlate,
     },
     deformationModuli: deformation(),
-    elasticModulus: onCurve(() => secantElasticModulus(firstLoading, plate, poisson, options.elasticRange ?? [0.3, 0.7])),
+    elasticModulus: run('elasticModulus', () => secantElasticModulus(firstLoading, plate, poisson, options.elasticRange ?? [0.3, 0.7])),
+    cycles,
     timeSettlement: stages.filter((s) => s.branch === 'loading' || s.branch === 'reloading').map((s) => stageTimeSettlement(s, options)),
-    scalingWarnings: footing
-      ? scalingWarnings({
-          soil: footing.soilBehaviour,
-          plateWidthM: plate.sizeMm / 1000,
-          footingWidthM: footing.widthM,
-          scaling,
-          scalesUltimate: chosenUltimate.applies,
-          waterTableBelowTestM: record.ground?.waterTableBelowTestM,
-        })
-      : [],
-    cautions: [...STANDING_CAUTIONS],
+    scalingWarnings:
+      footing && footingFinding.applies
+        ? scalingWarnings({
+            soil: footing.soilBehaviour,
+            plateWidthM: plate.sizeMm / 1000,
+            footingWidthM: footing.widthM,
+            scaling,
+            scalesUltimate: chosenUltimate.applies,
+            waterTableBelowTestM: record.ground?.waterTableBelowTestM,
+          })
+        : [],
+    cautions: cautionsFor(plate, footing),
   };
+}
+
+/** A reduction rule in words. */
+export function describeRule(rule: ReductionRule): string {
+  return rule.kind === 'atTime' ? `${rule.minutes} min after each target was reached` : 'at the end of each hold';
 }

@@ -76,6 +76,54 @@ const SCALINGS = {
   bond: { formula: 'S_f = S_p·(B_f/B_p)^(n+1)', source: 'Bond (1961) Géotechnique 11(2)' },
 } as const;
 
+/** The names a practitioner reads for each settlement-scaling rule. */
+export const SCALING_NAMES: Record<SettlementScaling['kind'], string> = {
+  terzaghiPeckSand: 'Terzaghi & Peck sand rule',
+  dasSand: 'sand rule, Das form',
+  clayLinear: 'linear rule for clay',
+  bond: 'Bond’s rule',
+};
+
+/** The scaling rule in words, with Bond's exponent when it has one. */
+export function scalingName(scaling: SettlementScaling): string {
+  return scaling.kind === 'bond' ? `${SCALING_NAMES.bond} (n = ${scaling.exponentN})` : SCALING_NAMES[scaling.kind];
+}
+
+/** A footing or plate outline for shape factors: width over length (1 for a square or circle, 0 for a strip). */
+export function breadthOverLength(shape: 'square' | 'circular' | 'strip' | 'rectangular', widthM: number, lengthM?: number | null): number {
+  if (shape === 'square' || shape === 'circular') return 1;
+  if (shape === 'strip') return 0;
+  if (lengthM === undefined || lengthM === null) throw new InterpretationInputError('footing.lengthM', 'a rectangular footing needs its length for the shape factor');
+  if (lengthM < widthM) throw new InterpretationInputError('footing.lengthM', 'must not be shorter than the width');
+  return widthM / lengthM;
+}
+
+/** The shape factor ratio applied when a square or circular plate's ultimate pressure is carried to a footing of another shape. */
+export interface ShapeCorrection {
+  /** s_footing / s_plate, the multiplier on q_ult. */
+  factor: number;
+  plateFactor: number;
+  footingFactor: number;
+  formula: string;
+  source: string;
+}
+
+/**
+ * Shape factor of the bearing-capacity term that governs each soil: clay s_c = 1 + 0.2·B/L (Skempton 1951),
+ * sand s_γ = 1 − 0.4·B/L (De Beer 1970, Vesić 1973). A square or circular plate has B/L = 1. The factor on
+ * the plate's q_ult is s(footing)/s(plate): for a strip from a square plate 1/1.2 on clay, 1/0.6 on sand.
+ */
+export function shapeCorrection(soil: 'cohesionless' | 'cohesive', footingBOverL: number, plateBOverL = 1): ShapeCorrection {
+  const f = requireInRange(footingBOverL, 0, 1, 'footingBOverL');
+  const p = requireInRange(plateBOverL, 0, 1, 'plateBOverL');
+  if (soil === 'cohesive') {
+    const s = (r: number) => 1 + 0.2 * r;
+    return { factor: s(f) / s(p), plateFactor: s(p), footingFactor: s(f), formula: 's_c = 1 + 0.2·B/L; q_u,f × s_c,f/s_c,p', source: 'Skempton (1951) N_c of clays, shape factor 1 + 0.2·B/L' };
+  }
+  const s = (r: number) => 1 - 0.4 * r;
+  return { factor: s(f) / s(p), plateFactor: s(p), footingFactor: s(f), formula: 's_γ = 1 − 0.4·B/L; q_u,f × s_γ,f/s_γ,p', source: 'De Beer (1970); Vesić (1973) shape factor of the Nγ term, 1 − 0.4·B/L' };
+}
+
 /** S_f/S_p for a scaling choice. */
 export function settlementRatio(scaling: SettlementScaling, plateWidthM: number, footingWidthM: number): number {
   switch (scaling.kind) {
@@ -109,13 +157,24 @@ export function plateSettlementForFooting(footingSettlementMm: number, plateWidt
  * sand (surface, c = 0, q = ½γBNγ) q_u,f = q_u,p·B_f/B_p; clay (c·N_c independent of B) q_u,f = q_u,p.
  * A c–φ soil has no single-plate scaling (use two plate sizes): throws for `mixed`.
  */
-export function footingUltimatePressure(qUltPlateKpa: number, plateWidthM: number, footingWidthM: number, soil: ScalingSoil): { qUltKpa: number; formula: string; source: string } {
+export function footingUltimatePressure(
+  qUltPlateKpa: number,
+  plateWidthM: number,
+  footingWidthM: number,
+  soil: ScalingSoil,
+  /** Footing width over length for the shape factor (1 square or circle, 0 strip); absent = same shape as the plate, no factor. */
+  footingBOverL?: number,
+): { qUltKpa: number; formula: string; source: string; shape: ShapeCorrection | null } {
   const [bp, bf] = widths(plateWidthM, footingWidthM);
   const qp = requirePositive(qUltPlateKpa, 'qUltPlateKpa');
   const source = 'Das, Principles of Foundation Engineering; Punmia; Ranjan & Rao';
-  if (soil === 'cohesionless') return { qUltKpa: (qp * bf) / bp, formula: 'q_u,f = q_u,p·B_f/B_p', source };
-  if (soil === 'cohesive') return { qUltKpa: qp, formula: 'q_u,f = q_u,p', source };
-  throw new InterpretationInputError('soil', 'a c–φ soil has no single-plate scaling of the ultimate pressure: test two plate sizes (Housel)');
+  if (soil === 'mixed') throw new InterpretationInputError('soil', 'a c–φ soil has no single-plate scaling of the ultimate pressure: test two plate sizes (Housel)');
+  const shape = footingBOverL === undefined ? null : shapeCorrection(soil, footingBOverL);
+  const factor = shape?.factor ?? 1;
+  const withShape = (formula: string) => (shape ? `${formula}·s_f/s_p (shape factor ${shape.factor.toFixed(3)})` : formula);
+  const sources = shape ? `${source}; ${shape.source}` : source;
+  if (soil === 'cohesionless') return { qUltKpa: ((qp * bf) / bp) * factor, formula: withShape('q_u,f = q_u,p·B_f/B_p'), source: sources, shape };
+  return { qUltKpa: qp * factor, formula: withShape('q_u,f = q_u,p'), source: sources, shape };
 }
 
 /** Input of {@link scalingWarnings}. */

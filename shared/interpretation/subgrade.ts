@@ -169,3 +169,42 @@ export function subgradeModulusFromCbr(cbrPercent: number): CbrCorrelation[] {
     fromMnM3('DMRB', (cbr / 6.1e-8) ** (1 / 1.733) / 1000, null, 'CBR = 6.1×10⁻⁸·k762^1.733 (k762 in kPa/m), inverted', 'UK DMRB IAN 73/06'),
   ];
 }
+
+/** Plates the k conventions of pavement design are defined on, mm: 750 (IRC:58) and 762 = 30 in (ASTM, US Army Corps, DIN ks). */
+export const STANDARD_K_PLATES_MM = [750, 762] as const;
+
+/** "k, 300 mm plate": every k is printed with the plate it was measured on. */
+export function kLabel(plateMm: number): string {
+  return `k, ${+plateMm.toFixed(1)} mm plate`;
+}
+
+/** k for the 750/762 mm plate: measured on it, or converted by a named rule with its caution. */
+export type StandardPlateK =
+  | { kind: 'measured'; kMnM3: number; kPci: number; label: string; caution: null; formula: string; source: string }
+  | { kind: 'converted'; kMnM3: number; kPci: number; label: string; caution: string; formula: string; source: string }
+  | { kind: 'none'; reason: string };
+
+/**
+ * The 750/762 mm plate value of a measured k: the same value when the plate is one of them; from a 300 mm
+ * plate by the IRC:58 rule k_750 = ½·k_300 (a rule of thumb, printed with its caution); none otherwise,
+ * since no conversion between other plate sizes is named by a standard here.
+ */
+export function kForStandardPlate(kMnM3: number, plateMm: number): StandardPlateK {
+  const k = requirePositive(kMnM3, 'kMnM3');
+  if ((STANDARD_K_PLATES_MM as readonly number[]).includes(plateMm)) {
+    return { kind: 'measured', kMnM3: k, kPci: mnPerM3ToPci(k), label: kLabel(plateMm), caution: null, formula: 'measured on the plate itself', source: 'the test' };
+  }
+  if (plateMm === 300) {
+    const c = ircK750FromK300(k);
+    return {
+      kind: 'converted',
+      kMnM3: c.kMnM3,
+      kPci: mnPerM3ToPci(c.kMnM3),
+      label: 'k, 750 mm plate by the IRC:58 conversion',
+      caution: 'A conversion, not a measurement: the ratio between plate sizes depends on the soil and its layering; a test on the 750/762 mm plate is the reference.',
+      formula: c.formula,
+      source: 'IRC:58 (k of the 750 mm plate = ½ k of the 300 mm plate; from memory)',
+    };
+  }
+  return { kind: 'none', reason: `no standard conversion from a ${plateMm} mm plate to the 750/762 mm plate: test with the large plate for a design k` };
+}

@@ -1,6 +1,10 @@
 import { type CurvePoint, checkLoadingCurve, pressureAtSettlement } from './curve';
 import { InterpretationInputError, requireInRange, requirePositive } from './input-checks';
 import { fitLine, type LineFit } from './regression';
+import { type BreakSignificance, breakSignificance, roundingSd } from './significance';
+
+/** Reading resolution assumed when none is given: a 0.01 mm dial or digital gauge (common practice). */
+export const DEFAULT_RESOLUTION_MM = 0.01;
 
 /** The ultimate-pressure methods of DOMAIN §B.2. */
 export type UltimateMethod = 'logLogIntersection' | 'tangentIntersection' | 'hyperbolic' | 'settlementCriterion' | 'brinchHansen80';
@@ -40,6 +44,13 @@ function isSteeper(a: number, b: number): boolean {
   return b - a > 1e-9 * Math.max(1, Math.abs(a), Math.abs(b));
 }
 
+const TOO_FEW_FOR_NOISE = 'too few points to tell a break from reading noise (five or more needed)';
+
+/** Why a break that is within reading noise is not a break. */
+function noBreakReason(s: BreakSignificance): string {
+  return `no significant break: two lines fit no better than one straight line plus reading noise (p = ${s.pValue.toPrecision(2)}, needs < ${s.threshold.toPrecision(2)})`;
+}
+
 // ---------------------------------------------------------------------------------------------------
 // Log–log two-straight-line intersection
 
@@ -52,6 +63,8 @@ export interface LogLogOptions {
   firstLineEnd?: number;
   /** Fewest points on each line when the split is chosen automatically. Default 2 (the geometric minimum). */
   minPointsPerLine?: number;
+  /** Resolution of the settlement readings, mm, for the significance of the break. Default 0.01. */
+  resolutionMm?: number;
 }
 
 /** Working of the log–log method. Lines are log10 s = intercept + slope·log10 q (s in mm, q in kPa). */
@@ -64,6 +77,8 @@ export interface LogLogDetails {
   candidates: { firstLineEnd: number; sse: number }[];
   /** Points left out because log q or log s is undefined (q or s ≤ 0). */
   excludedIndices: number[];
+  /** Whether the two lines fit significantly better than one; null with fewer than five points. */
+  significance: BreakSignificance | null;
 }
 
 const LOG_LOG = {
@@ -112,6 +127,11 @@ export function logLogIntersection(points: readonly CurvePoint[], options: LogLo
     pos = used.findIndex((u) => u.i === best.firstLineEnd);
   }
   const { first: firstLine, second: secondLine } = splitAt(pos);
+  // Rounding s to the resolution moves log s by about sd/(s·ln 10); what that alone leaves over four parameters.
+  const sd = roundingSd(requirePositive(options.resolutionMm ?? DEFAULT_RESOLUTION_MM, 'options.resolutionMm'));
+  const noise = used.reduce((sum, u) => sum + (sd / (10 ** u.y * Math.LN10)) ** 2, 0) * Math.max(0, used.length - 4) / used.length;
+  const part = (from: number, to: number) => ({ xs: used.slice(from, to).map((u) => u.x), ys: used.slice(from, to).map((u) => u.y) });
+  const significance = breakSignificance(part(0, pos + 1), part(pos + 1, used.length), noise, Math.max(1, candidates.length));
   const details: LogLogDetails = {
     firstLineEnd: used[pos].i,
     chosenBy: options.firstLineEnd === undefined ? 'leastSquares' : 'engineer',
@@ -119,9 +139,12 @@ export function logLogIntersection(points: readonly CurvePoint[], options: LogLo
     secondLine,
     candidates,
     excludedIndices,
+    significance,
   };
   const fit: FitQuality = { measure: 'sse', value: firstLine.sse + secondLine.sse };
   if (!isSteeper(firstLine.slope, secondLine.slope)) return result(LOG_LOG, { fit, details, reason: 'no break: the second line is not steeper than the first' });
+  if (significance === null) return result(LOG_LOG, { fit, details, reason: TOO_FEW_FOR_NOISE });
+  if (!significance.significant) return result(LOG_LOG, { fit, details, reason: noBreakReason(significance) });
   const x = (secondLine.intercept - firstLine.intercept) / (firstLine.slope - secondLine.slope);
   if (x < used[0].x || x > used[used.length - 1].x) return result(LOG_LOG, { fit, details, reason: 'the two lines meet outside the tested pressure range' });
   return result(LOG_LOG, { qUltKpa: 10 ** x, sUltMm: 10 ** (firstLine.intercept + firstLine.slope * x), fit, details });
@@ -136,12 +159,16 @@ export interface TangentOptions {
   initialPoints?: number;
   /** Points (from the end of the curve) that define the final tangent. Default 3. */
   finalPoints?: number;
+  /** Resolution of the settlement readings, mm, for the significance of the break. Default 0.01. */
+  resolutionMm?: number;
 }
 
 /** Working of the tangent method. Tangents are s = intercept + slope·q (s in mm, q in kPa). */
 export interface TangentDetails {
   initial: LineFit;
   final: LineFit;
+  /** Whether two tangents fit their points significantly better than one line; null with fewer than five points. */
+  significance: BreakSignificance | null;
 }
 
 const TANGENT = {
@@ -172,11 +199,17 @@ export function tangentIntersection(points: readonly CurvePoint[], options: Tang
       part.map((p) => p.pressureKpa),
       part.map((p) => p.settlementMm),
     );
-  const initial = line(points.slice(0, nInitial));
-  const final = line(points.slice(points.length - nFinal));
-  const details = { initial, final };
+  const [head, tail] = [points.slice(0, nInitial), points.slice(points.length - nFinal)];
+  const initial = line(head);
+  const final = line(tail);
+  const sd = roundingSd(requirePositive(options.resolutionMm ?? DEFAULT_RESOLUTION_MM, 'options.resolutionMm'));
+  const xy = (part: readonly CurvePoint[]) => ({ xs: part.map((p) => p.pressureKpa), ys: part.map((p) => p.settlementMm) });
+  const significance = breakSignificance(xy(head), xy(tail), sd * sd * Math.max(0, nInitial + nFinal - 4));
+  const details = { initial, final, significance };
   const fit: FitQuality = { measure: 'sse', value: initial.sse + final.sse };
   if (!isSteeper(initial.slope, final.slope)) return result(TANGENT, { fit, details, reason: 'the final tangent is not steeper than the initial one' });
+  if (significance === null) return result(TANGENT, { fit, details, reason: TOO_FEW_FOR_NOISE });
+  if (!significance.significant) return result(TANGENT, { fit, details, reason: noBreakReason(significance) });
   const q = (initial.intercept - final.intercept) / (final.slope - initial.slope);
   if (q < points[0].pressureKpa || q > points[points.length - 1].pressureKpa) {
     return result(TANGENT, { fit, details, reason: 'the tangents cross outside the tested pressure range' });
@@ -218,7 +251,12 @@ const HYPERBOLIC = {
  * With `criterionSettlementMm` also gives q there by the hyperbola, q = s/(a + b·s), and by linear
  * interpolation of the data. Null when fewer than three points have q > 0 or b ≤ 0 (no asymptote).
  */
-export function hyperbolicUltimate(points: readonly CurvePoint[], criterionSettlementMm?: number): UltimateResult<'hyperbolic', HyperbolicDetails> {
+export function hyperbolicUltimate(
+  points: readonly CurvePoint[],
+  criterionSettlementMm?: number,
+  /** The curve read by interpolation at the criterion: default `points`; the zero-corrected curve with its origin when there is one. */
+  interpolationCurve: readonly CurvePoint[] = points,
+): UltimateResult<'hyperbolic', HyperbolicDetails> {
   checkLoadingCurve(points);
   if (criterionSettlementMm !== undefined) requirePositive(criterionSettlementMm, 'criterionSettlementMm');
   const excludedIndices = points.flatMap((p, i) => (p.pressureKpa > 0 ? [] : [i]));
@@ -237,7 +275,7 @@ export function hyperbolicUltimate(points: readonly CurvePoint[], criterionSettl
     atCriterion:
       criterionSettlementMm === undefined
         ? null
-        : { settlementMm: criterionSettlementMm, byHyperbolaKpa: onHyperbola(criterionSettlementMm), byInterpolationKpa: pressureAtSettlement(points, criterionSettlementMm) },
+        : { settlementMm: criterionSettlementMm, byHyperbolaKpa: onHyperbola(criterionSettlementMm), byInterpolationKpa: pressureAtSettlement(interpolationCurve, criterionSettlementMm) },
     excludedIndices,
   };
   const fit: FitQuality = { measure: 'r2', value: line.r2 };
@@ -358,6 +396,14 @@ export interface CompareUltimateOptions {
   tangent?: TangentOptions;
   /** Settlement criterion, also used for the hyperbola's q at the criterion. Default 10 % of the width. */
   criterion?: SettlementCriterionOptions;
+  /**
+   * The curve's origin (the seating point: the pressure at which the gauges were zeroed, s = 0). It is no
+   * measurement, so no fit uses it; the methods that interpolate the curve (settlement criterion, the
+   * hyperbola's q at the criterion) start from it. Default: none.
+   */
+  origin?: CurvePoint;
+  /** Resolution of the settlement readings, mm, for the significance of a break. Default 0.01. */
+  resolutionMm?: number;
 }
 
 /** A result of any ultimate-pressure method, discriminated by `method`. */
@@ -375,11 +421,14 @@ export type AnyUltimateResult =
 export function compareUltimateMethods(points: readonly CurvePoint[], plateWidthMm: number, options: CompareUltimateOptions = {}): AnyUltimateResult[] {
   checkLoadingCurve(points);
   const criterionMm = criterionSettlementMm(plateWidthMm, options.criterion);
+  const interpolated = options.origin ? [options.origin, ...points] : points;
+  if (options.origin) checkLoadingCurve(interpolated, 'origin and points');
+  const resolution = options.resolutionMm === undefined ? {} : { resolutionMm: options.resolutionMm };
   return [
-    logLogIntersection(points, options.logLog),
-    tangentIntersection(points, options.tangent),
-    hyperbolicUltimate(points, criterionMm),
-    settlementCriterionUltimate(points, plateWidthMm, options.criterion),
+    logLogIntersection(points, { ...resolution, ...options.logLog }),
+    tangentIntersection(points, { ...resolution, ...options.tangent }),
+    hyperbolicUltimate(points, criterionMm, interpolated),
+    settlementCriterionUltimate(interpolated, plateWidthMm, options.criterion),
     brinchHansenUltimate(points),
   ];
 }

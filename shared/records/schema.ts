@@ -81,6 +81,8 @@ const groundSchema = z.strictObject({
 const footingSchema = z.strictObject({
   shape: planFooting.shape,
   widthM: planFooting.widthM,
+  /** Length of a rectangular footing, m (its shape factor needs it). */
+  lengthM: z.number().positive().max(200).optional(),
   soilBehaviour: planFooting.soilBehaviour,
   /** Depth of the footing base below ground, m (net pressure γ·D_f). */
   foundationDepthM: z.number().min(0).max(50).optional(),

@@ -35,15 +35,20 @@ function scratchFile(name: string, text: string): string {
 }
 
 const ANALYSIS_KEYS = [
+  'analysisVersion',
   'summary',
+  'procedure',
   'reduction',
+  'zeroCorrection',
   'firstLoading',
+  'extent',
   'ultimate',
   'chosenUltimate',
   'footing',
   'subgradeModulus',
   'deformationModuli',
   'elasticModulus',
+  'cycles',
   'timeSettlement',
   'scalingWarnings',
   'cautions',

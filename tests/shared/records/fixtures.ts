@@ -16,3 +16,15 @@ export function fixtureRecord(name: string): TestRecord {
 
 /** A deep copy to break on purpose. */
 export const copy = <T>(value: T): T => structuredClone(value);
+
+/** The result of a finding that must apply. */
+export function result<T>(finding: { applies: true; result: T } | { applies: false; reason: string }): T {
+  if (!finding.applies) return expect.fail(`not applicable: ${finding.reason}`);
+  return finding.result;
+}
+
+/** The reason of a finding that must not apply. */
+export function reason(finding: { applies: true } | { applies: false; reason: string }): string {
+  if (finding.applies) return expect.fail('expected the method not to apply');
+  return finding.reason;
+}
