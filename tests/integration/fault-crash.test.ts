@@ -63,7 +63,7 @@ describe('server killed mid-hold (QUALITY R1)', () => {
     await waitFor(client, runId, (v) => v.phase === 'hold-met' && v.stageIndex === 0, 'seating');
     await command(client, runId, { type: 'advance' });
     const before = await waitFor(client, runId, (v) => v.phase === 'holding' && v.stageIndex === 1 && v.lastSeq > 200, 'holding stage 1');
-    await new Promise((r) => setTimeout(r, 1000));
+    await waitFor(client, runId, (v) => v.lastSeq > before.lastSeq + 30, 'more samples in the hold'); // killed mid-hold, not at its start
 
     await server.kill('SIGKILL');
     const journaled = journaledSeqs(runId);
