@@ -1,8 +1,8 @@
 import type { Server } from 'socket.io';
-import { rigWatchInput, runJoinInput } from '../../shared/realtime/events';
+import { rigWatchInput, runJoinInput, runResendInput } from '../../shared/realtime/events';
 import { notFound } from '../http/errors';
 import type { RunManager } from '../runs/run-manager';
-import { samplesAfter, toBatch } from '../runs/samples-query';
+import { sendRange, stageStartSeq, summaryBefore } from './stream';
 import type { RigMonitor } from '../acquisition/rig-monitor';
 import { STAFF } from '../auth/permissions';
 import { type AppSocket, socketEvent } from './socket-server';
@@ -46,20 +46,30 @@ export const socketEvents = (monitor: RigMonitor, runs: RunManager, io: Server) 
     handler: async (socket, { runId, afterSeq }) => {
       const engine = await runs.load(runId);
       if (!engine) throw notFound('Run');
+      // In the room first, so every sample secured after the backfill's last read arrives live; the
+      // overlap is the consumer's to drop (it orders by seq, see shared/realtime/sample-sequencer).
       await socket.join(runRoom(runId));
       socket.once('disconnect', () => void updateWatchers(io, runs, runId));
       await updateWatchers(io, runs, runId);
-      socket.emit('run:view', engine.view());
-      // Backfill everything after the client's last sequence number, archived first.
-      let from = afterSeq;
-      for (;;) {
-        const rows = await samplesAfter(runs.archiver.sequelize, runId, from, 20_000);
-        if (rows.length === 0) break;
-        socket.emit('run:samples', toBatch(runId, rows));
-        from = rows[rows.length - 1].seq;
+      const view = engine.view();
+      socket.emit('run:view', view);
+      let after = afterSeq;
+      if (after === undefined) {
+        // A first join: the current stage in full, everything before it as per-minute min/max.
+        after = await stageStartSeq(runs, runId, view.stageStartedAtMs, view.lastSeq);
+        const summary = await summaryBefore(runs, runId, view.stageStartedAtMs);
+        if (summary) socket.emit('run:summary', summary);
       }
-      const rest = runs.unarchived(runId, from);
-      if (rest.length > 0) socket.emit('run:samples', toBatch(runId, rest));
+      await sendRange(socket, runs, runId, after, Number.POSITIVE_INFINITY);
+    },
+  }),
+  socketEvent({
+    event: 'run:resend',
+    access: STAFF,
+    input: runResendInput,
+    handler: async (socket, { runId, after, through }) => {
+      if (!socket.rooms.has(runRoom(runId))) throw notFound('Run');
+      await sendRange(socket, runs, runId, after, through);
     },
   }),
   socketEvent({

@@ -43,6 +43,13 @@ export class Archiver {
     return this.queue.length;
   }
 
+  /** A run's rows still waiting for the database with seq above `afterSeq`, oldest first (rows queue in seq order per run). */
+  queued(runId: number, afterSeq: number): SampleRow[] {
+    const rows: SampleRow[] = [];
+    for (const q of this.queue) if (q.runId === runId && q.row.seq > afterSeq) rows.push(q.row);
+    return rows;
+  }
+
   enqueue(runId: number, rows: SampleRow[]): void {
     for (const row of rows) this.queue.push({ runId, row });
     this.kick();

@@ -219,9 +219,16 @@ export class RunManager {
     return series;
   }
 
-  /** Journaled samples not yet in the database (for a complete backfill). */
-  unarchived(runId: number, afterSeq: number): SampleRow[] {
-    return (this.journals.get(runId)?.unarchived() ?? []).filter((r) => r.seq > afterSeq);
+  /**
+   * Where a run's stream stands, read in one synchronous step (for a gap-free backfill): every sample
+   * at or below `archived` is in the database, and `queued` holds every secured one above it with a
+   * seq above `afterSeq`. `archived` is infinite when nothing waits and no journal is open.
+   */
+  streamTail(runId: number, afterSeq: number): { archived: number; queued: SampleRow[] } {
+    const waiting = this.archiver.queued(runId, 0);
+    const journal = this.journals.get(runId);
+    const archived = journal ? journal.archivedUpTo : waiting.length > 0 ? waiting[0].seq - 1 : Number.POSITIVE_INFINITY;
+    return { archived, queued: waiting.filter((r) => r.seq > afterSeq) };
   }
 
   async stopAll(): Promise<void> {

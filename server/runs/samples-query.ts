@@ -6,13 +6,19 @@ export function toBatch(runId: number, rows: readonly Pick<SampleRow, 'seq' | 't
   return { runId, seq: rows.map((r) => r.seq), t: rows.map((r) => r.tMs), channel: rows.map((r) => r.channel), value: rows.map((r) => r.value) };
 }
 
-/** Archived samples after a sequence number, oldest first (for backfill after a reconnect). */
-export async function samplesAfter(sequelize: Sequelize, runId: number, afterSeq: number, limit: number): Promise<SampleRow[]> {
-  const rows = (await sequelize.query('SELECT seq, t_ms AS tMs, channel, raw, value, status FROM samples WHERE run_id = ? AND seq > ? ORDER BY seq LIMIT ?', {
-    replacements: [runId, afterSeq, limit],
+/** Archived samples after a sequence number (up to `throughSeq` when given), oldest first (for backfill after a reconnect). */
+export async function samplesAfter(sequelize: Sequelize, runId: number, afterSeq: number, limit: number, throughSeq = Number.MAX_SAFE_INTEGER): Promise<SampleRow[]> {
+  const rows = (await sequelize.query('SELECT seq, t_ms AS tMs, channel, raw, value, status FROM samples WHERE run_id = ? AND seq > ? AND seq <= ? ORDER BY seq LIMIT ?', {
+    replacements: [runId, afterSeq, throughSeq, limit],
     type: QueryTypes.SELECT,
   })) as SampleRow[];
   return rows.map((r) => ({ ...r, seq: Number(r.seq), tMs: Number(r.tMs) }));
+}
+
+/** Seq of the earliest archived sample at or after a run time, ms (null when none), through the (run_id, t_ms) index. */
+export async function firstSeqFrom(sequelize: Sequelize, runId: number, fromMs: number): Promise<number | null> {
+  const [r] = (await sequelize.query('SELECT seq FROM samples WHERE run_id = ? AND t_ms >= ? ORDER BY t_ms, seq LIMIT 1', { replacements: [runId, fromMs], type: QueryTypes.SELECT })) as { seq: number }[];
+  return r ? Number(r.seq) : null;
 }
 
 /**

@@ -1,10 +1,19 @@
 /** Typed socket.io events between the server and browsers (the gateway link uses `ws`, not these). */
 import { z } from 'zod';
 import type { SampleStatus } from '../devices/schema';
+import type { SampleSummary } from '../runs/samples';
 import type { RunView } from '../schemas/runs';
 
+/** Most seqs one resend may ask for (a consumer asks for more in steps). */
+export const RESEND_MAX = 100_000;
+
 export const rigWatchInput = z.object({ rigId: z.number().int().positive() });
-export const runJoinInput = z.object({ runId: z.number().int().positive(), afterSeq: z.number().int().min(0).default(0) });
+/** `afterSeq` continues after that sample; without it (a first join) the stream starts at the current stage, the rest summarised. */
+export const runJoinInput = z.object({ runId: z.number().int().positive(), afterSeq: z.number().int().min(0).optional() });
+/** Asks again for a range of a run's stream that a consumer found missing (at most `RESEND_MAX` seqs). */
+export const runResendInput = z
+  .object({ runId: z.number().int().positive(), after: z.number().int().min(0), through: z.number().int().min(1) })
+  .refine((r) => r.through > r.after && r.through - r.after <= RESEND_MAX, { message: `through must lie above after, by at most ${RESEND_MAX}`, path: ['through'] });
 
 /** One channel as the device check page shows it. */
 export interface ChannelLive {
@@ -35,19 +44,32 @@ export interface RigLive {
 
 export type Ack = { ok: true } | { ok: false; error: string };
 
-/** Samples in columns (seq, run time ms, channel index, value in micro-units or null). */
+/** A range of seqs, `after` < seq ≤ `through`. */
+export interface SeqSpan {
+  after: number;
+  through: number;
+}
+
+/** Samples in columns (seq, run time ms, channel index, value in micro-units or null), in seq order. */
 export interface SampleBatch {
   runId: number;
   seq: number[];
   t: number[];
   channel: number[];
   value: (number | null)[];
+  /**
+   * Set on backfill and resend answers: the batch holds every sample of the run in this range, so a
+   * seq missing inside it never existed. Live batches leave it out.
+   */
+  span?: SeqSpan;
 }
 
 export interface ServerToClientEvents {
   'rig:live': (live: RigLive) => void;
   'run:view': (view: RunView) => void;
   'run:samples': (batch: SampleBatch) => void;
+  /** On a first join, before its samples: per-minute min/max of everything before the current stage. */
+  'run:summary': (summary: SampleSummary) => void;
 }
 
 export interface ClientToServerEvents {
@@ -55,4 +77,5 @@ export interface ClientToServerEvents {
   'rig:unwatch': (input: z.input<typeof rigWatchInput>, ack: (result: Ack) => void) => void;
   'run:join': (input: z.input<typeof runJoinInput>, ack: (result: Ack) => void) => void;
   'run:leave': (input: z.input<typeof runJoinInput>, ack: (result: Ack) => void) => void;
+  'run:resend': (input: z.input<typeof runResendInput>, ack: (result: Ack) => void) => void;
 }
