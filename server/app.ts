@@ -94,7 +94,7 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, deps: AppD
     ...correctionRoutes,
     ...interpretationRoutes,
     ...importRoutes,
-    ...signoffRoutes,
+    ...signoffRoutes(config),
     ...reportRoutes(config.dataDir),
     ...mailboxRoutes(config.dataDir),
   ];

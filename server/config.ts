@@ -19,6 +19,11 @@ export interface ServerConfig {
   /** Sign-in attempts allowed per account and address in `loginWindowMs`. */
   loginAttempts: number;
   loginWindowMs: number;
+  /**
+   * A run is signed by someone other than the engineer who submitted it (default on; `SSCOPE_SECOND_SIGNER=0`
+   * turns it off for a one-engineer office, and each such signature is audited as an exception).
+   */
+  secondSigner: boolean;
 }
 
 export const ROOT_DIR = path.resolve(import.meta.dirname, '..');
@@ -43,6 +48,7 @@ export function defaultConfig(overrides: Partial<ServerConfig> = {}): ServerConf
     sessionAbsoluteMs: 24 * 3600_000,
     loginAttempts: 10,
     loginWindowMs: 15 * 60_000,
+    secondSigner: env.SSCOPE_SECOND_SIGNER !== '0',
     ...overrides,
   };
 }

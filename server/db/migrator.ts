@@ -9,6 +9,7 @@ import * as corrections from './migrations/0006-corrections';
 import * as rollups from './migrations/0007-sample-rollups';
 import * as photos from './migrations/0008-photos';
 import * as instrumentFields from './migrations/0009-instrument-fields';
+import * as signedReports from './migrations/0010-signed-reports';
 
 export interface Migration {
   up(qi: QueryInterface, S: typeof Sequelize): Promise<void>;
@@ -26,6 +27,7 @@ const MIGRATIONS: [string, Migration][] = [
   ['0007-sample-rollups', rollups],
   ['0008-photos', photos],
   ['0009-instrument-fields', instrumentFields],
+  ['0010-signed-reports', signedReports],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

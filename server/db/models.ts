@@ -4,7 +4,7 @@ import { CalibrationRecord } from '../models/calibration-record';
 import { SampleCorrection } from '../models/correction';
 import { Instrument } from '../models/instrument';
 import { MailMessage } from '../models/mail-message';
-import { Signature, Signoff } from '../models/signoff';
+import { Signature, SignedReport, Signoff } from '../models/signoff';
 import { Interpretation, RunRecord } from '../models/interpretation';
 import { Organization } from '../models/organization';
 import { Photo } from '../models/photo';
@@ -19,7 +19,7 @@ import { User } from '../models/user';
 
 /** Initialises every model on one Sequelize instance, then wires the associations. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry, Instrument, CalibrationRecord, Rig, Run, RunEvent, RunRecord, Interpretation, Signoff, Signature, MailMessage, SampleCorrection, Photo]) model.initModel(sequelize);
+  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry, Instrument, CalibrationRecord, Rig, Run, RunEvent, RunRecord, Interpretation, Signoff, Signature, SignedReport, MailMessage, SampleCorrection, Photo]) model.initModel(sequelize);
   defineSessionModel(sequelize);
   Organization.hasMany(User, { foreignKey: 'organizationId' });
   User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });

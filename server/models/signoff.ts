@@ -74,3 +74,33 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
     );
   }
 }
+
+/**
+ * The sealed report of one signature: the canonical JSON of everything the report showed at signing
+ * (its SHA-256 is the signature's `dataHash`) and the PDF rendered then, with its SHA-256. Written once.
+ */
+export class SignedReport extends Model<InferAttributes<SignedReport>, InferCreationAttributes<SignedReport>> {
+  declare signatureId: number;
+  declare runId: number;
+  /** Canonical JSON text, exactly the bytes hashed. */
+  declare snapshot: string;
+  declare snapshotHash: string;
+  declare pdf: Buffer;
+  declare pdfHash: string;
+  declare createdAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    SignedReport.init(
+      {
+        signatureId: { type: DataTypes.INTEGER.UNSIGNED, primaryKey: true },
+        runId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
+        snapshot: { type: DataTypes.TEXT('long'), allowNull: false },
+        snapshotHash: { type: DataTypes.CHAR(64), allowNull: false },
+        pdf: { type: DataTypes.BLOB('long'), allowNull: false },
+        pdfHash: { type: DataTypes.CHAR(64), allowNull: false },
+        createdAt: DataTypes.DATE(3),
+      },
+      { sequelize, tableName: 'signed_reports', updatedAt: false },
+    );
+  }
+}

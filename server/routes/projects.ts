@@ -15,6 +15,9 @@ async function assertOrganization(id: number | undefined) {
   if (id !== undefined && !(await Organization.findByPk(id))) throw badRequest('organizationId: no such organisation', 'organizationId');
 }
 
+/** Project fields a signed report shows or depends on (the organisation decides which client sees it). */
+const REPORTED_PROJECT_FIELDS = ['code', 'name', 'site', 'address', 'organizationId'] as const;
+
 const withOrganization = { include: [{ model: Organization, as: 'organization' }] };
 
 export const projectRoutes = [
@@ -60,8 +63,8 @@ export const projectRoutes = [
     handler: async ({ params, body, user }) => {
       await assertOrganization(body.organizationId);
       const project = await loadProject(user!, params.id);
-      // The project's name and site are written into its recorded runs' records.
-      if (body.name !== undefined || body.site !== undefined) await assertNoSignedRunFrom({ projectId: project.id });
+      // What a report prints of the project (and the organisation that may read it) stays as signed; notes are not printed.
+      if (REPORTED_PROJECT_FIELDS.some((f) => body[f] !== undefined)) await assertNoSignedRunFrom({ projectId: project.id });
       const before = project.get({ plain: true });
       await audited(
         (transaction) => project.update(body, { transaction }),

@@ -6,6 +6,7 @@ import { listReports, reportRunFor } from '../services/report-access';
 import { loadReportData } from '../services/report-data';
 import { renderReportPdf } from '../services/report-pdf';
 import { loadRunRecord } from '../services/run-record';
+import { sealedReport } from '../services/signoff';
 
 interface ReportFile {
   name: string;
@@ -37,14 +38,15 @@ export const reportRoutes = (dataDir: string) => [
     summary: 'Signed reports: a client’s own organisation’s, or every signed run for staff',
     handler: async ({ user }) => ({ items: await listReports(user!) }),
   }),
-  reportFileRoute('/api/runs/:id/report.pdf', 'The PDF report of a run (clients: signed runs of their organisation only)', async (id) => ({
+  // A signed run's PDF and readings are the sealed ones, exactly as signed; others are rendered from today's data.
+  reportFileRoute('/api/runs/:id/report.pdf', 'The PDF report of a run: the sealed one once signed (clients: signed runs of their organisation only)', async (id) => ({
     name: `run-${id}-report.pdf`,
     type: 'application/pdf',
-    body: await renderReportPdf(await loadReportData(id, dataDir)),
+    body: (await sealedReport(id))?.pdf ?? (await renderReportPdf(await loadReportData(id, dataDir))),
   })),
-  reportFileRoute('/api/reports/:id/readings.csv', 'Every reading of a reported run as CSV (clients: signed runs of their organisation only)', async (id) => ({
+  reportFileRoute('/api/reports/:id/readings.csv', 'Every reading of a reported run as CSV: the signed record once signed (clients: signed runs of their organisation only)', async (id) => ({
     name: `run-${id}-readings.csv`,
     type: 'text/csv',
-    body: recordToReadingsCsv(await loadRunRecord(id)),
+    body: recordToReadingsCsv((await sealedReport(id))?.record ?? (await loadRunRecord(id))),
   })),
 ];

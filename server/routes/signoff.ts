@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { idParams } from '../../shared/schemas/common';
 import { SIGNATURE_MEANINGS } from '../../shared/schemas/signoff';
 import { EDITORS, STAFF } from '../auth/permissions';
+import type { ServerConfig } from '../config';
 import { route } from '../http/route';
 import { notifyReviewRequested } from '../services/mail';
 import { reopenRun, signoffView, signRun, submitForReview, verifyRun } from '../services/signoff';
@@ -12,10 +13,11 @@ export const signInput = z.strictObject({
 });
 
 export const reopenInput = z.strictObject({
-  reason: z.string().trim().min(1, 'required: say why the signed run is reopened').max(500),
+  reason: z.string().trim().min(1, 'required: say why the run is reopened').max(500),
 });
 
-export const signoffRoutes = [
+/** Review and sign-off; signing seals the report with the uploads under `dataDir`. */
+export const signoffRoutes = (config: Pick<ServerConfig, 'dataDir' | 'secondSigner'>) => [
   route({
     method: 'get',
     path: '/api/runs/:id/signoff',
@@ -41,17 +43,17 @@ export const signoffRoutes = [
     method: 'post',
     path: '/api/runs/:id/signoff/sign',
     access: EDITORS,
-    summary: 'Sign the version under review (password asked again); locks the run',
+    summary: 'Sign the version under review (password asked again, someone other than the submitter); seals the report and locks the run',
     status: 200,
     params: idParams,
     body: signInput,
-    handler: ({ params, body, user }) => signRun(user!, params.id, body),
+    handler: ({ params, body, user }) => signRun(user!, params.id, body, { dataDir: config.dataDir, secondSigner: config.secondSigner }),
   }),
   route({
     method: 'post',
     path: '/api/runs/:id/signoff/reopen',
     access: EDITORS,
-    summary: 'Reopen a signed run as a new revision, with a reason',
+    summary: 'Reopen a signed run as a new revision, or withdraw one in review to draft, with a reason',
     status: 200,
     params: idParams,
     body: reopenInput,
@@ -61,8 +63,8 @@ export const signoffRoutes = [
     method: 'get',
     path: '/api/runs/:id/verify',
     access: STAFF,
-    summary: 'Recompute the hash of the latest signature’s data and say whether it still matches',
+    summary: 'Check every signature against its sealed report as stored, and say whether today’s data still match',
     params: idParams,
-    handler: ({ params }) => verifyRun(params.id),
+    handler: ({ params }) => verifyRun(params.id, config.dataDir),
   }),
 ];

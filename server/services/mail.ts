@@ -13,6 +13,7 @@ import { clientContacts } from './report-access';
 import { loadReportData } from './report-data';
 import { renderReportPdf } from './report-pdf';
 import { loadRunRecord } from './run-record';
+import { sealedReport } from './signoff';
 
 /** Where mail goes. */
 export interface MailerOptions {
@@ -59,6 +60,7 @@ export async function sendMail(mail: OutgoingMail): Promise<{ messageId: string;
 /** E-mails a signed run's PDF report and its readings CSV to the client organisation's contacts; audited. */
 export async function sendRunReport(user: User, runId: number, dataDir: string): Promise<{ to: string[]; subject: string; attachments: string[] }> {
   const data = await loadReportData(runId, dataDir);
+  const sealed = await sealedReport(runId);
   if (data.signoff.state !== 'signed') throw new HttpError(409, 'run_not_signed', 'Only a signed run’s report is sent; sign it first.');
   const contacts = await clientContacts(runId);
   if (contacts.emails.length === 0)
@@ -74,8 +76,9 @@ export async function sendRunReport(user: User, runId: number, dataDir: string):
     `Sent by ${user.name}.`,
   ].join('\n');
   const attachments = [
-    { filename: pdfName, content: await renderReportPdf(data), contentType: 'application/pdf' },
-    { filename: csvName, content: recordToReadingsCsv(await loadRunRecord(runId)), contentType: 'text/csv' },
+    // The sealed PDF and record, exactly as signed (a run signed before sealing existed is rendered as it is now).
+    { filename: pdfName, content: sealed?.pdf ?? (await renderReportPdf(data)), contentType: 'application/pdf' },
+    { filename: csvName, content: recordToReadingsCsv(sealed?.record ?? (await loadRunRecord(runId))), contentType: 'text/csv' },
   ];
   await sendMail({ to: contacts.emails, subject, text, attachments });
   await audit({

@@ -2,6 +2,7 @@
  * Everything the PDF report of a run shows, gathered from the database in one place so that the
  * renderer stays a function of plain data.
  */
+import { createHash } from 'node:crypto';
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import sharp from 'sharp';
@@ -34,6 +35,8 @@ export interface ReportInstrument {
   role: string;
   instrument: string | null;
   serialNumber: string | null;
+  /** The calibration record in force (its id), so a signed snapshot names the very version used. */
+  calibrationId: number | null;
   calibratedOn: string | null;
   dueOn: string | null;
 }
@@ -63,7 +66,7 @@ export interface ReportData {
   record: TestRecord;
   analysis: RecordAnalysis;
   /** The saved interpretation shown (the version under review or signed, else the newest); null when none is saved. */
-  interpretation: { version: number; chosenMethod: string | null; reason: string; byName: string | null; savedAt: Date } | null;
+  interpretation: { version: number; options: Record<string, unknown>; chosenMethod: string | null; reason: string; byName: string | null; savedAt: Date } | null;
   remarks: string[];
   signoff: SignoffView;
   /** The location's site plan, scaled down for print, when one is uploaded. */
@@ -137,6 +140,7 @@ async function instrumentsOf(rig: Rig | null): Promise<ReportInstrument[]> {
       role,
       instrument: i?.makeModel ?? null,
       serialNumber: i?.serialNumber ?? null,
+      calibrationId: c?.id ?? null,
       calibratedOn: c?.calibratedOn ?? null,
       dueOn: c?.dueOn ?? null,
     };
@@ -201,6 +205,7 @@ export async function loadReportData(runId: number, dataDir: string): Promise<Re
     interpretation: saved
       ? {
           version: saved.version,
+          options: saved.options as Record<string, unknown>,
           chosenMethod: saved.chosenMethod,
           reason: saved.reason,
           byName: saved.createdBy === null ? null : (names.get(saved.createdBy) ?? null),
@@ -218,3 +223,23 @@ export async function loadReportData(runId: number, dataDir: string): Promise<Re
     photos: await reportPhotos(dataDir, runId, location.id),
   };
 }
+
+const sha256 = (bytes: Buffer) => createHash('sha256').update(bytes).digest('hex');
+const imageSeal = (image: ReportImage) => ({ sha256: sha256(image.jpeg), width: image.width, height: image.height });
+
+/**
+ * What a signature seals: everything the report shows — project, client, location, plan, rig and the
+ * calibrations in force, the record, the interpretation with its cautions, remarks, the site plan and the
+ * photos (images by the SHA-256 of the bytes printed) — as plain JSON for canonical hashing. Left out: the
+ * moment of printing and the sign-off block, which the signature itself fills in. `revision` is the one signed.
+ */
+export function sealedContent(d: ReportData, revision: number) {
+  const { generatedAt: _printed, signoff: _signoff, sitePlan, photos, ...shown } = d;
+  return {
+    ...shown,
+    revision,
+    sitePlan: sitePlan && imageSeal(sitePlan),
+    photos: photos.map(({ image, ...photo }) => ({ ...photo, image: imageSeal(image) })),
+  };
+}
+export type SealedContent = ReturnType<typeof sealedContent>;

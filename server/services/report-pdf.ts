@@ -332,7 +332,7 @@ function signoffSection(w: ReportWriter, d: ReportData): void {
   }
   for (const r of s.revisions) w.para(`Revision ${r.revision} opened ${r.at.slice(0, 10)}: ${r.reason}`, 8.5);
   w.para(
-    'The hash covers the run’s test record and the signed interpretation version as canonical JSON (sorted keys); GET /api/runs/:id/verify recomputes it.',
+    'The hash covers everything this report shows (record, interpretation, project, location, instruments and calibrations, site plan and photos by their SHA-256) as canonical JSON (sorted keys), sealed at signing; GET /api/runs/:id/verify checks it from storage.',
     7.5,
   );
 }

@@ -1,28 +1,35 @@
 /**
  * Review and sign-off of a run (QUALITY.md S7): an engineer submits an interpretation version for review,
- * a signer re-enters the password and signs with a meaning, and the signature records a SHA-256 hash of the
- * canonical run data (the run's test record plus the interpretation version signed). A signed run is locked;
- * reopening it starts a new revision with a reason, and earlier signatures stay on record.
+ * a second person re-enters the password and signs with a meaning. Signing seals the report: everything it
+ * shows is stored as canonical JSON (the signature's hash is its SHA-256) and the signed PDF is rendered
+ * from it once and kept with its own hash, so nothing changed later reaches a signed revision. A signed
+ * run is locked; reopening it starts a new revision with a reason, and earlier signatures stay on record.
+ * One signature per revision.
  */
+import { createHash } from 'node:crypto';
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { TestRecord } from '../../shared/records/schema';
-import type { SignatureMeaning, SignoffView, Verification } from '../../shared/schemas/signoff';
+import type { SignatureCheck, SignatureMeaning, SignoffView, Verification } from '../../shared/schemas/signoff';
 import { verifyPassword } from '../auth/passwords';
 import { HttpError, notFound } from '../http/errors';
 import { Interpretation } from '../models/interpretation';
 import { Run } from '../models/run';
-import { Signature, Signoff } from '../models/signoff';
+import { Signature, SignedReport, Signoff } from '../models/signoff';
 import { User } from '../models/user';
 import { audit, audited } from './audit';
-import { sha256Canonical } from './canonical-json';
+import { canonicalJson, sha256Canonical } from './canonical-json';
+import { loadReportData, type SealedContent, sealedContent } from './report-data';
+import { renderReportPdf } from './report-pdf';
 import { loadRunRecord } from './run-record';
+
+const sha256 = (data: string | Buffer) => createHash('sha256').update(data).digest('hex');
 
 /** 409 for any change to a signed run's data or interpretation. */
 export const runSigned = (runId: number) =>
   new HttpError(409, 'run_signed', `Run ${runId} is signed and locked; reopen it as a new revision (with a reason) to change it.`);
 
-/** What a signature's hash covers: the run's record and the interpretation version as saved. */
-export function signedContent(record: TestRecord, interpretation: Interpretation) {
+/** What a signature's hash covered before sealed snapshots: the run's record and the interpretation version. */
+function legacySignedContent(record: TestRecord, interpretation: Interpretation) {
   return {
     record,
     interpretation: {
@@ -35,11 +42,11 @@ export function signedContent(record: TestRecord, interpretation: Interpretation
   };
 }
 
-/** The SHA-256 of a run's record and one of its interpretation versions, as it stands now. */
-export async function runDataHash(runId: number, interpretationVersion: number): Promise<string> {
+/** The legacy hash (record + interpretation version) of a signature made before sealed snapshots. */
+async function legacyDataHash(runId: number, interpretationVersion: number): Promise<string> {
   const interpretation = await Interpretation.findOne({ where: { runId, version: interpretationVersion } });
   if (!interpretation) throw notFound(`Interpretation version ${interpretationVersion}`);
-  return sha256Canonical(signedContent(await loadRunRecord(runId), interpretation));
+  return sha256Canonical(legacySignedContent(await loadRunRecord(runId), interpretation));
 }
 
 /** The run's review state; a run never submitted is a draft of revision 1. */
@@ -47,10 +54,18 @@ async function currentSignoff(runId: number, transaction?: Transaction): Promise
   return Signoff.findByPk(runId, { transaction, ...(transaction ? { lock: transaction.LOCK.UPDATE } : {}) });
 }
 
-/** Refuses (409) when the run is signed. Call it inside the writing transaction, before the write. */
+/** 409 for a change to a run while a version of it is under review. */
+export const runInReview = (runId: number) =>
+  new HttpError(409, 'run_in_review', `Run ${runId} is in review; withdraw it to draft (reopen) before changing its readings, notes or interpretation.`);
+
+/**
+ * Refuses (409) when the run is signed, or in review (what the reviewer reads must not move under them).
+ * Call it inside the writing transaction, before the write.
+ */
 export async function assertRunUnlocked(runId: number, transaction?: Transaction): Promise<void> {
   const s = await currentSignoff(runId, transaction);
   if (s?.state === 'signed') throw runSigned(runId);
+  if (s?.state === 'in-review') throw runInReview(runId);
 }
 
 /** Where a signed run's record comes from: its plan, its test location, or its project. */
@@ -134,11 +149,21 @@ export interface SignInput {
   meaning: SignatureMeaning;
 }
 
+/** How signing is set up on this server. */
+export interface SignSettings {
+  /** Uploads: the site plan and photos printed in the sealed report. */
+  dataDir: string;
+  /** The signer must be someone other than the submitter (default on); when off, such a signature is audited as an exception. */
+  secondSigner: boolean;
+}
+
 /**
- * Signs the version under review (or countersigns a signed revision). The password is checked first;
- * a wrong one is refused with 403 and audited. The hash is of the data as they are at this moment.
+ * Signs the version under review: the password is checked first (a wrong one is refused with 403 and
+ * audited); the signer must not be the submitter unless the server allows it (then it is audited); a
+ * signed revision is not signed again. The report is sealed in the same transaction as the signature:
+ * its snapshot (hashed) and the PDF rendered from it (hashed), both stored.
  */
-export async function signRun(user: User, runId: number, input: SignInput): Promise<SignoffView> {
+export async function signRun(user: User, runId: number, input: SignInput, settings: SignSettings): Promise<SignoffView> {
   await requireRun(runId);
   const fresh = await User.findByPk(user.id);
   if (!fresh || !(await verifyPassword(fresh.passwordHash, input.password))) {
@@ -146,52 +171,75 @@ export async function signRun(user: User, runId: number, input: SignInput): Prom
     throw new HttpError(403, 'reauthentication_failed', 'password: does not match; signing needs your own password.', 'password');
   }
   const before = await Signoff.findByPk(runId);
+  if (before?.state === 'signed') throw wrongState(`Revision ${before.revision} is already signed; reopen it as a new revision to sign again.`);
   if (!before || before.state === 'draft' || before.interpretationVersion === null) throw wrongState('Submit the run for review before signing.');
+  const ownSubmission = before.submittedBy === user.id;
+  if (ownSubmission && settings.secondSigner) {
+    await audit({ userId: user.id, entity: 'signoff', entityId: runId, action: 'sign-refused', reason: 'the signer submitted the run' });
+    throw new HttpError(403, 'signer_is_submitter', 'You submitted this run for review; someone else must sign it.');
+  }
   const version = before.interpretationVersion;
-  const hash = await runDataHash(runId, version);
+  const report = await loadReportData(runId, settings.dataDir);
+  const snapshot = canonicalJson(sealedContent(report, before.revision));
+  const hash = sha256(snapshot);
   await audited(
     async (transaction) => {
       const s = await currentSignoff(runId, transaction);
-      // Someone may have reopened or resubmitted while the hash was being computed.
-      if (!s || s.state === 'draft' || s.interpretationVersion !== version || s.revision !== before.revision)
+      // Someone may have reopened, resubmitted or signed while the report was being gathered.
+      if (s?.state !== 'in-review' || s.interpretationVersion !== version || s.revision !== before.revision)
         throw wrongState('The review changed while signing; reload and sign again.');
       const newest = (await Interpretation.max('version', { where: { runId }, transaction })) as number | null;
       if (newest !== version)
         throw wrongState(`Interpretation version ${newest} was saved after version ${version} was submitted; submit again before signing.`);
       await s.update({ state: 'signed' }, { transaction });
-      return Signature.create(
-        {
-          runId,
-          revision: s.revision,
-          interpretationVersion: version,
-          userId: user.id,
-          signerName: fresh.name,
-          meaning: input.meaning,
-          dataHash: hash,
-          signedAt: new Date(),
-        },
+      const signedAt = new Date();
+      const sig = await Signature.create(
+        { runId, revision: s.revision, interpretationVersion: version, userId: user.id, signerName: fresh.name, meaning: input.meaning, dataHash: hash, signedAt },
         { transaction },
       );
+      // The PDF shows this signature: the sign-off block as it stands once the signature is in.
+      const signoff: SignoffView = { ...report.signoff, state: 'signed', signatures: [...report.signoff.signatures, sig.toDto()] };
+      const pdf = await renderReportPdf({ ...report, generatedAt: signedAt, signoff });
+      await SignedReport.create({ signatureId: sig.id, runId, snapshot, snapshotHash: hash, pdf, pdfHash: sha256(pdf) }, { transaction });
+      return sig;
     },
     (sig) => ({
       userId: user.id,
       entity: 'signoff',
       entityId: runId,
-      action: 'signed',
+      action: ownSubmission ? 'signed-own-submission' : 'signed',
       before: { state: before.state },
       after: { state: 'signed', revision: sig.revision, meaning: sig.meaning, interpretationVersion: sig.interpretationVersion, dataHash: sig.dataHash },
+      ...(ownSubmission ? { reason: 'second-signer rule turned off on this server' } : {}),
     }),
   );
   return signoffView(runId);
 }
 
-/** Opens a signed run for changes as the next revision; the reason is kept and earlier signatures stay. */
+/** The sealed report of the run's current revision when it is signed: its PDF and its record as signed; else null. */
+export async function sealedReport(runId: number): Promise<{ revision: number; pdf: Buffer; record: SealedContent['record'] } | null> {
+  const s = await Signoff.findByPk(runId);
+  if (s?.state !== 'signed') return null;
+  const sig = await Signature.findOne({ where: { runId, revision: s.revision }, order: [['id', 'DESC']] });
+  const sealed = sig && (await SignedReport.findByPk(sig.id));
+  if (!sealed) return null;
+  return { revision: s.revision, pdf: sealed.pdf, record: (JSON.parse(sealed.snapshot) as SealedContent).record };
+}
+
+/**
+ * Opens a run for changes: a signed run as the next revision (the reason is kept and earlier signatures
+ * stay); a run in review goes back to draft in the same revision (withdrawn, the reason audited).
+ */
 export async function reopenRun(user: User, runId: number, reason: string): Promise<SignoffView> {
   await requireRun(runId);
   await audited(
     async (transaction) => {
       const s = await currentSignoff(runId, transaction);
-      if (s?.state !== 'signed') throw wrongState('Only a signed run is reopened as a new revision.');
+      if (s?.state === 'in-review') {
+        await s.update({ state: 'draft', submittedBy: null, submittedAt: null }, { transaction });
+        return { from: 'in-review' as const, revision: s.revision };
+      }
+      if (s?.state !== 'signed') throw wrongState('Only a signed run or one in review can be reopened.');
       const revision = s.revision + 1;
       await s.update(
         {
@@ -203,14 +251,14 @@ export async function reopenRun(user: User, runId: number, reason: string): Prom
         },
         { transaction },
       );
-      return revision;
+      return { from: 'signed' as const, revision };
     },
-    (revision) => ({
+    ({ from, revision }) => ({
       userId: user.id,
       entity: 'signoff',
       entityId: runId,
-      action: 'reopened',
-      before: { state: 'signed', revision: revision - 1 },
+      action: from === 'signed' ? 'reopened' : 'withdrawn',
+      before: { state: from, revision: from === 'signed' ? revision - 1 : revision },
       after: { state: 'draft', revision },
       reason,
     }),
@@ -218,18 +266,60 @@ export async function reopenRun(user: User, runId: number, reason: string): Prom
   return signoffView(runId);
 }
 
-/** Recomputes the hash of the latest signature's data and compares it with the one recorded. */
-export async function verifyRun(runId: number): Promise<Verification> {
+/** One signature against its sealed report as stored (or, before sealed snapshots, the legacy hash of today's data). */
+async function checkSignature(sig: Signature): Promise<SignatureCheck & { snapshot: string | null }> {
+  const sealed = await SignedReport.findByPk(sig.id);
+  const snapshotHash = sealed ? sha256(sealed.snapshot) : await legacyDataHash(sig.runId, sig.interpretationVersion);
+  return {
+    signatureId: sig.id,
+    revision: sig.revision,
+    interpretationVersion: sig.interpretationVersion,
+    signerName: sig.signerName,
+    recordedHash: sig.dataHash,
+    snapshotHash: sealed ? snapshotHash : null,
+    matches: snapshotHash === sig.dataHash && (!sealed || sealed.snapshotHash === sig.dataHash),
+    pdfMatches: sealed ? sha256(sealed.pdf) === sealed.pdfHash : null,
+    snapshot: sealed?.snapshot ?? null,
+  };
+}
+
+/** Top-level parts of two snapshots that differ (project, location, instruments, sitePlan…). */
+function changedParts(signed: Record<string, unknown>, live: Record<string, unknown>): string[] {
+  const keys = [...new Set([...Object.keys(signed), ...Object.keys(live)])].sort();
+  return keys.filter((k) => canonicalJson(signed[k]) !== canonicalJson(live[k]));
+}
+
+/**
+ * Checks every signature of every revision against its sealed snapshot and PDF as stored, and says
+ * separately whether today's live data still match the newest snapshot (drift never alters a signature).
+ */
+export async function verifyRun(runId: number, dataDir: string): Promise<Verification> {
   await requireRun(runId);
-  const last = await Signature.findOne({ where: { runId }, order: [['id', 'DESC']] });
-  if (!last) throw wrongState('The run has no signature to verify.');
-  const currentHash = await runDataHash(runId, last.interpretationVersion);
+  const signatures = await Signature.findAll({ where: { runId }, order: [['id', 'ASC']] });
+  if (signatures.length === 0) throw wrongState('The run has no signature to verify.');
+  const checks = [];
+  for (const sig of signatures) checks.push(await checkSignature(sig));
+  const last = checks[checks.length - 1];
+  const signed = last.snapshot === null ? null : (JSON.parse(last.snapshot) as Record<string, unknown>);
+  const live = sealedContent(await loadReportData(runId, dataDir), last.revision) as unknown as Record<string, unknown>;
+  const liveHash = sha256Canonical(live);
+  const changed = signed ? changedParts(signed, JSON.parse(canonicalJson(live))) : [];
+  const liveMatches = signed ? liveHash === last.snapshotHash : last.matches;
   return {
     runId,
     revision: last.revision,
     interpretationVersion: last.interpretationVersion,
-    recordedHash: last.dataHash,
-    currentHash,
-    matches: currentHash === last.dataHash,
+    recordedHash: last.recordedHash,
+    currentHash: last.snapshotHash ?? liveHash,
+    matches: checks.every((c) => c.matches && c.pdfMatches !== false),
+    signatures: checks.map(({ snapshot: _s, ...c }) => c),
+    live: {
+      matches: liveMatches,
+      hash: liveHash,
+      changed,
+      message: liveMatches
+        ? 'Today’s data match the signed report.'
+        : `Changed since signing${changed.length ? ` (${changed.join(', ')})` : ''}: open a revision to sign the changes.`,
+    },
   };
 }

@@ -41,14 +41,36 @@ export interface SignoffView {
   revisions: RevisionNote[];
 }
 
+/** One signature checked against its sealed report as stored. */
+export interface SignatureCheck {
+  signatureId: number;
+  revision: number;
+  interpretationVersion: number;
+  signerName: string;
+  /** The hash the signature recorded. */
+  recordedHash: string;
+  /** The SHA-256 of the sealed snapshot as stored now; null when the signature predates sealed snapshots. */
+  snapshotHash: string | null;
+  /** The stored snapshot still hashes to what was signed. */
+  matches: boolean;
+  /** The signed PDF's bytes still hash to what was recorded at signing (null when there is none). */
+  pdfMatches: boolean | null;
+}
+
 /** GET /api/runs/:id/verify */
 export interface Verification {
   runId: number;
+  /** The newest signature's revision and interpretation version. */
   revision: number;
   interpretationVersion: number;
   recordedHash: string;
+  /** The newest signature's snapshot hashed again from storage. */
   currentHash: string;
+  /** Every signature of every revision matches its sealed snapshot and PDF as stored. */
   matches: boolean;
+  signatures: SignatureCheck[];
+  /** Whether today's live data still match the newest sealed snapshot; drift does not change what was signed. */
+  live: { matches: boolean; hash: string; changed: string[]; message: string };
 }
 
 /** One signed report (GET /api/reports). */

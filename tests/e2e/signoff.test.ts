@@ -26,7 +26,8 @@ let planId: number;
 let rigName: string;
 
 beforeAll(async () => {
-  server = await startLiveServer({ clientDir: path.join(ROOT_DIR, 'dist', 'client') });
+  // One engineer drives the whole flow in the browser, so the second-signer rule (integration-tested) is off here.
+  server = await startLiveServer({ clientDir: path.join(ROOT_DIR, 'dist', 'client'), secondSigner: false });
   browser = await launchChromium();
   const started = await simulatedRig('dense-sand', 100, 'Sign-off rig (simulated)');
   sim = started.sim;

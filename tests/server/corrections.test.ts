@@ -6,78 +6,16 @@
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEntry } from '../../server/models/audit-entry';
-import { Instrument } from '../../server/models/instrument';
 import { Signoff } from '../../server/models/signoff';
-import { Archiver } from '../../server/runs/archiver';
 import type { TestRecord } from '../../shared/records/schema';
-import { SAMPLE_STATUS, type SampleRow } from '../../shared/runs/samples';
 import { type Client, signedIn, startTestApp, type TestApp } from '../support/api';
-import { manualGauge, storedRun } from '../support/stored-run';
+import { RECORDED_RUN_START_MS, recordedRun, recordedSeq } from '../support/stored-run';
 
 let t: TestApp;
 let engineer: Client;
 let runId: number;
-const T = 1_750_000_000_000;
-// Channels g1, g2, p1, one sample each per second: seq of channel c at second s is 3s + c + 1.
-const seqOf = (s: number, channel: number) => 3 * s + channel + 1;
-/** Gauge reading, mm: 0.1 through seating, then 1.00 rising 0.01 mm/s from the 100 kPa target (30 s). */
-const reading = (s: number) => (s < 30 ? 0.1 : 1 + (s - 30) * 0.01);
-
-/** A finished run on a typed-readings rig: seating held 10–20 s, 100 kPa held 30–60 s. */
-async function recordedRun(): Promise<number> {
-  const plan = await engineer.post('/api/locations/1/plans', {
-    name: 'Run for the corrections test',
-    procedureId: 'custom',
-    plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
-    seatingPressureKpa: 7,
-    apparatusWeightKn: 0.5,
-    loading: { mode: 'list', pressuresKpa: [100] },
-    unloadReload: { unloadKpa: [], reload: { mode: 'none' }, repetitionsPerLevel: 1 },
-    holdRule: { kind: 'fixed', durationMin: 0.5 },
-    readingSchedule: { kind: 'interval', everyMin: 1 },
-    termination: { maxSettlementMm: 50, maxSettlementFractionOfWidth: 0, maxHoldMin: 60 },
-    reaction: { kind: 'kentledge', capacityKn: 100, description: '' },
-    footing: null,
-  });
-  expect(plan.status).toBe(201);
-  const serial = async (s: string) => (await Instrument.findOne({ where: { serialNumber: s } }))!.id;
-  const runId = await storedRun({
-    planId: plan.body.plan.id,
-    rigName: 'Corrections test rig',
-    channels: [
-      manualGauge('g1', -120),
-      manualGauge('g2', 120),
-      { key: 'p1', role: 'pressure', label: 'Oil', instrumentId: await serial('PT-5520'), profileId: 'manual', port: '', gauge: null },
-    ],
-    jackInstrumentId: await serial('JK-50-031'),
-    startMs: T,
-    durationMs: 60_000,
-    events: [
-      [0, 'gauges-zeroed', { readings: { g1: 0, g2: 0 } }],
-      [10_000, 'target-reached', { stageIndex: 0 }],
-      [20_000, 'stage-advanced', { from: 0, to: 1 }],
-      [30_000, 'target-reached', { stageIndex: 1 }],
-      [60_000, 'run-completed', {}],
-    ],
-  });
-  const rows: SampleRow[] = [];
-  for (let s = 0; s <= 60; s++) {
-    for (const [channel, value] of [reading(s), reading(s), s < 30 ? 1 : 30].entries()) {
-      rows.push({
-        seq: seqOf(s, channel),
-        tMs: T + s * 1000,
-        channel,
-        raw: Math.round(value * 1000),
-        value: Math.round(value * 1000),
-        status: SAMPLE_STATUS.ok,
-      });
-    }
-  }
-  const archiver = new Archiver(t.sequelize);
-  archiver.enqueue(runId, rows);
-  await archiver.drain();
-  return runId;
-}
+const T = RECORDED_RUN_START_MS;
+const seqOf = recordedSeq;
 
 const sampleRow = async (seq: number) =>
   (
@@ -91,7 +29,7 @@ const lastReading = async () => ((await engineer.get(`/api/runs/${runId}/record`
 beforeAll(async () => {
   t = await startTestApp();
   engineer = await signedIn(t.app, 'engineer');
-  runId = await recordedRun();
+  runId = await recordedRun(t.sequelize, engineer, 'Run for the corrections test');
 });
 afterAll(() => t.stop());
 

@@ -85,7 +85,8 @@ describe('PDF report', () => {
 
   it('carries the signature, its UTC time and the data hash once signed', async () => {
     await engineer.post(`/api/runs/${runId}/signoff/submit`);
-    const signed = await engineer.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'approved' });
+    const admin = await signedIn(t.app, 'admin'); // someone other than the submitter signs
+    const signed = await admin.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'approved' });
     expect(signed.status).toBe(200);
     const sig = signed.body.signatures[0];
     const { text } = await pdfText(binary(await binaryBody(engineer.get(`/api/runs/${runId}/report.pdf`))));

@@ -1,6 +1,8 @@
 /**
- * Review and sign-off (QUALITY.md S7): re-authentication at signing, the SHA-256 of the canonical run data
- * recorded and verified, the lock on a signed run, a reopened revision with its reason, and the audit trail.
+ * Review and sign-off (QUALITY.md S7): re-authentication at signing, a second person signing, one
+ * signature per revision, the SHA-256 of the sealed snapshot recorded and verified for every signature,
+ * live drift reported apart, the lock on a run in review or signed, a reopened revision with its reason,
+ * and the audit trail.
  */
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
@@ -9,6 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEntry } from '../../server/models/audit-entry';
 import { Interpretation } from '../../server/models/interpretation';
 import { Run } from '../../server/models/run';
+import { SignedReport } from '../../server/models/signoff';
 import { TestLocation } from '../../server/models/test-location';
 import { TestPlan } from '../../server/models/test-plan';
 import { canonicalJson } from '../../server/services/canonical-json';
@@ -72,23 +75,35 @@ describe('sign-off of a run', () => {
     expect(noMeaning.body.error.field).toBe('meaning');
     expect((await operator.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'approved' })).status).toBe(403);
 
-    const signed = await engineer.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'reviewed' });
+    // The engineer who submitted may not sign their own submission.
+    const own = await engineer.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'reviewed' });
+    expect(own.status).toBe(403);
+    expect(own.body.error.code).toBe('signer_is_submitter');
+
+    const signed = await admin.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'reviewed' });
     expect(signed.status).toBe(200);
     expect(signed.body.state).toBe('signed');
     const [sig] = signed.body.signatures;
-    expect(sig).toMatchObject({ revision: 1, interpretationVersion: 1, meaning: 'reviewed', signerName: expect.stringContaining('Ilse') });
+    expect(sig).toMatchObject({ revision: 1, interpretationVersion: 1, meaning: 'reviewed' });
     expect(Math.abs(Date.parse(sig.signedAt) - Date.now())).toBeLessThan(60_000);
     expect(sig.signedAt).toMatch(/Z$/);
 
-    // The hash recomputed independently here: record as exported + interpretation version as saved.
-    const record = (await engineer.get(`/api/runs/${runId}/record`)).body;
+    // The hash is of the sealed snapshot as stored, which holds the record as exported and the interpretation as saved.
+    const sealed = (await SignedReport.findByPk(sig.id))!;
+    expect(sig.dataHash).toBe(createHash('sha256').update(sealed.snapshot).digest('hex'));
+    const snapshot = JSON.parse(sealed.snapshot);
+    expect(canonicalJson(snapshot)).toBe(sealed.snapshot);
+    expect(snapshot.record).toEqual((await engineer.get(`/api/runs/${runId}/record`)).body);
     const v1 = (await Interpretation.findOne({ where: { runId, version: 1 } }))!;
-    const content = { record, interpretation: { version: 1, options: v1.options, result: v1.result, chosenMethod: v1.chosenMethod, reason: v1.reason } };
-    expect(sig.dataHash).toBe(createHash('sha256').update(canonicalJson(content)).digest('hex'));
+    expect(snapshot.interpretation).toMatchObject({ version: 1, options: v1.options, chosenMethod: v1.chosenMethod, reason: v1.reason });
+    expect(snapshot.analysis).toEqual(v1.result);
+    expect(snapshot.project).toMatchObject({ code: expect.any(String), name: expect.any(String) });
+    expect(sealed.pdfHash).toBe(createHash('sha256').update(sealed.pdf).digest('hex'));
 
     const verified = await operator.get(`/api/runs/${runId}/verify`);
     expect(verified.status).toBe(200);
-    expect(verified.body).toMatchObject({ matches: true, recordedHash: sig.dataHash, currentHash: sig.dataHash, revision: 1 });
+    expect(verified.body).toMatchObject({ matches: true, recordedHash: sig.dataHash, currentHash: sig.dataHash, revision: 1, live: { matches: true, changed: [] } });
+    expect(verified.body.signatures).toEqual([expect.objectContaining({ signatureId: sig.id, matches: true, pdfMatches: true })]);
   });
 
   it('locks the signed run: a new interpretation version is refused with 409', async () => {
@@ -98,18 +113,32 @@ describe('sign-off of a run', () => {
     expect(await Interpretation.count({ where: { runId } })).toBe(1);
   });
 
-  it('takes a countersignature on the same revision, and detects data changed behind its back', async () => {
-    const approved = await admin.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'approved' });
-    expect(approved.status).toBe(200);
-    expect(approved.body.signatures.map((s: { meaning: string }) => s.meaning)).toEqual(['reviewed', 'approved']);
-    expect(approved.body.signatures[1].dataHash).toBe(approved.body.signatures[0].dataHash);
+  it('refuses a second signature on a signed revision; reports drift of live data apart from the sealed snapshot', async () => {
+    for (const who of [admin, engineer]) {
+      const again = await who.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'approved' });
+      expect(again.status).toBe(409);
+      expect(again.body.error.message).toMatch(/already signed/);
+    }
+    expect((await engineer.get(`/api/runs/${runId}/signoff`)).body.signatures).toHaveLength(1);
 
+    // Live data changed behind the application's back: the signature still matches its snapshot; the drift is reported.
     const v1 = (await Interpretation.findOne({ where: { runId, version: 1 } }))!;
     const honest = v1.reason;
     await Interpretation.update({ reason: 'altered directly in the database' }, { where: { id: v1.id } });
-    const tampered = await engineer.get(`/api/runs/${runId}/verify`);
-    expect(tampered.body.matches).toBe(false);
+    const drifted = (await engineer.get(`/api/runs/${runId}/verify`)).body;
+    expect(drifted).toMatchObject({ matches: true, live: { matches: false, changed: ['interpretation'] } });
+    expect(drifted.live.message).toMatch(/open a revision/);
     await Interpretation.update({ reason: honest }, { where: { id: v1.id } });
+    expect((await engineer.get(`/api/runs/${runId}/verify`)).body.live.matches).toBe(true);
+
+    // The sealed snapshot itself altered in storage: the signature no longer matches.
+    const sealed = (await SignedReport.findOne({ where: { runId } }))!;
+    const original = sealed.snapshot;
+    await SignedReport.update({ snapshot: original.replace(honest, 'rewritten') }, { where: { signatureId: sealed.signatureId } });
+    const tampered = (await engineer.get(`/api/runs/${runId}/verify`)).body;
+    expect(tampered.matches).toBe(false);
+    expect(tampered.signatures[0]).toMatchObject({ matches: false, recordedHash: sealed.snapshotHash });
+    await SignedReport.update({ snapshot: original }, { where: { signatureId: sealed.signatureId } });
     expect((await engineer.get(`/api/runs/${runId}/verify`)).body.matches).toBe(true);
   });
 
@@ -120,7 +149,7 @@ describe('sign-off of a run', () => {
     const reopened = await engineer.post(`/api/runs/${runId}/signoff/reopen`, { reason: 'Client sent the corrected footing width.' });
     expect(reopened.status).toBe(200);
     expect(reopened.body).toMatchObject({ state: 'draft', revision: 2, revisions: [{ revision: 2, reason: 'Client sent the corrected footing width.' }] });
-    expect(reopened.body.signatures).toHaveLength(2);
+    expect(reopened.body.signatures).toHaveLength(1);
     expect((await engineer.post(`/api/runs/${runId}/signoff/reopen`, { reason: 'again' })).status).toBe(409);
 
     const v2 = await engineer.post(`/api/runs/${runId}/interpretations`, {
@@ -131,12 +160,15 @@ describe('sign-off of a run', () => {
     expect(v2.status).toBe(201);
     expect(v2.body.version).toBe(2);
     await engineer.post(`/api/runs/${runId}/signoff/submit`);
-    const signed = await engineer.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'approved' });
+    const signed = await admin.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'approved' });
     expect(signed.body.signatures.at(-1)).toMatchObject({ revision: 2, interpretationVersion: 2 });
     expect(signed.body.signatures.at(-1).dataHash).not.toBe(signed.body.signatures[0].dataHash);
+    // Verify checks both revisions' signatures.
+    const verified = (await engineer.get(`/api/runs/${runId}/verify`)).body;
+    expect(verified.signatures.map((c: { revision: number; matches: boolean }) => [c.revision, c.matches])).toEqual([[1, true], [2, true]]);
   });
 
-  it('refuses changes to the plan, test location and project name a signed run is built from', async () => {
+  it('refuses changes to the plan, test location and the project fields a signed report shows', async () => {
     const run = (await Run.findByPk(runId))!;
     const plan = (await TestPlan.findByPk(run.planId))!;
     const location = (await TestLocation.findByPk(plan.locationId))!;
@@ -145,7 +177,11 @@ describe('sign-off of a run', () => {
     expect(planEdit.body.error.code).toBe('run_signed');
     expect((await engineer.delete(`/api/plans/${plan.id}`)).status).toBe(409);
     expect((await engineer.patch(`/api/locations/${location.id}`, { testDepthM: 2.5 })).status).toBe(409);
-    expect((await engineer.patch(`/api/projects/${location.projectId}`, { name: 'Renamed project' })).status).toBe(409);
+    for (const change of [{ name: 'Renamed project' }, { code: 'NEW-1' }, { address: '1 Other Street' }, { organizationId: 2 }]) {
+      const res = await engineer.patch(`/api/projects/${location.projectId}`, change);
+      expect(res.status).toBe(409);
+      expect(res.body.error.message).toMatch(/signed/);
+    }
     // Fields no record carries stay editable.
     expect((await engineer.patch(`/api/projects/${location.projectId}`, { notes: 'Invoice sent.' })).status).toBe(200);
     expect((await engineer.get(`/api/runs/${runId}/verify`)).body.matches).toBe(true);
@@ -153,8 +189,36 @@ describe('sign-off of a run', () => {
 
   it('audits every step, the refused password included', async () => {
     const entries = await AuditEntry.findAll({ where: { entity: 'signoff', entityId: String(runId) }, order: [['id', 'ASC']] });
-    expect(entries.map((e) => e.action)).toEqual(['submitted', 'sign-refused', 'signed', 'signed', 'reopened', 'submitted', 'signed']);
+    expect(entries.map((e) => e.action)).toEqual(['submitted', 'sign-refused', 'sign-refused', 'signed', 'reopened', 'submitted', 'signed']);
     expect(entries.find((e) => e.action === 'reopened')!.reason).toBe('Client sent the corrected footing width.');
     expect(JSON.stringify(entries.find((e) => e.action === 'signed')!.changes)).toContain('dataHash');
+  });
+});
+
+describe('a run in review', () => {
+  it('refuses a new interpretation until withdrawn to draft; the submitter may sign only where the server allows it, audited', async () => {
+    const res = await engineer.post('/api/imports', { locationId: 1, format: 'json', content: sandJson });
+    const id = res.body.runId;
+    expect((await engineer.post(`/api/runs/${id}/interpretations`, { chosenMethod: 'hyperbolic', reason: 'first' })).status).toBe(201);
+    expect((await engineer.post(`/api/runs/${id}/signoff/submit`)).status).toBe(200);
+    const during = await engineer.post(`/api/runs/${id}/interpretations`, { chosenMethod: 'hyperbolic', reason: 'changed while in review' });
+    expect(during.status).toBe(409);
+    expect(during.body.error.code).toBe('run_in_review');
+
+    const withdrawn = await engineer.post(`/api/runs/${id}/signoff/reopen`, { reason: 'One more look at the curve.' });
+    expect(withdrawn.status).toBe(200);
+    expect(withdrawn.body).toMatchObject({ state: 'draft', revision: 1, submittedBy: null });
+    expect((await engineer.post(`/api/runs/${id}/interpretations`, { chosenMethod: 'hyperbolic', reason: 'second' })).status).toBe(201);
+    expect((await engineer.post(`/api/runs/${id}/signoff/submit`)).status).toBe(200);
+
+    t.config.secondSigner = false;
+    try {
+      const own = await engineer.post(`/api/runs/${id}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'approved' });
+      expect(own.status).toBe(200);
+    } finally {
+      t.config.secondSigner = true;
+    }
+    const entry = await AuditEntry.findOne({ where: { entity: 'signoff', entityId: String(id), action: 'signed-own-submission' } });
+    expect(entry?.reason).toMatch(/second-signer rule turned off/);
   });
 });

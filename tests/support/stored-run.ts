@@ -1,8 +1,14 @@
+import type { Sequelize } from 'sequelize';
+import { expect } from 'vitest';
+import { Instrument } from '../../server/models/instrument';
 import { Rig } from '../../server/models/rig';
 import { Run } from '../../server/models/run';
 import { RunEvent } from '../../server/models/run-event';
+import { Archiver } from '../../server/runs/archiver';
 import { initialRunState } from '../../shared/runs/lifecycle';
+import { SAMPLE_STATUS, type SampleRow } from '../../shared/runs/samples';
 import type { RigChannelInput } from '../../shared/schemas/instruments';
+import type { Client } from './api';
 
 /** A manual-rig gauge channel at x mm from the plate centre. */
 export const manualGauge = (key: string, xMm: number, direction: 1 | -1 = 1, label = key): RigChannelInput => ({
@@ -49,4 +55,63 @@ export async function storedRun(i: StoredRunInput): Promise<number> {
   });
   await RunEvent.bulkCreate(i.events.map(([ms, kind, payload]) => ({ runId: run.id, at: new Date(i.startMs + ms), kind, userId: null, payload })));
   return run.id;
+}
+
+export const RECORDED_RUN_START_MS = 1_750_000_000_000;
+/** Channels g1, g2, p1 of {@link recordedRun}, one sample each per second: seq of channel c at second s. */
+export const recordedSeq = (s: number, channel: number) => 3 * s + channel + 1;
+/** Gauge reading of {@link recordedRun}, mm: 0.1 through seating, then 1.00 rising 0.01 mm/s from the 100 kPa target (30 s). */
+const recordedReading = (s: number) => (s < 30 ? 0.1 : 1 + (s - 30) * 0.01);
+
+/**
+ * A finished run on a typed-readings rig with the demo's calibrated pressure transducer and jack, planned
+ * by `engineer` at location 1: seating held 10–20 s, 100 kPa held 30–60 s, every sample archived.
+ */
+export async function recordedRun(sequelize: Sequelize, engineer: Client, name: string): Promise<number> {
+  const plan = await engineer.post('/api/locations/1/plans', {
+    name,
+    procedureId: 'custom',
+    plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
+    seatingPressureKpa: 7,
+    apparatusWeightKn: 0.5,
+    loading: { mode: 'list', pressuresKpa: [100] },
+    unloadReload: { unloadKpa: [], reload: { mode: 'none' }, repetitionsPerLevel: 1 },
+    holdRule: { kind: 'fixed', durationMin: 0.5 },
+    readingSchedule: { kind: 'interval', everyMin: 1 },
+    termination: { maxSettlementMm: 50, maxSettlementFractionOfWidth: 0, maxHoldMin: 60 },
+    reaction: { kind: 'kentledge', capacityKn: 100, description: '' },
+    footing: null,
+  });
+  expect(plan.status).toBe(201);
+  const serial = async (s: string) => (await Instrument.findOne({ where: { serialNumber: s } }))!.id;
+  const T = RECORDED_RUN_START_MS;
+  const runId = await storedRun({
+    planId: plan.body.plan.id,
+    rigName: `${name} rig`,
+    channels: [
+      manualGauge('g1', -120),
+      manualGauge('g2', 120),
+      { key: 'p1', role: 'pressure', label: 'Oil', instrumentId: await serial('PT-5520'), profileId: 'manual', port: '', gauge: null },
+    ],
+    jackInstrumentId: await serial('JK-50-031'),
+    startMs: T,
+    durationMs: 60_000,
+    events: [
+      [0, 'gauges-zeroed', { readings: { g1: 0, g2: 0 } }],
+      [10_000, 'target-reached', { stageIndex: 0 }],
+      [20_000, 'stage-advanced', { from: 0, to: 1 }],
+      [30_000, 'target-reached', { stageIndex: 1 }],
+      [60_000, 'run-completed', {}],
+    ],
+  });
+  const rows: SampleRow[] = [];
+  for (let s = 0; s <= 60; s++) {
+    for (const [channel, value] of [recordedReading(s), recordedReading(s), s < 30 ? 1 : 30].entries()) {
+      rows.push({ seq: recordedSeq(s, channel), tMs: T + s * 1000, channel, raw: Math.round(value * 1000), value: Math.round(value * 1000), status: SAMPLE_STATUS.ok });
+    }
+  }
+  const archiver = new Archiver(sequelize);
+  archiver.enqueue(runId, rows);
+  await archiver.drain();
+  return runId;
 }

@@ -112,12 +112,13 @@ function Verify({ runId }: { runId: number }) {
       </div>
       {check.data &&
         (check.data.matches ? (
-          <FormNotice>The data still match the hash signed for revision {check.data.revision}.</FormNotice>
+          <FormNotice>Every signature matches its sealed report (newest: revision {check.data.revision}).</FormNotice>
         ) : (
           <FormError
             message={`The data no longer match the signed hash (recorded ${check.data.recordedHash.slice(0, 12)}…, now ${check.data.currentHash.slice(0, 12)}…).`}
           />
         ))}
+      {check.data?.live?.matches === false && <FormError message={check.data.live.message} />}
       <FormError message={check.error ? (check.error as Error).message : undefined} />
     </div>
   );
