@@ -89,12 +89,19 @@ export class RunEngine {
   private saving: Promise<void> = Promise.resolve();
   private unsaved: RunEventDraft[] = [];
   private retryTimer: NodeJS.Timeout | null = null;
+  /**
+   * Highest seq on disk in the journal (so also queued for the archive and pushed). The run reports and
+   * saves this as its last seq, never one still waiting in memory for the next flush: a reader can get
+   * every sample up to it, and a restart after a crash does not skip seqs that were never secured.
+   */
+  private securedSeq: number;
 
   constructor(
     private readonly setup: EngineSetup,
     private readonly io: EngineIo,
   ) {
     this.persisted = structuredClone(setup.persisted);
+    this.securedSeq = this.persisted.lastSeq;
     const pressureChannel = setup.rig.rig.channels.find((c) => c.role === 'pressure');
     this.setupM = {
       channels: setup.rig.rig.channels,
@@ -132,6 +139,7 @@ export class RunEngine {
     if (this.closed) return;
     this.closed = true;
     for (const t of this.timers) clearInterval(t);
+    this.flush(); // now, so the view of the command that closed the run already counts every sample (lastSeq)
     await this.connection?.stop();
     this.flush();
     await this.queueSave([]);
@@ -210,6 +218,7 @@ export class RunEngine {
     this.pending = [];
     try {
       this.io.journal.append(rows); // on disk before anything else sees them
+      this.securedSeq = rows[rows.length - 1].seq;
     } catch (err) {
       debug('journal append failed: %s', (err as Error).message);
       this.pending = rows.concat(this.pending);
@@ -415,7 +424,7 @@ export class RunEngine {
     const events = this.unsaved;
     this.unsaved = [];
     try {
-      await this.io.save(this.runId, structuredClone(this.persisted), events);
+      await this.io.save(this.runId, { ...structuredClone(this.persisted), lastSeq: this.securedSeq }, events);
     } catch (err) {
       this.unsaved = events.concat(this.unsaved);
       debug('save failed (%s); %d events wait for the database', (err as Error).message, this.unsaved.length);
@@ -513,7 +522,7 @@ export class RunEngine {
       readingFlags: holdMin !== null && this.isActive && this.setup.rig.rig.mode === 'manual' ? lateReadings(this.setup.plan.readingSchedule, this.manualTimes, holdMin, 1) : [],
       alarms: Object.values(this.persisted.alarms).filter((a) => a.state !== 'cleared'),
       watchers: [...this.watchers.values()],
-      lastSeq: this.persisted.lastSeq,
+      lastSeq: this.securedSeq,
       stagePoints: this.persisted.stagePoints ?? [],
     };
   }

@@ -32,6 +32,15 @@ beforeAll(async () => {
   await seedDemo();
   ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', 20, 'R2 rig'));
 }, 120_000);
+/** Samples of a run with seq ≤ upTo: count, distinct seqs, lowest and highest (exactly once and contiguous when n = d = hi = upTo, lo = 1). */
+async function archived(runId: number, upTo: number) {
+  const [row] = (await server.sequelize.query('SELECT COUNT(*) AS n, COUNT(DISTINCT seq) AS d, MIN(seq) AS lo, MAX(seq) AS hi FROM samples WHERE run_id = ? AND seq <= ?', {
+    replacements: [runId, upTo],
+    type: QueryTypes.SELECT,
+  })) as { n: number; d: number; lo: number; hi: number }[];
+  return row;
+}
+
 afterAll(async () => {
   await server?.close();
   await sim?.stop();
@@ -58,6 +67,14 @@ describe('database outage during a run (QUALITY R2)', () => {
     socket.on('run:view', (v) => views.push(v));
     await socket.emitWithAck('run:join', { runId, afterSeq: 0 });
 
+    // The run's lastSeq counts only samples already on disk in the journal and queued for the archive
+    // (never one still waiting for the next flush), so after a drain every one of them is in the table.
+    for (let i = 0; i < 20; i++) {
+      const upTo = (await operator.get(`/api/runs/${runId}`)).body.lastSeq as number;
+      await server.runs.archiver.drain();
+      expect(await archived(runId, upTo)).toEqual({ n: upTo, d: upTo, lo: 1, hi: upTo });
+    }
+
     await db.stop();
     const seqAtDown = views.at(-1)?.lastSeq ?? 0;
     await new Promise((r) => setTimeout(r, OUTAGE_MS));
@@ -72,17 +89,11 @@ describe('database outage during a run (QUALITY R2)', () => {
 
     db = await startMariadb({ baseDir, port, bufferPool: '64M' });
     await server.runs.archiver.drain(); // the backlog of the outage lands (retried until the database answers)
-    // The run's lastSeq counts only samples already on disk in the journal and queued for the archive,
-    // so once the queue has drained again every one of them must be in the table, exactly once.
     const upTo = (await operator.get(`/api/runs/${runId}`)).body.lastSeq as number;
     expect(upTo).toBeGreaterThanOrEqual(last.lastSeq);
     await server.runs.archiver.drain();
     expect(server.runs.archiver.healthy).toBe(true);
-    const [row] = (await server.sequelize.query('SELECT COUNT(*) AS n, COUNT(DISTINCT seq) AS d, MIN(seq) AS lo, MAX(seq) AS hi FROM samples WHERE run_id = ? AND seq <= ?', {
-      replacements: [runId, upTo],
-      type: QueryTypes.SELECT,
-    })) as { n: number; d: number; lo: number; hi: number }[];
-    expect(row).toEqual({ n: upTo, d: upTo, lo: 1, hi: upTo });
+    expect(await archived(runId, upTo)).toEqual({ n: upTo, d: upTo, lo: 1, hi: upTo });
 
     // State changes made while the database was away (the hold being met, alarms) are in the record too.
     await command(operator, runId, { type: 'stop', reason: 'end of the outage test' });
