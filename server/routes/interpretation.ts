@@ -2,11 +2,12 @@ import { z } from 'zod';
 import { analyzeRecord, type AnalyzeRecordOptions, type RecordAnalysis } from '../../shared/interpretation/analyze-record';
 import { InterpretationInputError } from '../../shared/interpretation/input-checks';
 import { reduceStages } from '../../shared/interpretation/reduction';
-import type { UltimateMethod } from '../../shared/interpretation/ultimate';
+import { applyDesignInputs } from '../../shared/interpretation/design-inputs';
 import { recordToReadingsCsv, stagePointsToCsv } from '../../shared/records/csv';
 import { toStageReadings } from '../../shared/records/readings';
-import type { RecordFooting, TestRecord } from '../../shared/records/schema';
+import type { TestRecord } from '../../shared/records/schema';
 import { idParams } from '../../shared/schemas/common';
+import { type InterpretationSettings, interpretationSettings, ULTIMATE_METHODS } from '../../shared/schemas/interpretation';
 import { EDITORS, STAFF } from '../auth/permissions';
 import { badRequest, notFound } from '../http/errors';
 import { route } from '../http/route';
@@ -18,61 +19,23 @@ import { loadRunRecord, recordUnavailable } from '../services/run-record';
 import { assertRunUnlocked } from '../services/signoff';
 import type { Response } from 'express';
 
-export const ULTIMATE_METHODS = ['logLogIntersection', 'tangentIntersection', 'hyperbolic', 'settlementCriterion', 'brinchHansen80'] as const satisfies readonly UltimateMethod[];
-
-/** A number, also when it comes as query-string text; other text is left for zod to reject with the field's name. */
-const numeric = <T extends z.ZodNumber>(schema: T) => z.preprocess((v) => (typeof v === 'string' && v.trim() !== '' ? Number(v) : v), schema);
-
-/** The engineer's interpretation settings; every one optional (absent: the record's own value or the method's default). */
-export const interpretationOptions = z.strictObject({
-  /** Footing to scale to; overrides the record's footing field by field. */
-  footingShape: z.enum(['square', 'circular', 'strip', 'rectangular']).optional(),
-  /** Footing width, m. */
-  footingWidthM: numeric(z.number().positive().max(50)).optional(),
-  soilBehaviour: z.enum(['cohesionless', 'cohesive']).optional(),
-  /** Permissible footing settlement, mm. */
-  permissibleSettlementMm: numeric(z.number().positive().max(500)).optional(),
-  factorOfSafety: numeric(z.number().min(1).max(10)).optional(),
-  /** The ultimate-pressure method carried to the footing; default the lowest value any method determines. */
-  ultimateMethod: z.enum(ULTIMATE_METHODS).optional(),
-  /** σ0max convention of Ev2 (DIN 18134). */
-  evConvention: z.enum(['firstLoadingMax', 'branchMax']).optional(),
-});
-export type InterpretationOptions = z.infer<typeof interpretationOptions>;
-
 export const saveInterpretationInput = z.strictObject({
-  options: interpretationOptions.default({}),
+  options: interpretationSettings.default({}),
   chosenMethod: z.enum(ULTIMATE_METHODS),
   reason: z.string().trim().min(1, 'required: say why this method').max(500),
 });
 
-/** The record's footing with the engineer's overrides, or none; a footing needs a width and a soil behaviour. */
-function footingWith(record: TestRecord, o: InterpretationOptions): RecordFooting | undefined {
-  const base = record.footing;
-  const overrides = {
-    ...(o.footingShape ? { shape: o.footingShape } : {}),
-    ...(o.footingWidthM !== undefined ? { widthM: o.footingWidthM } : {}),
-    ...(o.soilBehaviour ? { soilBehaviour: o.soilBehaviour } : {}),
-    ...(o.permissibleSettlementMm !== undefined ? { permissibleSettlementMm: o.permissibleSettlementMm } : {}),
-    ...(o.factorOfSafety !== undefined ? { factorOfSafety: o.factorOfSafety } : {}),
-  };
-  if (base) return { ...base, ...overrides };
-  if (Object.keys(overrides).length === 0) return undefined;
-  if (o.footingWidthM === undefined) throw badRequest('footingWidthM: required, as the record names no footing', 'footingWidthM');
-  if (!o.soilBehaviour) throw badRequest('soilBehaviour: required, as the record names no footing', 'soilBehaviour');
-  return { shape: 'square', ...overrides, widthM: o.footingWidthM, soilBehaviour: o.soilBehaviour };
+/** The record as the engineer wants it read, and the analysis options; a missing design input is a 400 naming its field. */
+export function interpretationInput(record: TestRecord, o: InterpretationSettings): { record: TestRecord; options: AnalyzeRecordOptions } {
+  try {
+    return applyDesignInputs(record, o);
+  } catch (err) {
+    if (err instanceof InterpretationInputError) throw badRequest(err.message, err.field);
+    throw err;
+  }
 }
 
-/** The record as the engineer wants it read, and the analysis options. */
-export function interpretationInput(record: TestRecord, o: InterpretationOptions): { record: TestRecord; options: AnalyzeRecordOptions } {
-  const footing = footingWith(record, o);
-  return {
-    record: { ...record, footing },
-    options: { ...(o.ultimateMethod ? { ultimateMethod: o.ultimateMethod } : {}), ...(o.evConvention ? { evConvention: o.evConvention } : {}) },
-  };
-}
-
-function interpret(record: TestRecord, o: InterpretationOptions): RecordAnalysis {
+function interpret(record: TestRecord, o: InterpretationSettings): RecordAnalysis {
   const input = interpretationInput(record, o);
   return analyzeRecord(input.record, input.options);
 }
@@ -149,7 +112,7 @@ export const interpretationRoutes = [
     access: STAFF,
     summary: 'Every interpretation method on the run’s record, with the engineer’s settings from the query',
     params: idParams,
-    query: interpretationOptions,
+    query: interpretationSettings,
     handler: async ({ params, query }) => interpret(await loadRunRecord(params.id), query),
   }),
   route({

@@ -9,6 +9,7 @@ import { describeHoldRule } from '../../shared/hold/criterion';
 import { STANDING_CAUTIONS } from '../../shared/interpretation/analyze-record';
 import { ROOT_DIR } from '../config';
 import { type Doc, drawPlot, type PlotSeries } from './pdf-plot';
+import { interpretationSection as currentInterpretationSection, isCurrentAnalysis } from './report-interpretation';
 import { toWinAnsi } from './pdf-text';
 import type { ReportData, ReportImage, ReportPhoto } from './report-data';
 
@@ -263,7 +264,12 @@ function plotSection(w: ReportWriter, d: ReportData): void {
   w.doc.y = y + 210;
 }
 
+/** The interpretation section: the current analysis's own (report-interpretation.ts), or as signed for one saved before it. */
 function interpretationSection(w: ReportWriter, d: ReportData): void {
+  if (isCurrentAnalysis(d.analysis)) {
+    currentInterpretationSection(w, d);
+    return;
+  }
   const a = d.analysis;
   w.heading('Interpretation');
   if (a.ultimate.applies) {

@@ -186,3 +186,12 @@ export function chooseUltimate(
     },
   };
 }
+
+/** What each standing is called on the page, the report and the command line. */
+export const STANDING_WORDS: Record<UltimateStanding, string> = {
+  ultimate: 'ultimate',
+  yield: 'yield pressure',
+  extrapolated: 'extrapolated',
+  beyondLimits: 'beyond the test',
+  none: 'no value',
+};

@@ -110,15 +110,15 @@ describe('saved interpretations', () => {
     const auditBefore = await AuditEntry.count({ where: { entity: 'interpretation' } });
     const first = await engineer.post(`/api/runs/${importedRunId}/interpretations`, {
       options: { footingWidthM: 2 },
-      chosenMethod: 'logLogIntersection',
-      reason: 'Clear break in the log–log plot at the fourth increment.',
+      chosenMethod: 'hyperbolic',
+      reason: 'The curve bends smoothly; the asymptote, extrapolated, read with care.',
     });
     expect(first.status).toBe(201);
-    expect(first.body).toMatchObject({ runId: importedRunId, version: 1, chosenMethod: 'logLogIntersection' });
-    expect(first.body.result).toEqual(asJson(analyzeRecord({ ...sand, footing: { ...sand.footing!, widthM: 2 } }, { ultimateMethod: 'logLogIntersection' })));
+    expect(first.body).toMatchObject({ runId: importedRunId, version: 1, chosenMethod: 'hyperbolic' });
+    expect(first.body.result).toEqual(asJson(analyzeRecord({ ...sand, footing: { ...sand.footing!, widthM: 2 } }, { ultimateMethod: 'hyperbolic' })));
     const second = await engineer.post(`/api/runs/${importedRunId}/interpretations`, {
-      chosenMethod: 'hyperbolic',
-      reason: 'Second opinion: the curve bends smoothly.',
+      chosenMethod: 'logLogIntersection',
+      reason: 'Second opinion: look for a break in the log–log plot.',
     });
     expect(second.status).toBe(201);
     expect(second.body.version).toBe(2);
@@ -126,15 +126,18 @@ describe('saved interpretations', () => {
     const entries = await AuditEntry.findAll({ where: { entity: 'interpretation' }, order: [['id', 'ASC']] });
     expect(entries).toHaveLength(auditBefore + 2);
     expect(entries.slice(-2).map((e) => [e.action, e.reason, e.entityId])).toEqual([
-      ['saved', 'Clear break in the log–log plot at the fourth increment.', String(first.body.id)],
-      ['saved', 'Second opinion: the curve bends smoothly.', String(second.body.id)],
+      ['saved', 'The curve bends smoothly; the asymptote, extrapolated, read with care.', String(first.body.id)],
+      ['saved', 'Second opinion: look for a break in the log–log plot.', String(second.body.id)],
     ]);
 
     const list = await operator.get(`/api/runs/${importedRunId}/interpretations`);
     expect(list.status).toBe(200);
     expect(list.body.items.map((i: { version: number }) => i.version)).toEqual([2, 1]);
-    expect(list.body.items[1]).toMatchObject({ chosenMethod: 'logLogIntersection', createdByName: expect.any(String) });
+    expect(list.body.items[1]).toMatchObject({ chosenMethod: 'hyperbolic', createdByName: expect.any(String) });
     expect(list.body.items[1].qUltKpa).toBeCloseTo(first.body.result.chosenUltimate.result.qUltKpa, 9);
+    // The log–log method finds no break that stands out from reading noise: the version says so and carries no value.
+    expect(second.body.result.chosenUltimate.reason).toMatch(/^Log–log two-line intersection: no significant break/);
+    expect(list.body.items[0].qUltKpa).toBeNull();
   });
 
   it('needs a method and a reason', async () => {

@@ -70,7 +70,10 @@ describe('PDF report', () => {
     // (tests/fixtures/records/README.md): the ultimate lies between the largest pressure and the asymptote.
     expect(qUlt).toBeGreaterThan(600);
     expect(qUlt).toBeLessThan(800);
-    expect(text).toContain(`${qUlt.toFixed(0)} kPa by Hyperbolic`);
+    // The same statement the page and the command line print (PDF text is Windows-1252: ≥ and the like spelt out).
+    const statement = analysis.chosenUltimate.applies ? analysis.chosenUltimate.result.statement : '';
+    expect(text.replace(/\s+/g, ' ')).toContain(toWinAnsi(statement).slice(0, 60));
+    expect(text).toContain('Hyperbolic asymptote');
     expect(text).toContain('square, 450 mm');
     expect(text).toContain('Plate load test report');
     expect(text).toContain('The curve bends smoothly towards an asymptote.');
@@ -78,9 +81,12 @@ describe('PDF report', () => {
     const top = analysis.reduction.points.reduce((a, b) => (b.pressureKpa > a.pressureKpa ? b : a));
     expect(text).toContain(top.pressureKpa.toFixed(1));
     expect(text).toContain(top.settlementMm.toFixed(3));
-    for (const phrase of ['one spot and one depth', '2–3 plate widths deeper', 'long-term consolidation settlement', 'licensed geotechnical engineer'])
+    for (const phrase of ['one spot and one depth', 'two footing widths', 'long-term consolidation settlement', 'licensed geotechnical engineer'])
       expect(text).toContain(phrase);
     expect(text).toContain('Not signed');
+    // What the allowable pressure rests on, and the zero correction, as the analysis states them.
+    expect(text.replace(/\s+/g, ' ')).toContain('Net pressure at founding level');
+    expect(text.replace(/\s+/g, ' ')).toContain('Origin of the curve: the end of the seating stage');
   });
 
   it('carries the signature, its UTC time and the data hash once signed', async () => {

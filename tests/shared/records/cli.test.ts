@@ -84,6 +84,39 @@ describe('npm run analyze', { timeout: 30_000 }, () => {
     expect(run.stdout).toContain('Cautions\n  - The results describe the soil under one plate');
   });
 
+  it('speaks a practitioner’s words: no internal identifiers, every table explained, the procedure named', async () => {
+    for (const name of ['sand-bearing-450-square.json', 'modulus-two-cycle-300.json']) {
+      const run = await analyze(`${FIXTURES}/${name}`);
+      expect(run.code).toBe(0);
+      expect(run.stdout.match(/\b[a-z]{2,}[A-Z][a-z]+[A-Za-z]*\b/g) ?? [], name).toEqual([]); // no camelCase keys (units such as kPa are fine)
+      expect(run.stdout.split('\n').slice(1).join('\n')).not.toMatch(/bearing-granular|modulus-two-cycle/); // the procedure by name, not by key
+    }
+    const sand = await analyze(`${FIXTURES}/sand-bearing-450-square.json`);
+    expect(sand.stdout).toContain('  Procedure                             Bearing test — maintained load, granular soil');
+    expect(sand.stdout).toContain('    q_ult/q_max: over the largest pressure tested (600.0 kPa); above 1 lies beyond the test');
+    expect(sand.stdout).toMatch(/Carried to the footing checks {9}Failure not reached: q_ult ≥ 600\.0 kPa/);
+    const modulus = await analyze(`${FIXTURES}/modulus-two-cycle-300.json`);
+    expect(modulus.stdout).toContain('    300 mm circular plate; σ0max of the first loading for Ev1 and Ev2 (σ0max = 500 kPa); stages read 2 min after each target was reached.');
+    expect(modulus.stdout).toMatch(/Ultimate pressure of the plate\n {2}All methods {27}not shown for this procedure/);
+  });
+
+  it('takes the design inputs as flags, checked as the page checks them (strip footing from a square plate in clay)', async () => {
+    const run = await analyze(`${FIXTURES}/sand-bearing-450-square.json`, '--footing-shape', 'strip', '--soil', 'clay', '--method', 'hyperbolic', '--safety-factor', '2.5');
+    expect(run.stderr).toBe('');
+    const expected = analyzeRecord(
+      { ...fixtureRecord('sand-bearing-450-square.json'), footing: { ...fixtureRecord('sand-bearing-450-square.json').footing!, shape: 'strip', soilBehaviour: 'cohesive', factorOfSafety: 2.5 } },
+      { ultimateMethod: 'hyperbolic' },
+    );
+    const footing = result(expected.footing);
+    expect(run.stdout).toContain(`  Ultimate pressure of the footing      ${result(footing.ultimate).qUltKpa.toFixed(1)} kPa (shape factor 0.833)`);
+    expect(run.stdout).toContain('factor of safety 2.5 on the net ultimate');
+    const bad = await analyze(`${FIXTURES}/sand-bearing-450-square.json`, '--soil', 'rock');
+    expect([bad.code, bad.stderr]).toEqual([2, 'analyze: --soil: "rock" is not one of sand, clay, cohesionless, cohesive\n']);
+    const low = await analyze(`${FIXTURES}/sand-bearing-450-square.json`, '--safety-factor', '0.5');
+    expect(low.code).toBe(2);
+    expect(low.stderr).toMatch(/^analyze: --safety-factor: Too small/);
+  });
+
   it('exits 2 naming the file, line and column of a broken CSV', async () => {
     const lines = fixtureText('sand-bearing-450-square.csv').split('\n');
     const at = lines.findIndex((l) => l.startsWith('2,"loading"'));

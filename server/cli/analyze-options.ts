@@ -1,0 +1,67 @@
+import { type InterpretationSettings, interpretationSettings } from '@shared/schemas/interpretation';
+import { BadInputError } from './load-record';
+
+/** The design flags of `npm run analyze`, in a practitioner's words, and the setting each one fills. */
+const DESIGN_FLAGS = {
+  method: 'ultimateMethod',
+  'footing-shape': 'footingShape',
+  'footing-width': 'footingWidthM',
+  'footing-length': 'footingLengthM',
+  soil: 'soilBehaviour',
+  'settlement-limit': 'permissibleSettlementMm',
+  'safety-factor': 'factorOfSafety',
+  depth: 'foundationDepthM',
+  'unit-weight': 'unitWeightKnM3',
+  'column-load': 'columnLoadKn',
+  application: 'kApplication',
+  'ev-convention': 'evConvention',
+} as const satisfies Record<string, keyof InterpretationSettings>;
+
+/** The method names the command line takes, for the methods' own keys. */
+const METHOD_WORDS: Record<string, NonNullable<InterpretationSettings['ultimateMethod']>> = {
+  'log-log': 'logLogIntersection',
+  tangent: 'tangentIntersection',
+  hyperbolic: 'hyperbolic',
+  criterion: 'settlementCriterion',
+  'brinch-hansen': 'brinchHansen80',
+};
+const SOIL_WORDS: Record<string, NonNullable<InterpretationSettings['soilBehaviour']>> = { sand: 'cohesionless', clay: 'cohesive', cohesionless: 'cohesionless', cohesive: 'cohesive' };
+const EV_WORDS: Record<string, NonNullable<InterpretationSettings['evConvention']>> = { 'first-loading': 'firstLoadingMax', 'each-branch': 'branchMax' };
+
+export const DESIGN_USAGE = `Design inputs (optional; the record's footing otherwise):
+  --method NAME            ultimate pressure carried to the footing: ${Object.keys(METHOD_WORDS).join(', ')}
+                           (default: the lowest ultimate within the test, else q_ult ≥ the largest pressure)
+  --footing-shape SHAPE    square, circular, strip or rectangular
+  --footing-width M        footing width, m
+  --footing-length M       length of a rectangular footing, m
+  --soil SOIL              sand (cohesionless) or clay (cohesive)
+  --settlement-limit MM    permissible footing settlement, mm (default 25)
+  --safety-factor FS       on the net ultimate pressure (default 3)
+  --depth M                depth of the footing base below ground, m
+  --unit-weight KN_M3      unit weight of the soil above the base, kN/m³
+  --column-load KN         column load: the square footing width that keeps the settlement limit
+  --application N          repeated loading: which application of each level gives k (default the procedure's)
+  --ev-convention NAME     first-loading or each-branch (σ0max of Ev2)`;
+
+export const DESIGN_OPTIONS = Object.fromEntries(Object.keys(DESIGN_FLAGS).map((flag) => [flag, { type: 'string' as const }])) as Record<
+  keyof typeof DESIGN_FLAGS,
+  { type: 'string' }
+>;
+
+/** The design settings from parsed flags, checked by the same schema as the page's; a bad value names its flag. */
+export function designSettings(values: Partial<Record<keyof typeof DESIGN_FLAGS, string | undefined>>): InterpretationSettings {
+  const raw: Record<string, string> = {};
+  for (const [flag, key] of Object.entries(DESIGN_FLAGS) as [keyof typeof DESIGN_FLAGS, keyof InterpretationSettings][]) {
+    const text = values[flag];
+    if (text === undefined) continue;
+    const words = flag === 'method' ? METHOD_WORDS : flag === 'soil' ? SOIL_WORDS : flag === 'ev-convention' ? EV_WORDS : null;
+    if (words && !(text in words)) throw new BadInputError(`--${flag}: "${text}" is not one of ${Object.keys(words).join(', ')}`);
+    raw[key] = words ? words[text] : text;
+  }
+  const parsed = interpretationSettings.safeParse(raw);
+  if (parsed.success) return parsed.data;
+  const issue = parsed.error.issues[0];
+  const flag = Object.entries(DESIGN_FLAGS).find(([, key]) => key === issue.path[0])?.[0] ?? String(issue.path[0]);
+  throw new BadInputError(`--${flag}: ${issue.message}`);
+}
+

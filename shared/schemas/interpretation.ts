@@ -1,0 +1,46 @@
+import { z } from 'zod';
+import type { UltimateMethod } from '../interpretation/ultimate';
+
+export const ULTIMATE_METHODS = ['logLogIntersection', 'tangentIntersection', 'hyperbolic', 'settlementCriterion', 'brinchHansen80'] as const satisfies readonly UltimateMethod[];
+
+/** What a practitioner reads for each ultimate-pressure method (the page, the report and the command line). */
+export const ULTIMATE_METHOD_NAMES: Record<UltimateMethod, string> = {
+  logLogIntersection: 'Log–log two-line intersection',
+  tangentIntersection: 'Tangent intersection',
+  hyperbolic: 'Hyperbolic asymptote (Chin–Kondner)',
+  settlementCriterion: 'Settlement criterion',
+  brinchHansen80: 'Brinch Hansen 80 %',
+};
+
+/** A number, also when it comes as text (query string, command line); other text is left for zod to reject with the field's name. */
+const numeric = <T extends z.ZodNumber>(schema: T) => z.preprocess((v) => (typeof v === 'string' && v.trim() !== '' ? Number(v) : v), schema);
+
+/**
+ * The engineer's interpretation settings and design inputs, every one optional (absent: the record's own
+ * value or the method's default). One schema for the API query, the saved options and `npm run analyze`.
+ */
+export const interpretationSettings = z.strictObject({
+  /** Footing to scale to; overrides the record's footing field by field. */
+  footingShape: z.enum(['square', 'circular', 'strip', 'rectangular']).optional(),
+  /** Footing width, m. */
+  footingWidthM: numeric(z.number().positive().max(50)).optional(),
+  /** Footing length of a rectangular footing, m. */
+  footingLengthM: numeric(z.number().positive().max(200)).optional(),
+  soilBehaviour: z.enum(['cohesionless', 'cohesive']).optional(),
+  /** Permissible footing settlement, mm. */
+  permissibleSettlementMm: numeric(z.number().positive().max(500)).optional(),
+  factorOfSafety: numeric(z.number().min(1).max(10)).optional(),
+  /** Depth of the footing base below ground, m. */
+  foundationDepthM: numeric(z.number().min(0).max(50)).optional(),
+  /** Unit weight of the soil above founding level, kN/m³. */
+  unitWeightKnM3: numeric(z.number().min(0).max(30)).optional(),
+  /** Column load on a square footing, kN: gives the footing width for the settlement limit. */
+  columnLoadKn: numeric(z.number().positive().max(100_000)).optional(),
+  /** The ultimate-pressure method carried to the footing; default the lowest ultimate within the test, else q_ult ≥ q_max. */
+  ultimateMethod: z.enum(ULTIMATE_METHODS).optional(),
+  /** σ0max convention of Ev2 (DIN 18134). */
+  evConvention: z.enum(['firstLoadingMax', 'branchMax']).optional(),
+  /** Which application of each load level gives the loading curve and k (repeated loading). */
+  kApplication: numeric(z.number().int().min(1).max(20)).optional(),
+});
+export type InterpretationSettings = z.infer<typeof interpretationSettings>;
