@@ -9,6 +9,7 @@ import * as corrections from './migrations/0006-corrections';
 import * as rollups from './migrations/0007-sample-rollups';
 import * as photos from './migrations/0008-photos';
 import * as instrumentFields from './migrations/0009-instrument-fields';
+import * as jackRatedPressure from './migrations/0011-jack-rated-pressure';
 import * as signedReports from './migrations/0010-signed-reports';
 
 export interface Migration {
@@ -27,6 +28,7 @@ const MIGRATIONS: [string, Migration][] = [
   ['0007-sample-rollups', rollups],
   ['0008-photos', photos],
   ['0009-instrument-fields', instrumentFields],
+  ['0011-jack-rated-pressure', jackRatedPressure],
   ['0010-signed-reports', signedReports],
 ];
 

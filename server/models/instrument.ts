@@ -13,6 +13,7 @@ export class Instrument extends Model<InferAttributes<Instrument>, InferCreation
   declare unit: string;
   declare resolution: number | null;
   declare travelMm: number | null;
+  declare ratedPressureMpa: number | null;
   declare notes: string;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -36,6 +37,7 @@ export class Instrument extends Model<InferAttributes<Instrument>, InferCreation
       unit: this.unit,
       resolution: this.resolution,
       travelMm: this.travelMm,
+      ratedPressureMpa: this.ratedPressureMpa ?? null,
       notes: this.notes,
       status: calibrationStatus(current?.dueOn, today),
       current: current?.toDto() ?? null,
@@ -59,6 +61,7 @@ export class Instrument extends Model<InferAttributes<Instrument>, InferCreation
         unit: { type: DataTypes.STRING(16), allowNull: false },
         resolution: num(),
         travelMm: num(),
+        ratedPressureMpa: num(),
         notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         createdAt: DataTypes.DATE(3),
         updatedAt: DataTypes.DATE(3),

@@ -4,7 +4,8 @@
  * authority over its run's state; everything it decides is persisted and pushed to watchers.
  */
 import createDebug from 'debug';
-import { type PressureUnit, convertPressure, isPressureUnit } from '../../shared/calibration/units';
+import { jackGaugeFor } from '../../shared/calibration/jack';
+import { convertPressure, isPressureUnit } from '../../shared/calibration/units';
 import { plateAreaM2, plateForceKn } from '../../shared/domain/plate';
 import { type AlarmAction, reduceAlarm } from '../../shared/hold/alarm-lifecycle';
 import { type Alarm, gaugeTravelAlarm, loadDriftAlarm, reactionCapacityAlarm, signalLostAlarm, stopLimitAlarm, stopLimitMm, tiltAlarm } from '../../shared/hold/alarms';
@@ -291,16 +292,9 @@ export class RunEngine {
    * (the transducer or gauge on the jack), converted from the jack calibration's input unit.
    */
   private prompt(stage: PlannedStage) {
-    const jack = this.setup.rig.jack?.calibration ?? null;
-    const toJackUnit = jackGaugePressure(jack, this.jackBranch(stage.index));
-    const shown = this.setupM.pressureUnit;
-    const convertible = jack && shown && shown !== jack.inputUnit && isPressureUnit(shown) && isPressureUnit(jack.inputUnit);
-    const forceToGaugePressure = (force: number) => {
-      const p = toJackUnit(force);
-      return p !== null && convertible ? convertPressure(p, jack.inputUnit as PressureUnit, shown as PressureUnit) : p;
-    };
-    const gaugeUnit = convertible ? shown : (jack?.inputUnit ?? '—');
-    return nextStepPrompt({ stage, plate: this.setup.plan.plate, apparatusWeightKn: this.setup.plan.apparatusWeightKn, forceToGaugePressure, gaugeUnit });
+    // Never beyond the jack calibration's range: the prompt then says why instead of giving a pressure.
+    const gauge = jackGaugeFor(this.setup.rig.jack?.calibration ?? null, { branch: this.jackBranch(stage.index), unit: this.setupM.pressureUnit });
+    return nextStepPrompt({ stage, plate: this.setup.plan.plate, apparatusWeightKn: this.setup.plan.apparatusWeightKn, gaugePressureFor: gauge.pressureFor, gaugeUnit: gauge.unit });
   }
 
   /** With the jack released the plate still carries the apparatus: no target can be below that pressure. */

@@ -255,6 +255,7 @@ async function seedInstruments(t: import('sequelize').Transaction) {
       rangeMax: 25,
       resolution: 0.001,
       travelMm: 25,
+      ratedPressureMpa: null,
       dueIn: 140,
     },
     {
@@ -266,6 +267,7 @@ async function seedInstruments(t: import('sequelize').Transaction) {
       rangeMax: 25,
       resolution: 0.001,
       travelMm: 25,
+      ratedPressureMpa: null,
       dueIn: 140,
     },
     {
@@ -277,6 +279,7 @@ async function seedInstruments(t: import('sequelize').Transaction) {
       rangeMax: 50,
       resolution: 0.01,
       travelMm: 50,
+      ratedPressureMpa: null,
       dueIn: 21,
     },
     {
@@ -288,6 +291,7 @@ async function seedInstruments(t: import('sequelize').Transaction) {
       rangeMax: 50,
       resolution: 0.01,
       travelMm: 50,
+      ratedPressureMpa: null,
       dueIn: -12,
     },
     {
@@ -299,6 +303,7 @@ async function seedInstruments(t: import('sequelize').Transaction) {
       rangeMax: 700,
       resolution: 0.1,
       travelMm: null,
+      ratedPressureMpa: null,
       dueIn: 95,
     },
     {
@@ -310,6 +315,7 @@ async function seedInstruments(t: import('sequelize').Transaction) {
       rangeMax: 350,
       resolution: null,
       travelMm: null,
+      ratedPressureMpa: 70,
       dueIn: 160,
     },
     {
@@ -321,6 +327,7 @@ async function seedInstruments(t: import('sequelize').Transaction) {
       rangeMax: 150,
       resolution: null,
       travelMm: null,
+      ratedPressureMpa: 70,
       dueIn: 60,
     },
   ] as const;
@@ -332,14 +339,15 @@ async function seedInstruments(t: import('sequelize').Transaction) {
         ? {
             inputUnit: 'MPa' as const,
             outputUnit: 'kN' as const,
+            range: [0, 70] as [number, number],
             ...(fields.serialNumber === 'JK-50-031'
               ? // Seal friction: the same oil pressure gives ~3 % more force while unloading.
                 { curve: { kind: 'linear' as const, c0: 0, c1: 4.926 }, fallingCurve: { kind: 'linear' as const, c0: 0, c1: 5.077 } }
               : { curve: { kind: 'linear' as const, c0: 0.1, c1: 2.27 } }),
           }
         : fields.kind === 'pressure'
-          ? { inputUnit: 'bar' as const, outputUnit: 'bar' as const, curve: { kind: 'linear' as const, c0: 0, c1: 1.0 } }
-          : { inputUnit: 'mm' as const, outputUnit: 'mm' as const, curve: { kind: 'linear' as const, c0: 0, c1: 1.0 } };
+          ? { inputUnit: 'bar' as const, outputUnit: 'bar' as const, curve: { kind: 'linear' as const, c0: 0, c1: 1.0 }, range: [0, 700] as [number, number] }
+          : { inputUnit: 'mm' as const, outputUnit: 'mm' as const, curve: { kind: 'linear' as const, c0: 0, c1: 1.0 }, range: [0, fields.travelMm ?? 25] as [number, number] };
     await CalibrationRecord.create(
       {
         instrumentId: instrument.id,

@@ -1,5 +1,5 @@
-import { applyCalibration, type Branch } from './evaluate';
-import { inverseCalibration } from './inverse';
+import { applyCalibration, type Branch, calibratedRange } from './evaluate';
+import { inverseCalibration, OutsideCalibratedRange } from './inverse';
 import type { Calibration } from './schema';
 import { convertPressure, isPressureUnit, type PressureUnit } from './units';
 
@@ -59,7 +59,8 @@ export interface ForceToGaugeOptions extends JackOptions {
 /**
  * Builds `forceToGaugePressure(plateForceKn)`: the gauge pressure to pump to for a total plate
  * force, through the jack calibration (its rising branch unless told otherwise), less the
- * apparatus weight. Throws for a force the apparatus alone exceeds, or beyond a polynomial's range.
+ * apparatus weight. Throws for a force the apparatus alone exceeds, or one outside the calibrated range
+ * ({@link OutsideCalibratedRange}).
  */
 export function createForceToGaugePressure(calibration: Calibration, options: ForceToGaugeOptions = {}): (plateForceKn: number) => number {
   const calibratedUnit = checkJackCalibration(calibration);
@@ -70,5 +71,80 @@ export function createForceToGaugePressure(calibration: Calibration, options: Fo
     const jackForceKn = plateForceKn - apparatusWeightKn;
     if (!(jackForceKn >= 0)) throw new RangeError(`plate force ${plateForceKn} kN is below the apparatus weight ${apparatusWeightKn} kN`);
     return convertPressure(inverse(jackForceKn), calibratedUnit, unit);
+  };
+}
+
+/** Why a jack must not be pumped to the pressure a force needs. */
+export interface JackRefusal {
+  /**
+   * 'above-calibration' / 'below-calibration': the pressure lies outside the jack calibration's span;
+   * 'rated': above the jack's rated pressure; 'unusable': there is no calibration to work it out with.
+   */
+  reason: 'above-calibration' | 'below-calibration' | 'rated' | 'unusable';
+  /** Gauge pressure the force would need (the curve extended), in the gauge unit; null when it cannot be said. */
+  needed: number | null;
+  /** The limit broken, in the gauge unit; null when `unusable`. */
+  limit: number | null;
+  /** What is wrong, for `unusable`. */
+  detail: string | null;
+}
+
+/** The gauge pressure for a jack force, or why there is none to pump to. */
+export type GaugeAnswer = { pressure: number; refusal: null } | { pressure: null; refusal: JackRefusal };
+
+/** Options of {@link jackGaugeFor}. */
+export interface JackGaugeOptions {
+  /** Calibration branch: 'rising' when loading (the default), 'falling' when unloading. */
+  branch?: Branch;
+  /** Unit the operator reads the pressure in (the pressure channel's). Defaults to the calibration's input unit. */
+  unit?: string | null;
+  /** The jack's rated (maximum working) pressure, MPa; null or omitted when not recorded. */
+  ratedPressureMpa?: number | null;
+}
+
+const refuse = (refusal: JackRefusal): GaugeAnswer => ({ pressure: null, refusal });
+
+/**
+ * What the operator pumps to for a jack force: the gauge pressure from the jack calibration (inverted,
+ * never beyond its calibrated span), in the unit the operator reads, refused above the jack's rated
+ * pressure. Each refusal carries the pressure that would have been needed and the limit it breaks.
+ */
+export function jackGaugeFor(calibration: Calibration | null, options: JackGaugeOptions = {}): { unit: string; pressureFor: (jackForceKn: number) => GaugeAnswer } {
+  if (!calibration) return { unit: options.unit ?? '—', pressureFor: () => refuse({ reason: 'unusable', needed: null, limit: null, detail: 'The rig has no calibrated jack: choose one in the rig set-up.' }) };
+  let calibratedUnit: PressureUnit;
+  try {
+    calibratedUnit = checkJackCalibration(calibration);
+  } catch (err) {
+    const detail = (err as Error).message;
+    return { unit: options.unit ?? calibration.inputUnit, pressureFor: () => refuse({ reason: 'unusable', needed: null, limit: null, detail }) };
+  }
+  const shown = options.unit && isPressureUnit(options.unit) ? options.unit : calibratedUnit;
+  const toShown = (p: number) => convertPressure(p, calibratedUnit, shown);
+  const rated = options.ratedPressureMpa != null && options.ratedPressureMpa > 0 ? convertPressure(options.ratedPressureMpa, 'MPa', shown) : null;
+  const [lo, hi] = calibratedRange(calibration);
+  const branch = options.branch ?? 'rising';
+  const inverse = inverseCalibration(calibration, branch);
+  // Whether a force beyond the span lies at its low end (for curves that cannot say what they would need).
+  const belowSpan = (force: number) => {
+    const [fLo, fHi] = [applyCalibration(calibration, lo, branch), applyCalibration(calibration, hi, branch)];
+    return fLo < fHi ? force < fLo : force > fLo;
+  };
+  return {
+    unit: shown,
+    pressureFor: (jackForceKn) => {
+      let pressure: number;
+      try {
+        pressure = toShown(inverse(jackForceKn));
+      } catch (err) {
+        if (!(err instanceof OutsideCalibratedRange)) throw err;
+        const needed = err.needed === null ? null : toShown(err.needed);
+        const below = err.needed !== null ? err.needed < lo : belowSpan(jackForceKn);
+        // The smaller of two broken upper limits is the one that matters.
+        if (!below && rated !== null && rated < toShown(hi)) return refuse({ reason: 'rated', needed, limit: rated, detail: null });
+        return refuse({ reason: below ? 'below-calibration' : 'above-calibration', needed, limit: toShown(below ? lo : hi), detail: null });
+      }
+      if (rated !== null && pressure > rated) return refuse({ reason: 'rated', needed: pressure, limit: rated, detail: null });
+      return { pressure, refusal: null };
+    },
   };
 }

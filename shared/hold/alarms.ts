@@ -1,9 +1,22 @@
+import { calibratedRange } from '../calibration/evaluate';
+import type { Calibration } from '../calibration/schema';
 import { InterpretationInputError, requireFinite, requireInRange, requireNonNegative, requirePositive } from '../interpretation/input-checks';
 import { type GaugeAtPosition, meanSettlement, planeFitTilt, type Tilt, tiltBetweenGauges } from '../interpretation/reduction';
 import type { Termination } from '../schemas/plans';
+import type { GaugeJump } from './gauge-reset';
 import type { RuleSource } from './verdict';
 
-export type AlarmCode = 'load-drift' | 'plate-tilt' | 'gauge-travel' | 'stop-limit' | 'reaction-capacity' | 'signal-lost' | 'calibration-overdue';
+export type AlarmCode =
+  | 'load-drift'
+  | 'plate-tilt'
+  | 'gauge-travel'
+  | 'stop-limit'
+  | 'reaction-capacity'
+  | 'signal-lost'
+  | 'calibration-overdue'
+  | 'outside-calibration'
+  | 'unexplained-jump'
+  | 'readings-unsecured';
 export type AlarmSeverity = 'warning' | 'critical';
 
 /** The state of one alarm rule now. Rules are pure; the lifecycle (acknowledge, shelve…) is alarm-lifecycle.ts. */
@@ -19,6 +32,15 @@ export interface Alarm {
   limit: number;
   unit: string;
   source: RuleSource;
+  /** What the rule saw, where a figure is not enough (e.g. the readings either side of a jump). */
+  evidence?: AlarmEvidence;
+}
+
+/** Two readings and their times (run clock ms) that show what the alarm is about. */
+export interface AlarmEvidence {
+  before: { atMs: number; value: number };
+  after: { atMs: number; value: number };
+  unit: string;
 }
 
 const pct = (fraction: number) => `${Math.round(fraction * 1000) / 10} %`;
@@ -280,5 +302,114 @@ export function calibrationAlarm(input: CalibrationInput): Alarm {
     limit: 0,
     unit: 'days',
     source: { tag: 'standard', text: 'ENV 1997-3 §11 — manometers, load and displacement transducers calibrated at least every 6 months' },
+  };
+}
+
+/** Options of {@link calibratedRangeAlarm}. */
+export interface CalibratedRangeInput {
+  /** What the reading is of (a channel key, or the jack); the alarm's subject. */
+  subject: string;
+  /** How the crew knows it, e.g. "Pressure p1 on jack JK-50-031". */
+  label: string;
+  /** The reading in the calibration's input unit. */
+  reading: number;
+  calibration: Calibration;
+}
+
+/**
+ * A reading outside the span its calibration covers: whatever is worked out from it (a force, a plate
+ * pressure, a settlement) is the curve extended beyond its certificate, not a calibrated value (common practice).
+ * Null for a calibration with no finite span (an ideal ram with no certificate).
+ */
+export function calibratedRangeAlarm(input: CalibratedRangeInput): Alarm | null {
+  const [lo, hi] = calibratedRange(input.calibration);
+  if (!Number.isFinite(lo) && !Number.isFinite(hi)) return null;
+  const reading = requireFinite(input.reading, 'reading');
+  const unit = input.calibration.inputUnit;
+  const below = reading < lo;
+  const active = below || reading > hi;
+  const span = `${lo}–${hi} ${unit}`;
+  return {
+    code: 'outside-calibration',
+    subject: input.subject,
+    severity: 'critical',
+    active,
+    message: active
+      ? `${input.label} reads ${reading} ${unit}, ${below ? 'below' : 'beyond'} its calibration (${span}): values worked out from it are extrapolated, not measured. ${below ? 'Check the instrument and its zero' : 'Let pressure off to within the calibration'}, or use an instrument calibrated for this range.`
+      : `${input.label} within its calibration (${span}).`,
+    value: reading,
+    limit: below ? lo : hi,
+    unit,
+    source: { tag: 'common practice', text: 'A calibration holds over the span its certificate covers; the curve is not extended beyond it' },
+  };
+}
+
+/** Options of {@link unexplainedJumpAlarm}. */
+export interface JumpAlarmInput {
+  gauge: string;
+  /** Jumps seen on this gauge in the current stage, oldest first (see `jumpBetween`). */
+  jumps: readonly GaugeJump[];
+  /** When resets of this gauge were recorded, run clock ms. */
+  resetsAtMs: readonly number[];
+  /** A reset recorded up to this long after a jump explains it (the crew resets, then records), ms. Default 5 min. */
+  graceMs?: number;
+}
+
+const clockTime = (ms: number) => new Date(ms).toISOString().slice(11, 19);
+
+/**
+ * A gauge reading that jumped with no reset recorded to explain it: a gauge knocked, slipped or reset
+ * without a record, or a corrupted line (ASCII indicator lines carry no checksum) (common practice). It
+ * stays active, with the readings either side as evidence, until a reset recorded within `graceMs`
+ * explains the jump or the stage ends.
+ */
+export function unexplainedJumpAlarm(input: JumpAlarmInput): Alarm {
+  const grace = requireNonNegative(input.graceMs ?? 300_000, 'graceMs');
+  const unexplained = input.jumps.filter((j) => !input.resetsAtMs.some((t) => t > j.fromMs && t <= j.toMs + grace));
+  const last = unexplained.at(-1);
+  const jumpMm = last ? last.toMm - last.fromMm : null;
+  return {
+    code: 'unexplained-jump',
+    subject: input.gauge,
+    severity: 'warning',
+    active: last !== undefined,
+    message: last
+      ? `Gauge ${input.gauge} jumped from ${last.fromMm.toFixed(3)} mm at ${clockTime(last.fromMs)} to ${last.toMm.toFixed(3)} mm at ${clockTime(last.toMs)} (${jumpMm! > 0 ? '+' : ''}${jumpMm!.toFixed(3)} mm) with no reset recorded${unexplained.length > 1 ? ` (${unexplained.length} jumps this stage)` : ''}: if it was reset, record the reset; otherwise check it is seated and its stem free, and mark the reading faulty.`
+      : `Gauge ${input.gauge}: no unexplained jump this stage.`,
+    value: jumpMm,
+    limit: 0,
+    unit: 'mm',
+    source: { tag: 'common practice', text: 'A dial or indicator that jumps under a held load was knocked, slipped or reset: find out which and record it' },
+    ...(last ? { evidence: { before: { atMs: last.fromMs, value: last.fromMm }, after: { atMs: last.toMs, value: last.toMm }, unit: 'mm' } } : {}),
+  };
+}
+
+/** Options of {@link readingsUnsecuredAlarm}. */
+export interface UnsecuredInput {
+  /** Why the run's journal refuses readings; null while every reading reaches the disk. */
+  failure: { message: string; waiting: number; lost: number } | null;
+  /** Most readings kept in memory meanwhile. */
+  maxWaiting: number;
+}
+
+/**
+ * Readings are not being secured: the run's journal (the disk every reading reaches before anything
+ * else sees it) refuses them. Readings wait in memory up to a bound; beyond it the oldest are given up.
+ */
+export function readingsUnsecuredAlarm(input: UnsecuredInput): Alarm {
+  const f = input.failure;
+  return {
+    code: 'readings-unsecured',
+    subject: null,
+    severity: 'critical',
+    active: f !== null,
+    message:
+      f === null
+        ? 'Readings are secured on disk.'
+        : `Readings are not being secured: the journal refuses them (${f.message}). ${f.waiting} wait in memory${f.lost > 0 ? `; ${f.lost} oldest given up` : ''}. Free the disk or stop the run.`,
+    value: f === null ? 0 : f.waiting,
+    limit: input.maxWaiting,
+    unit: 'readings',
+    source: { tag: 'common practice', text: 'A reading counts as recorded only once it is on disk; a recorder that cannot write must say so at once' },
   };
 }

@@ -45,6 +45,9 @@ export interface UnmarkedJump {
   index: number;
   fromMin: number;
   toMin: number;
+  /** The readings either side of the jump, mm. */
+  fromMm: number;
+  toMm: number;
   jumpMm: number;
   divisions: number;
 }
@@ -55,6 +58,28 @@ export interface JumpOptions {
   resolutionMm: number;
   /** A change of more than this many divisions between consecutive readings is a jump. Default 100 (1 mm on a 0.01 mm dial). */
   maxDivisions?: number;
+}
+
+// The slack keeps a change of exactly maxDivisions (1.00 mm / 0.01 mm = 100.00000000000001) unflagged.
+const isJump = (changeMm: number, resolutionMm: number, maxDivisions: number) => Math.abs(changeMm) / resolutionMm > maxDivisions + 1e-9;
+
+/** A jump seen live between two consecutive readings of one gauge (run clock ms), kept as evidence. */
+export interface GaugeJump {
+  fromMs: number;
+  toMs: number;
+  fromMm: number;
+  toMm: number;
+}
+
+/**
+ * The jump between a gauge's previous reading and this one, or null: the live form of
+ * {@link findUnmarkedJumps}, reading by reading. Whether a reset explains it is the alarm's business.
+ */
+export function jumpBetween(previous: { tMs: number; mm: number } | null | undefined, reading: { tMs: number; mm: number }, options: JumpOptions): GaugeJump | null {
+  if (!previous) return null;
+  const resolution = requirePositive(options.resolutionMm, 'resolutionMm');
+  const maxDivisions = requirePositive(options.maxDivisions ?? 100, 'maxDivisions');
+  return isJump(reading.mm - previous.mm, resolution, maxDivisions) ? { fromMs: previous.tMs, toMs: reading.tMs, fromMm: previous.mm, toMm: reading.mm } : null;
 }
 
 /**
@@ -71,10 +96,8 @@ export function findUnmarkedJumps(readings: readonly RawGaugeReading[], resetsAt
     const a = readings[i - 1];
     const b = readings[i];
     const jumpMm = requireFinite(b.rawMm, `readings[${i}].rawMm`) - requireFinite(a.rawMm, `readings[${i - 1}].rawMm`);
-    const divisions = Math.abs(jumpMm) / resolution;
     const marked = resetsAtMin.some((t) => t > a.tMin && t <= b.tMin);
-    // The slack keeps a change of exactly maxDivisions (1.00 mm / 0.01 mm = 100.00000000000001) unflagged.
-    if (divisions > maxDivisions + 1e-9 && !marked) jumps.push({ index: i, fromMin: a.tMin, toMin: b.tMin, jumpMm, divisions });
+    if (isJump(jumpMm, resolution, maxDivisions) && !marked) jumps.push({ index: i, fromMin: a.tMin, toMin: b.tMin, fromMm: a.rawMm, toMm: b.rawMm, jumpMm, divisions: Math.abs(jumpMm) / resolution });
   }
   return jumps;
 }

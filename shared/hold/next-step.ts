@@ -1,3 +1,4 @@
+import type { GaugeAnswer, JackRefusal } from '../calibration/jack';
 import { type Plate, plateAreaM2, plateForceKn } from '../domain/plate';
 import { InterpretationInputError, requireNonNegative, requirePositive } from '../interpretation/input-checks';
 import type { Branch } from '../plans/stages';
@@ -9,9 +10,12 @@ export interface NextStepInput {
   plate: Plate;
   /** Weight of column, spacers and jack body resting on the plate, kN; the jack supplies the rest. Default 0. */
   apparatusWeightKn?: number;
-  /** The jack's calibration, inverted: gauge pressure that gives this jack force; null outside the calibrated range. */
-  forceToGaugePressure: (jackForceKn: number) => number | null;
-  /** Unit of the gauge pressure the calibration returns, e.g. 'MPa' or 'bar'. */
+  /**
+   * The gauge pressure that gives a jack force, or why the jack must not be pumped to it (outside the
+   * calibration's range, above the jack's rated pressure): `jackGaugeFor(...).pressureFor`.
+   */
+  gaugePressureFor: (jackForceKn: number) => GaugeAnswer;
+  /** Unit of the gauge pressure, e.g. 'MPa' or 'bar'. */
   gaugeUnit: string;
 }
 
@@ -24,7 +28,7 @@ export interface NextStepPrompt {
   plateForceKn: number;
   /** Force the jack must supply, kN (total force minus the apparatus weight; 0 when the apparatus alone is heavier). */
   jackForceKn: number;
-  /** Gauge pressure to pump to; null when the calibration cannot give it (see `problem`). */
+  /** Gauge pressure to pump to; null when the calibration cannot give it or the jack must not reach it (see `problem`). */
   gaugePressure: number | null;
   gaugeUnit: string;
   /** Why the prompt cannot be followed as it stands; null when it can. */
@@ -34,7 +38,8 @@ export interface NextStepPrompt {
 /**
  * The prompt once a hold is satisfied: the next target, the plate force it means and the jack gauge
  * pressure to pump to. q = (F_jack + W_app)/A ⇒ F_jack = q·A − W_app (DOMAIN §B.1, §D.1); the
- * gauge pressure comes from the jack's own calibration, passed in.
+ * gauge pressure comes from the jack's own calibration, passed in. A pressure beyond the calibration's
+ * range or the jack's rating is never prompted: the prompt says why and what to do instead.
  */
 export function nextStepPrompt(input: NextStepInput): NextStepPrompt {
   const targetKpa = requireNonNegative(input.stage.targetKpa, 'stage.targetKpa');
@@ -52,11 +57,29 @@ export function nextStepPrompt(input: NextStepInput): NextStepPrompt {
   }
 
   const jackForceKn = totalKn - apparatusKn;
-  const pressure = input.forceToGaugePressure(jackForceKn);
-  if (pressure !== null && !Number.isFinite(pressure)) {
-    throw new InterpretationInputError('forceToGaugePressure', `returned ${pressure} for ${jackForceKn.toFixed(3)} kN`);
+  const answer = input.gaugePressureFor(jackForceKn);
+  if (answer.refusal) return { ...base, jackForceKn, gaugePressure: null, problem: refusalText(answer.refusal, targetKpa, jackForceKn, input.gaugeUnit) };
+  if (!Number.isFinite(answer.pressure)) {
+    throw new InterpretationInputError('gaugePressureFor', `returned ${answer.pressure} for ${jackForceKn.toFixed(3)} kN`);
   }
-  const gaugePressure = pressure !== null && pressure >= 0 ? pressure : null;
-  const problem = gaugePressure === null ? `A jack force of ${jackForceKn.toFixed(2)} kN is outside the jack's calibrated range.` : null;
-  return { ...base, jackForceKn, gaugePressure, problem };
+  return { ...base, jackForceKn, gaugePressure: answer.pressure, problem: null };
+}
+
+/** A figure as the operator reads it: four significant digits, no trailing zeros. */
+const figure = (x: number) => String(Number(x.toPrecision(4)));
+
+/** Why the prompt stops, and what the crew can do about it. */
+function refusalText(r: JackRefusal, targetKpa: number, jackForceKn: number, unit: string): string {
+  const needs = r.needed === null ? `a jack force of ${jackForceKn.toFixed(1)} kN` : `${figure(r.needed)} ${unit} on the jack gauge`;
+  const limit = r.limit === null ? '' : `${figure(r.limit)} ${unit}`;
+  switch (r.reason) {
+    case 'above-calibration':
+      return `Target ${targetKpa} kPa needs ${needs}; the jack calibration is valid to ${limit}. Stop here or use a larger jack.`;
+    case 'rated':
+      return `Target ${targetKpa} kPa needs ${needs}; the jack is rated to ${limit}. Stop here or use a larger jack.`;
+    case 'below-calibration':
+      return `Target ${targetKpa} kPa needs ${needs}, below the jack calibration's range (from ${limit}). Use a smaller jack or a calibration that covers it.`;
+    case 'unusable':
+      return `No gauge pressure for a jack force of ${jackForceKn.toFixed(1)} kN: ${r.detail ?? 'the jack calibration cannot give one.'}`;
+  }
 }

@@ -15,3 +15,8 @@ export function calibrationStatus(dueOn: string | null | undefined, today: strin
 }
 
 export const todayUtc = (now = new Date()) => now.toISOString().slice(0, 10);
+
+/** The moment a calibration stops counting (ms since the epoch): the end of its due date, UTC, as {@link calibrationStatus} has it. */
+export function calibrationExpiresAtMs(dueOn: string): number {
+  return Date.parse(`${dueOn}T00:00:00Z`) + 86_400_000;
+}

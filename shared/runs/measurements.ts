@@ -4,7 +4,7 @@
  * from the jack's oil pressure through its calibration plus the apparatus weight (DOMAIN §B.1).
  */
 import { type Branch, applyCalibration } from '../calibration/evaluate';
-import { inverseCalibration } from '../calibration/inverse';
+import { inverseCalibration, OutsideCalibratedRange } from '../calibration/inverse';
 import type { Calibration } from '../calibration/schema';
 import { convertPressure, isPressureUnit } from '../calibration/units';
 import { type Plate, plateAreaM2 } from '../domain/plate';
@@ -89,7 +89,11 @@ function oilToJackUnit(setup: MeasurementSetup, oil: number): number | string {
   return convertPressure(oil, from, to);
 }
 
-/** The jack's gauge pressure (its calibration input unit) for a jack force; null where it cannot say. */
+/**
+ * The jack's gauge pressure (its calibration input unit) for a jack force; null where it cannot say.
+ * Beyond the calibrated range it is the curve extended (a typed pressure is kept, not dropped; the
+ * outside-calibration alarm flags it). Prompts go through `jackGaugeFor`, which refuses instead.
+ */
 export function jackGaugePressure(jack: Calibration | null, branch: Branch = 'rising'): (jackForceKn: number) => number | null {
   if (!jack) return () => null;
   const inverse = inverseCalibration(jack, branch);
@@ -97,8 +101,8 @@ export function jackGaugePressure(jack: Calibration | null, branch: Branch = 'ri
     try {
       const p = inverse(force);
       return Number.isFinite(p) ? p : null;
-    } catch {
-      return null;
+    } catch (err) {
+      return err instanceof OutsideCalibratedRange ? err.needed : null;
     }
   };
 }

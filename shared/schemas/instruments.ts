@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { calibratedRange } from '../calibration/evaluate';
 import { calibrationSchema } from '../calibration/schema';
 import { optionalText, requiredText } from './common';
 
@@ -17,9 +18,12 @@ export const instrumentInput = z
     resolution: z.number().positive().nullable().default(null),
     /** Stem travel of a displacement gauge, mm. */
     travelMm: z.number().positive().max(500).nullable().default(null),
+    /** A jack's rated (maximum working) oil pressure, MPa: no prompt goes beyond it. Required for jacks. */
+    ratedPressureMpa: z.number().positive().max(300).nullable().default(null),
     notes: optionalText(2000),
   })
-  .refine((i) => i.rangeMin == null || i.rangeMax == null || i.rangeMin < i.rangeMax, { message: 'must be above rangeMin', path: ['rangeMax'] });
+  .refine((i) => i.rangeMin == null || i.rangeMax == null || i.rangeMin < i.rangeMax, { message: 'must be above rangeMin', path: ['rangeMax'] })
+  .refine((i) => i.kind !== 'jack' || i.ratedPressureMpa != null, { message: "a jack needs its rated pressure (from its plate or certificate)", path: ['ratedPressureMpa'] });
 export type InstrumentInput = z.infer<typeof instrumentInput>;
 
 const isoDate = z.iso.date('a date as YYYY-MM-DD');
@@ -32,7 +36,9 @@ export const calibrationRecordInput = z
     method: calibrationSchema,
     notes: optionalText(2000),
   })
-  .refine((c) => c.dueOn > c.calibratedOn, { message: 'must be after calibratedOn', path: ['dueOn'] });
+  .refine((c) => c.dueOn > c.calibratedOn, { message: 'must be after calibratedOn', path: ['dueOn'] })
+  // Every calibration says where it is valid: nothing is worked out from it beyond that span.
+  .refine((c) => Number.isFinite(calibratedRange(c.method)[1]), { message: 'give the span the certificate covers (from, to)', path: ['method', 'range'] });
 export type CalibrationRecordInput = z.infer<typeof calibrationRecordInput>;
 
 export const CALIBRATION_STATUSES = ['in-calibration', 'due-soon', 'overdue', 'uncalibrated'] as const;

@@ -83,9 +83,13 @@ describe('migration 0009 repairs the instrument register', () => {
     await updateViaApi(changed, entered('R-3', 'gauge', 'mm', 1, 50, 0.002, 50));
     const seeded = (await FaultyInstrument.create(entered('R-4', 'gauge', 'mm', 0, 50, 0.01, 50))).get('id') as number;
     const seededTransducer = (await FaultyInstrument.create(entered('R-5', 'pressure', 'bar', 0, 700, 0.1, null))).get('id') as number;
-    const sound = (await Instrument.create(entered('R-6', 'gauge', 'mm', 0, 10, 0.001, 10) as never)).id;
+    // Written with each value in its own column (as by hand, or by a later version of the model).
+    await sequelize.query(
+      "INSERT INTO instruments (kind, make_model, serial_number, range_min, range_max, unit, resolution, travel_mm, notes, created_at, updated_at) VALUES ('gauge', 'Test kit', 'R-6', 0, 10, 'mm', 0.001, 10, '', NOW(3), NOW(3))",
+    );
+    const sound = ((await FaultyInstrument.findOne({ where: { serialNumber: 'R-6' } }))!.get('id')) as number;
 
-    expect(await migrate(sequelize)).toEqual(['0009-instrument-fields']);
+    expect((await migrate(sequelize))[0]).toBe('0009-instrument-fields');
 
     expect(await fields(gauge)).toEqual({ rangeMin: 0, rangeMax: 25, resolution: 0.001, travelMm: 25, notes: '' });
     expect(await fields(transducer)).toEqual({ rangeMin: 0, rangeMax: 700, resolution: 0.1, travelMm: null, notes: '' });

@@ -10,7 +10,8 @@ beforeAll(async () => {
 afterAll(() => t.stop());
 
 const gauge = { kind: 'gauge', makeModel: 'Test indicator', serialNumber: 'T-1', unit: 'mm', rangeMin: 0, rangeMax: 25, resolution: 0.001, travelMm: 25 };
-const line = { inputUnit: 'MPa', outputUnit: 'kN', curve: { kind: 'linear', c0: 0.35, c1: 4.92 } };
+const jack = { kind: 'jack', makeModel: 'Test ram 50 cm²', serialNumber: 'T-J', unit: 'kN', rangeMin: 0, rangeMax: 350, resolution: null, travelMm: null };
+const line = { inputUnit: 'MPa', outputUnit: 'kN', curve: { kind: 'linear', c0: 0.35, c1: 4.92 }, range: [0, 70] };
 
 describe('instrument register', () => {
   it('lists the demo kit with its calibration status, an overdue gauge among it', async () => {
@@ -50,6 +51,17 @@ describe('instrument register', () => {
     expect(await row()).toEqual({ range_min: 0, range_max: 25, resolution: 0.01, travel_mm: 25 });
   });
 
+  it("needs a jack's rated pressure and keeps it", async () => {
+    const missing = await engineer.post('/api/instruments', jack);
+    expect(missing.status).toBe(400);
+    expect(missing.body.error.field).toBe('ratedPressureMpa');
+    const created = await engineer.post('/api/instruments', { ...jack, ratedPressureMpa: 70 });
+    expect(created.status).toBe(201);
+    expect((await engineer.get(`/api/instruments/${created.body.id}`)).body).toMatchObject({ rangeMax: 350, ratedPressureMpa: 70 });
+    const [row] = await t.sequelize.query('SELECT rated_pressure_mpa FROM instruments WHERE id = ?', { replacements: [created.body.id], type: 'SELECT' });
+    expect(row).toEqual({ rated_pressure_mpa: 70 });
+  });
+
   it('keeps the range of a 0–700 bar transducer that has no travel', async () => {
     const created = await engineer.post('/api/instruments', { kind: 'pressure', makeModel: 'Test transducer', serialNumber: 'T-P', unit: 'bar', rangeMin: 0, rangeMax: 700, resolution: 0.1, travelMm: null });
     expect((await engineer.get(`/api/instruments/${created.body.id}`)).body).toMatchObject({ rangeMin: 0, rangeMax: 700, resolution: 0.1, travelMm: null });
@@ -66,6 +78,13 @@ describe('instrument register', () => {
     expect(bad.body.error.field).toBe('method.curve.points.2.x');
     const date = await engineer.post(`/api/instruments/${id}/calibrations`, { calibratedOn: '2026-13-01', dueOn: '2027-01-01', method: line });
     expect(date.body.error.field).toBe('calibratedOn');
+    // Every calibration says where it is valid; a table covers its points.
+    const { range: _r, ...unbounded } = line;
+    const open = await engineer.post(`/api/instruments/${id}/calibrations`, { calibratedOn: '2026-01-01', dueOn: '2026-06-01', method: unbounded });
+    expect(open.status).toBe(400);
+    expect(open.body.error.field).toBe('method.range');
+    const points = { inputUnit: 'MPa', outputUnit: 'kN', curve: { kind: 'table', points: [{ x: 0, y: 0.35 }, { x: 50, y: 246.35 }] } };
+    expect((await engineer.post(`/api/instruments/${id}/calibrations`, { calibratedOn: '2026-01-01', dueOn: '2026-06-01', method: points })).status).toBe(201);
   });
 
   it('keeps a certificate only when its content is a PDF or an image', async () => {

@@ -89,6 +89,24 @@ describe('calibration form', () => {
     });
   });
 
+  it('asks a straight line for the span its certificate covers, and sends it', async () => {
+    const fetchMock = stubFetch({
+      'GET /api/auth/csrf': json(200, { csrfToken: 't' }),
+      'POST /api/instruments/5/calibrations': (init) => json(201, { id: 91, instrumentId: 5, certificateFile: null, ...JSON.parse(String(init.body)) }),
+    });
+    const { user, onSaved } = renderForm();
+    await fillDates(user);
+    await user.type(screen.getByLabelText('Slope c1'), '4.92');
+    await user.click(screen.getByRole('button', { name: 'Record calibration' }));
+    expect(await screen.findByText(/give the span the certificate covers/)).toBeTruthy();
+    expect(fetchMock).not.toHaveBeenCalled();
+    await user.type(screen.getByLabelText('Span from'), '0');
+    await user.type(screen.getByLabelText('Span to'), '50');
+    await user.click(screen.getByRole('button', { name: 'Record calibration' }));
+    await vi.waitFor(() => expect(onSaved).toHaveBeenCalled());
+    expect(requests(fetchMock).find((r) => r.key === 'POST /api/instruments/5/calibrations')?.body.method.range).toEqual([0, 50]);
+  });
+
   it('does not offer a falling branch for a gauge', () => {
     stubFetch({});
     renderForm('gauge');

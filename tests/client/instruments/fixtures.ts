@@ -26,6 +26,7 @@ export function anInstrument(fields: Partial<Instrument> & Pick<Instrument, 'id'
     unit: 'mm',
     resolution: 0.001,
     travelMm: 50,
+    ratedPressureMpa: null,
     notes: '',
     current: fields.status === 'uncalibrated' ? null : calibration(fields.id, '2025-03-01', '2026-03-01'),
     createdAt: '2025-01-01T00:00:00Z',
@@ -57,6 +58,7 @@ export const JACK_OK = anInstrument({
   rangeMax: 500,
   unit: 'kN',
   travelMm: null,
+  ratedPressureMpa: 70,
 });
 
 export const REGISTER = [GAUGE_OK, GAUGE_OVERDUE, GAUGE_SOON, TRANSDUCER_NEW, JACK_OK];

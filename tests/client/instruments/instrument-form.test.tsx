@@ -32,8 +32,29 @@ describe('instrument form', () => {
       rangeMax: 25,
       resolution: null,
       travelMm: 25,
+      ratedPressureMpa: null,
       notes: '',
     });
+  });
+
+  it('asks a jack for its rated pressure and sends it', async () => {
+    const fetchMock = stubFetch({
+      'GET /api/auth/csrf': json(200, { csrfToken: 't' }),
+      'POST /api/instruments': (init) => json(201, { id: 32, status: 'uncalibrated', current: null, ...JSON.parse(String(init.body)) }),
+    });
+    const onSaved = vi.fn();
+    const { user } = renderWithProviders(<InstrumentForm onSaved={onSaved} />);
+    await user.selectOptions(screen.getByLabelText('Kind'), 'jack');
+    await user.type(screen.getByLabelText('Make and model'), 'Orrin 300 kN ram');
+    await user.type(screen.getByLabelText('Serial number'), 'OR-300');
+    await user.type(screen.getByLabelText('Unit'), 'kN');
+    await user.click(screen.getByRole('button', { name: 'Register instrument' }));
+    expect(describedText(await screen.findByLabelText('Rated pressure'))).toContain('rated pressure');
+    expect(fetchMock).not.toHaveBeenCalled();
+    await user.type(screen.getByLabelText('Rated pressure'), '70');
+    await user.click(screen.getByRole('button', { name: 'Register instrument' }));
+    await vi.waitFor(() => expect(onSaved).toHaveBeenCalled());
+    expect(requests(fetchMock).find((r) => r.key === 'POST /api/instruments')?.body).toMatchObject({ kind: 'jack', ratedPressureMpa: 70 });
   });
 
   it('checks the range with the shared schema before saving a change', async () => {

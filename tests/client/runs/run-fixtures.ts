@@ -21,7 +21,7 @@ const PLATE = { shape: 'circular' as const, sizeMm: 300 };
 
 export function aPrompt(stageIndex: number) {
   const stage = STAGES[stageIndex];
-  return nextStepPrompt({ stage, plate: PLATE, forceToGaugePressure: toBar, gaugeUnit: 'bar' });
+  return nextStepPrompt({ stage, plate: PLATE, gaugePressureFor: (kn) => ({ pressure: toBar(kn), refusal: null }), gaugeUnit: 'bar' });
 }
 
 export const SETTLING_HOLD: HoldEvaluation = {

@@ -1,5 +1,8 @@
 import { describe, expect, it } from 'vitest';
+import { calibrationExpiresAtMs } from '@shared/instruments/status';
+import { jumpBetween, type GaugeJump } from '@shared/hold/gauge-reset';
 import {
+  calibratedRangeAlarm,
   calibrationAlarm,
   gaugeTravelAlarm,
   loadDriftAlarm,
@@ -9,6 +12,7 @@ import {
   stopLimitAlarm,
   stopLimitMm,
   tiltAlarm,
+  unexplainedJumpAlarm,
 } from '@shared/hold/alarms';
 
 const polar = (radiusMm: number, degrees: number, settlementMm: number) => ({
@@ -123,5 +127,77 @@ describe('calibration', () => {
     expect(calibrationAlarm({ instrument: 'Jack J-2', dueAtMs: 10 * day, nowMs: 11 * day })).toMatchObject({ active: true, value: 1 });
     expect(calibrationAlarm({ instrument: 'Jack J-2', dueAtMs: null, nowMs: 0 }).active).toBe(true);
     expect(calibrationAlarm({ instrument: 'Jack J-2', dueAtMs: 30 * day, nowMs: 11 * day }).message).toMatch(/due in 19 day/);
+  });
+});
+
+describe('calibration expiring during a run', () => {
+  it('stays quiet through the due date and fires from the next day (usable through its due date — common practice)', () => {
+    const expires = calibrationExpiresAtMs('2026-12-02');
+    expect(expires).toBe(Date.parse('2026-12-03T00:00:00Z'));
+    const at = (iso: string) => calibrationAlarm({ instrument: 'Gauge DG-2107', dueAtMs: expires, nowMs: Date.parse(iso) });
+    expect(at('2026-12-02T23:59:59Z').active).toBe(false);
+    const after = at('2026-12-03T00:00:01Z');
+    expect(after).toMatchObject({ code: 'calibration-overdue', subject: 'Gauge DG-2107', active: true });
+    expect(after.message).toMatch(/past its calibration due date/);
+  });
+});
+
+describe('reading outside its calibrated range', () => {
+  // A jack certified 0–50 MPa (invented): 4.92 kN per MPa.
+  const jack = { inputUnit: 'MPa' as const, outputUnit: 'kN' as const, curve: { kind: 'linear' as const, c0: 0.35, c1: 4.92 }, range: [0, 50] as [number, number] };
+
+  it('fires beyond the range, naming the reading, the span and what to do', () => {
+    const alarm = calibratedRangeAlarm({ subject: 'p1', label: 'Jack JK-1', reading: 55, calibration: jack });
+    expect(alarm).toMatchObject({ code: 'outside-calibration', subject: 'p1', severity: 'critical', active: true, value: 55, limit: 50, unit: 'MPa' });
+    expect(alarm!.message).toMatch(/reads 55 MPa, beyond its calibration \(0–50 MPa\): values worked out from it are extrapolated/);
+    expect(calibratedRangeAlarm({ subject: 'p1', label: 'Jack JK-1', reading: -2, calibration: jack })).toMatchObject({ active: true, limit: 0 });
+  });
+
+  it('stays quiet inside the range, at its ends too', () => {
+    for (const reading of [0, 12.5, 50]) expect(calibratedRangeAlarm({ subject: 'p1', label: 'Jack JK-1', reading, calibration: jack })?.active).toBe(false);
+  });
+
+  it('takes a table without a range as covering its points; a bare line with no span has nothing to judge', () => {
+    const table = { inputUnit: 'mm' as const, outputUnit: 'mm' as const, curve: { kind: 'table' as const, points: [{ x: 0, y: 0 }, { x: 25, y: 25.02 }] } };
+    expect(calibratedRangeAlarm({ subject: 'g1', label: 'Gauge g1', reading: 25.5, calibration: table })?.active).toBe(true);
+    expect(calibratedRangeAlarm({ subject: 'j', label: 'Ideal ram', reading: 500, calibration: { ...jack, range: undefined } })).toBeNull();
+  });
+});
+
+describe('unexplained jump (a gauge knocked or reset without a record — common practice)', () => {
+  const t0 = Date.parse('2026-12-02T10:00:00Z');
+  /** Readings 100 ms apart through jumpBetween, as the engine feeds them, on a 0.01 mm gauge. */
+  const jumpsOf = (values: number[]) => {
+    const jumps: GaugeJump[] = [];
+    values.forEach((mm, i) => {
+      const j = jumpBetween(i === 0 ? null : { tMs: t0 + (i - 1) * 100, mm: values[i - 1] }, { tMs: t0 + i * 100, mm }, { resolutionMm: 0.01 });
+      if (j) jumps.push(j);
+    });
+    return jumps;
+  };
+
+  it('fires on a jump no reset explains, with the readings and times either side as evidence', () => {
+    const jumps = jumpsOf([12.3, 12.31, 12.31, 14.56, 14.57]);
+    expect(jumps).toEqual([{ fromMs: t0 + 200, toMs: t0 + 300, fromMm: 12.31, toMm: 14.56 }]);
+    const alarm = unexplainedJumpAlarm({ gauge: 'g1', jumps, resetsAtMs: [] });
+    expect(alarm).toMatchObject({ code: 'unexplained-jump', subject: 'g1', active: true, unit: 'mm' });
+    expect(alarm.value).toBeCloseTo(2.25, 9);
+    expect(alarm.evidence).toEqual({ before: { atMs: t0 + 200, value: 12.31 }, after: { atMs: t0 + 300, value: 14.56 }, unit: 'mm' });
+    expect(alarm.message).toMatch(/jumped from 12\.310 mm at 10:00:00 to 14\.560 mm at 10:00:00 \(\+2\.250 mm\) with no reset recorded/);
+  });
+
+  it('is explained by a reset of the gauge recorded within the grace time after the jump, not by one long after', () => {
+    const jumps = jumpsOf([24.3, 24.3, 1.15, 1.16]);
+    expect(unexplainedJumpAlarm({ gauge: 'g1', jumps, resetsAtMs: [t0 + 60_000] }).active).toBe(false);
+    expect(unexplainedJumpAlarm({ gauge: 'g1', jumps, resetsAtMs: [t0 + 600_000] }).active).toBe(true);
+    expect(unexplainedJumpAlarm({ gauge: 'g1', jumps, resetsAtMs: [t0 - 60_000] }).active).toBe(true);
+  });
+
+  it('stays quiet on normal data: steady settlement with noise of a division or two', () => {
+    // 10 minutes at 10 Hz: 0.02 mm/min creep plus ±0.02 mm noise, rounded to the 0.01 mm division.
+    const values = Array.from({ length: 6000 }, (_, i) => Math.round((5 + 0.02 * (i / 600) + 0.02 * Math.sin(i * 1.7)) * 100) / 100);
+    const jumps = jumpsOf(values);
+    expect(jumps).toEqual([]);
+    expect(unexplainedJumpAlarm({ gauge: 'g1', jumps, resetsAtMs: [] }).active).toBe(false);
   });
 });

@@ -53,7 +53,7 @@ describe('jump detector', () => {
   it('flags a jump of more than N divisions that no reset marks', () => {
     const jumps = findUnmarkedJumps(readings, [1.5], { resolutionMm: 0.01 });
     expect(jumps).toHaveLength(1);
-    expect(jumps[0]).toMatchObject({ index: 4, fromMin: 3, toMin: 4 });
+    expect(jumps[0]).toMatchObject({ index: 4, fromMin: 3, toMin: 4, fromMm: 1.3, toMm: 2.8 });
     expect(jumps[0].jumpMm).toBeCloseTo(1.5, 12);
     expect(jumps[0].divisions).toBeCloseTo(150, 9);
   });

@@ -1,11 +1,15 @@
 import { describe, expect, it } from 'vitest';
+import { jackGaugeFor } from '@shared/calibration/jack';
+import type { Calibration } from '@shared/calibration/schema';
 import { nextStepPrompt } from '@shared/hold/next-step';
 
 const stage = (targetKpa: number) => ({ index: 3, branch: 'loading' as const, targetKpa });
+const answer = (pressure: number) => ({ pressure, refusal: null });
 /** An ideal jack: p = F / A_ram; kN / cm² → MPa is × 10. */
-const idealRam = (ramCm2: number) => (forceKn: number) => (forceKn / ramCm2) * 10;
-/** The calibration line F (kN) = 0.35 + 4.92·p (MPa) of DOMAIN §C10, inverted. */
-const calibrationLine = (forceKn: number) => (forceKn - 0.35) / 4.92;
+const idealRam = (ramCm2: number) => (forceKn: number) => answer((forceKn / ramCm2) * 10);
+/** The calibration line F (kN) = 0.35 + 4.92·p (MPa) of DOMAIN §C10, as a certificate valid 0–70 MPa. */
+const line = (range: [number, number] = [0, 70]): Calibration => ({ inputUnit: 'MPa', outputUnit: 'kN', curve: { kind: 'linear', c0: 0.35, c1: 4.92 }, range });
+const calibrationLine = jackGaugeFor(line()).pressureFor;
 
 describe('nextStepPrompt', () => {
   it('converts the C10 target into plate force, jack force and ram pressure (DOMAIN §C10, calc)', () => {
@@ -14,7 +18,7 @@ describe('nextStepPrompt', () => {
       stage: stage(100),
       plate: { shape: 'square', sizeMm: 450 },
       apparatusWeightKn: 0.6,
-      forceToGaugePressure: idealRam(50),
+      gaugePressureFor: idealRam(50),
       gaugeUnit: 'MPa',
     });
     expect(prompt).toMatchObject({ stageIndex: 3, branch: 'loading', targetKpa: 100, gaugeUnit: 'MPa', problem: null });
@@ -28,25 +32,51 @@ describe('nextStepPrompt', () => {
       stage: stage(100),
       plate: { shape: 'square', sizeMm: 450 },
       apparatusWeightKn: 0.6,
-      forceToGaugePressure: calibrationLine,
+      gaugePressureFor: calibrationLine,
       gaugeUnit: 'MPa',
     });
     expect(prompt.gaugePressure).toBeCloseTo(3.9228, 4);
   });
 
   it('gives the DIN 300 mm plate at 0.5 MN/m²: 35.343 kN, 15.434 MPa on a 22.9 cm² ram (DOMAIN §C10, calc)', () => {
-    const prompt = nextStepPrompt({ stage: stage(500), plate: { shape: 'circular', sizeMm: 300 }, forceToGaugePressure: idealRam(22.9), gaugeUnit: 'MPa' });
+    const prompt = nextStepPrompt({ stage: stage(500), plate: { shape: 'circular', sizeMm: 300 }, gaugePressureFor: idealRam(22.9), gaugeUnit: 'MPa' });
     expect(prompt.plateForceKn).toBeCloseTo(35.343, 3);
     expect(prompt.gaugePressure).toBeCloseTo(15.434, 3);
   });
 
-  it('says so when the force is outside the calibrated range, instead of a number', () => {
-    const prompt = nextStepPrompt({ stage: stage(100), plate: { shape: 'square', sizeMm: 450 }, forceToGaugePressure: () => null, gaugeUnit: 'bar' });
+  it('refuses a target beyond the jack calibration, saying what it needs and what to do', () => {
+    // 600 mm plate, 1100 kPa: F = 1100 · π/4 · 0.6² = 311.02 kN → p = (311.02 − 0.35)/4.92 = 63.14 MPa (calc),
+    // beyond a certificate valid to 50 MPa.
+    const needed = (1100 * (Math.PI / 4) * 0.36 - 0.35) / 4.92;
+    expect(needed).toBeCloseTo(63.14, 2);
+    const plate = { shape: 'circular' as const, sizeMm: 600 };
+    const prompt = nextStepPrompt({ stage: stage(1100), plate, gaugePressureFor: jackGaugeFor(line([0, 50])).pressureFor, gaugeUnit: 'MPa' });
     expect(prompt.gaugePressure).toBeNull();
-    expect(prompt.problem).toMatch(/outside the jack's calibrated range/);
-    // A calibration that would give a negative pressure is out of range too.
-    const low = nextStepPrompt({ stage: stage(1), plate: { shape: 'circular', sizeMm: 300 }, forceToGaugePressure: calibrationLine, gaugeUnit: 'MPa' });
-    expect(low).toMatchObject({ gaugePressure: null });
+    expect(prompt.problem).toBe('Target 1100 kPa needs 63.14 MPa on the jack gauge; the jack calibration is valid to 50 MPa. Stop here or use a larger jack.');
+    // The same in the unit the crew reads (1 MPa = 10 bar).
+    const inBar = jackGaugeFor(line([0, 50]), { unit: 'bar' });
+    expect(nextStepPrompt({ stage: stage(1100), plate, gaugePressureFor: inBar.pressureFor, gaugeUnit: inBar.unit }).problem).toMatch(/needs 631\.4 bar on the jack gauge; the jack calibration is valid to 500 bar/);
+    // Within the calibration the prompt stands.
+    expect(nextStepPrompt({ stage: stage(800), plate, gaugePressureFor: jackGaugeFor(line([0, 50])).pressureFor, gaugeUnit: 'MPa' })).toMatchObject({ problem: null });
+  });
+
+  it("refuses a target above the jack's rated pressure even where the calibration reaches", () => {
+    const plate = { shape: 'circular' as const, sizeMm: 600 };
+    const rated = jackGaugeFor(line([0, 70]), { ratedPressureMpa: 60 }).pressureFor;
+    const prompt = nextStepPrompt({ stage: stage(1100), plate, gaugePressureFor: rated, gaugeUnit: 'MPa' });
+    expect(prompt).toMatchObject({ gaugePressure: null, problem: 'Target 1100 kPa needs 63.14 MPa on the jack gauge; the jack is rated to 60 MPa. Stop here or use a larger jack.' });
+    // Both limits broken: the lower one is named.
+    const both = jackGaugeFor(line([0, 62]), { ratedPressureMpa: 55 }).pressureFor;
+    expect(nextStepPrompt({ stage: stage(1100), plate, gaugePressureFor: both, gaugeUnit: 'MPa' }).problem).toMatch(/rated to 55 MPa/);
+    expect(nextStepPrompt({ stage: stage(800), plate, gaugePressureFor: rated, gaugeUnit: 'MPa' }).gaugePressure).toBeCloseTo((800 * (Math.PI / 4) * 0.36 - 0.35) / 4.92, 9);
+  });
+
+  it('refuses a force below the calibration, and says when there is no calibration at all', () => {
+    // 1 kPa on a 300 mm plate is 0.071 kN, below the 0.35 kN the line gives at 0 MPa.
+    const low = nextStepPrompt({ stage: stage(1), plate: { shape: 'circular', sizeMm: 300 }, gaugePressureFor: calibrationLine, gaugeUnit: 'MPa' });
+    expect(low).toMatchObject({ gaugePressure: null, problem: expect.stringMatching(/below the jack calibration's range \(from 0 MPa\)/) });
+    const none = nextStepPrompt({ stage: stage(100), plate: { shape: 'square', sizeMm: 450 }, gaugePressureFor: jackGaugeFor(null).pressureFor, gaugeUnit: 'bar' });
+    expect(none).toMatchObject({ gaugePressure: null, problem: expect.stringMatching(/no calibrated jack/) });
   });
 
   it('prompts a full release when the apparatus alone reaches the target', () => {
@@ -54,20 +84,20 @@ describe('nextStepPrompt', () => {
       stage: { index: 9, branch: 'unloading', targetKpa: 0 },
       plate: { shape: 'square', sizeMm: 450 },
       apparatusWeightKn: 0.6,
-      forceToGaugePressure: calibrationLine,
+      gaugePressureFor: calibrationLine,
       gaugeUnit: 'MPa',
     });
     expect(unload).toMatchObject({ jackForceKn: 0, gaugePressure: 0 });
     expect(unload.problem).toMatch(/Release the jack fully.*3\.0 kPa/);
-    const seating = nextStepPrompt({ stage: stage(0), plate: { shape: 'square', sizeMm: 450 }, forceToGaugePressure: calibrationLine, gaugeUnit: 'MPa' });
+    const seating = nextStepPrompt({ stage: stage(0), plate: { shape: 'square', sizeMm: 450 }, gaugePressureFor: calibrationLine, gaugeUnit: 'MPa' });
     expect(seating).toMatchObject({ jackForceKn: 0, gaugePressure: 0, problem: null });
   });
 
   it('throws naming the field for bad input', () => {
-    const base = { plate: { shape: 'square' as const, sizeMm: 450 }, forceToGaugePressure: calibrationLine, gaugeUnit: 'MPa' };
+    const base = { plate: { shape: 'square' as const, sizeMm: 450 }, gaugePressureFor: calibrationLine, gaugeUnit: 'MPa' };
     expect(() => nextStepPrompt({ ...base, stage: stage(-5) })).toThrow(/^stage\.targetKpa:/);
     expect(() => nextStepPrompt({ ...base, stage: stage(100), apparatusWeightKn: Number.NaN })).toThrow(/^apparatusWeightKn:/);
     expect(() => nextStepPrompt({ ...base, stage: stage(100), plate: { shape: 'square', sizeMm: 0 } })).toThrow(/^plate\.sizeMm:/);
-    expect(() => nextStepPrompt({ ...base, stage: stage(100), forceToGaugePressure: () => Number.NaN })).toThrow(/^forceToGaugePressure:/);
+    expect(() => nextStepPrompt({ ...base, stage: stage(100), gaugePressureFor: () => answer(Number.NaN) })).toThrow(/^gaugePressureFor:/);
   });
 });

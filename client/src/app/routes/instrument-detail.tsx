@@ -37,6 +37,12 @@ function InstrumentFacts({ instrument }: { instrument: InstrumentDetail }) {
           <dd className="font-mono">{instrument.travelMm == null ? '—' : `${instrument.travelMm} mm`}</dd>
         </>
       )}
+      {instrument.kind === 'jack' && (
+        <>
+          <dt className="font-semibold">Rated pressure</dt>
+          <dd className="font-mono">{instrument.ratedPressureMpa == null ? 'not recorded' : `${instrument.ratedPressureMpa} MPa`}</dd>
+        </>
+      )}
       <dt className="font-semibold">Calibration</dt>
       <dd className="flex flex-wrap items-center gap-2">
         <CalibrationBadge status={instrument.status} />

@@ -43,7 +43,10 @@ export function CalibrationForm({ instrumentId, instrumentKind, onSaved, onCance
     formState: { errors, isSubmitting },
   } = form;
   const [inputUnit, outputUnit, hasFalling] = useWatch({ control, name: ['method.inputUnit', 'method.outputUnit', 'hasFalling'] });
-  const rangeError = errors.method?.range?.message ?? errors.method?.range?.[0]?.message ?? errors.method?.range?.[1]?.message;
+  // An issue about the span as a whole lands on `root`: its two boxes are registered as an array.
+  type Said = { message?: string } | undefined;
+  const range = errors.method?.range as { message?: string; root?: Said; 0?: Said; 1?: Said } | undefined;
+  const rangeError = range?.message ?? range?.root?.message ?? range?.[0]?.message ?? range?.[1]?.message;
 
   const onSubmit = handleSubmit(withServerErrors(setError, FIELDS, async (input: CalibrationRecordInput) => onSaved(await save.mutateAsync(input))));
 
@@ -80,7 +83,8 @@ export function CalibrationForm({ instrumentId, instrumentKind, onSaved, onCance
         )}
         {hasFalling && <CurveFields name="method.fallingCurve" legend="Falling (unloading) curve" inputUnit={inputUnit} outputUnit={outputUnit} />}
         <fieldset className="flex flex-col gap-2">
-          <legend className="font-semibold">Certified reading span (optional; needed to read a polynomial backwards)</legend>
+          <legend className="font-semibold">Certified reading span (a table's points serve when left empty)</legend>
+          <p className="text-sm">Nothing is worked out beyond it: a reading outside raises an alarm, and no prompt asks for more.</p>
           <div className="grid gap-4 sm:grid-cols-2">
             <NumberField label="Span from" unit={inputUnit} {...register('method.range.0', emptyAsNull)} />
             <NumberField label="Span to" unit={inputUnit} error={rangeError} {...register('method.range.1', emptyAsNull)} />

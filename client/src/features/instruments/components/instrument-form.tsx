@@ -10,15 +10,15 @@ import { readableErrors, withServerErrors } from '../../../lib/form-errors';
 import { emptyAsNull } from '../../../lib/form-values';
 import { useSaveInstrument } from '../api/save-instrument';
 
-const FIELDS = ['kind', 'makeModel', 'serialNumber', 'rangeMin', 'rangeMax', 'unit', 'resolution', 'travelMm', 'notes'] as const;
+const FIELDS = ['kind', 'makeModel', 'serialNumber', 'rangeMin', 'rangeMax', 'unit', 'resolution', 'travelMm', 'ratedPressureMpa', 'notes'] as const;
 const KIND_OPTIONS = INSTRUMENT_KINDS.map((kind) => ({ value: kind, label: KIND_LABELS[kind] }));
 
 type InstrumentFormValues = z.input<typeof instrumentInput>;
 
 function initialValues(instrument: Instrument | undefined): Partial<InstrumentFormValues> {
-  if (!instrument) return { makeModel: '', serialNumber: '', unit: '', rangeMin: null, rangeMax: null, resolution: null, travelMm: null, notes: '' };
-  const { kind, makeModel, serialNumber, rangeMin, rangeMax, unit, resolution, travelMm, notes } = instrument;
-  return { kind, makeModel, serialNumber, rangeMin, rangeMax, unit, resolution, travelMm, notes };
+  if (!instrument) return { makeModel: '', serialNumber: '', unit: '', rangeMin: null, rangeMax: null, resolution: null, travelMm: null, ratedPressureMpa: null, notes: '' };
+  const { kind, makeModel, serialNumber, rangeMin, rangeMax, unit, resolution, travelMm, ratedPressureMpa, notes } = instrument;
+  return { kind, makeModel, serialNumber, rangeMin, rangeMax, unit, resolution, travelMm, ratedPressureMpa, notes };
 }
 
 interface InstrumentFormProps {
@@ -74,6 +74,16 @@ export function InstrumentForm({ instrument, onSaved, onCancel }: InstrumentForm
           hint="How far the stem can move; runs warn before it runs out."
           error={errors.travelMm?.message}
           {...register('travelMm', emptyAsNull)}
+        />
+      )}
+      {kind === 'jack' && (
+        <NumberField
+          label="Rated pressure"
+          unit="MPa"
+          className="max-w-64"
+          hint="The highest oil pressure the jack is rated for (its plate or certificate); the console never prompts beyond it."
+          error={errors.ratedPressureMpa?.message}
+          {...register('ratedPressureMpa', emptyAsNull)}
         />
       )}
       <TextAreaField label="Notes" error={errors.notes?.message} {...register('notes')} />

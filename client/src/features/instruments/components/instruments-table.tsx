@@ -28,9 +28,10 @@ const columns: DataTableColumns<Instrument> = [
     sortFn: 'alphanumeric',
     cell: (info) => <MonoCell>{info.getValue()}</MonoCell>,
   }),
-  column.accessor((i) => (i.travelMm == null ? '—' : `${i.travelMm} mm`), {
+  // A gauge's travel, a jack's rated pressure: the limit each must not be driven past.
+  column.accessor((i) => (i.travelMm != null ? `${i.travelMm} mm` : i.ratedPressureMpa != null ? `${i.ratedPressureMpa} MPa` : '—'), {
     id: 'travel',
-    header: 'Travel',
+    header: 'Travel / rating',
     sortFn: 'alphanumeric',
     cell: (info) => <MonoCell>{info.getValue()}</MonoCell>,
   }),
