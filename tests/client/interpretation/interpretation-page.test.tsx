@@ -2,7 +2,7 @@
 import '../runs/canvas-stubs';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
-import { analyzeRecord, STANDING_CAUTIONS } from '@shared/interpretation/analyze-record';
+import { analyzeRecord } from '@shared/interpretation/analyze-record';
 import type { TestRecord } from '@shared/records/schema';
 import { screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
@@ -15,13 +15,14 @@ import { renderWithProviders } from '../support/render';
 // The invented sand test of the fixtures (tests/fixtures/records/README.md).
 const record = JSON.parse(readFileSync(path.join(import.meta.dirname, '../../fixtures/records/sand-bearing-450-square.json'), 'utf8')) as TestRecord;
 const analysis = JSON.parse(JSON.stringify(analyzeRecord(record)));
+const modulusRecord = JSON.parse(readFileSync(path.join(import.meta.dirname, '../../fixtures/records/modulus-two-cycle-300.json'), 'utf8')) as TestRecord;
 const ENGINEER = aUser('engineer', 'Mira Castellane', 'mira@example.test');
 const OPERATOR = aUser('operator', 'Tobin Reyes', 'tobin@example.test');
 
-function stubRun(user = ENGINEER, versions: unknown[][] = [[]]) {
+function stubRun(user = ENGINEER, versions: unknown[][] = [[]], answer: unknown = analysis) {
   return stubFetch({
     'GET /api/auth/me': json(200, { user, csrfToken: 'token-1' }),
-    'GET /api/runs/7/interpretation': json(200, analysis),
+    'GET /api/runs/7/interpretation': json(200, answer),
     'GET /api/runs/7/interpretations': versions.map((items) => json(200, { items })),
     'POST /api/runs/7/interpretations': json(201, { id: 31, runId: 7, version: 1 }),
   });
@@ -40,15 +41,44 @@ describe('interpretation page', () => {
       expect(within(row).getByText(m.formula)).toBeTruthy();
       expect(within(row).getByText(m.source)).toBeTruthy();
     }
-    // No method chosen: the lowest value is carried, and the page says so.
-    expect(screen.getByText(/the lowest value any method gives/)).toBeTruthy();
+    // Each method's standing against the test, and its ratio to the largest pressure tested.
+    const hyperbolic = methods.find((m) => m.label.startsWith('Hyperbolic')) as unknown as { label: string; qOverQmax: number };
+    const row = within(table).getByText(hyperbolic.label).closest('tr') as HTMLElement;
+    expect(within(row).getByText('extrapolated')).toBeTruthy();
+    expect(within(row).getByText(hyperbolic.qOverQmax.toFixed(2))).toBeTruthy();
+    // The test did not fail: the lower bound is carried, and the page says so in the analysis's own words.
+    expect(screen.getByText(analysis.chosenUltimate.result.statement)).toBeTruthy();
+    expect(analysis.chosenUltimate.result.statement).toMatch(/^Failure not reached: q_ult ≥ 600\.0 kPa/);
+  });
+
+  it('states the origin of the curve, the procedure, why k and Ev are not shown, and what the allowable pressure rests on', async () => {
+    stubRun();
+    renderWithProviders(<InterpretationPage runId={7} record={record} />);
+    expect(await screen.findByText(analysis.zeroCorrection.statement)).toBeTruthy();
+    expect(screen.getByText('Bearing test — maintained load, granular soil')).toBeTruthy();
+    for (const s of Object.values(analysis.procedure.methods) as { shown: boolean; why?: string }[]) if (!s.shown) expect(screen.getByText(s.why as string)).toBeTruthy();
+    expect(screen.getByText(analysis.footing.result.basis.statement)).toBeTruthy();
+  });
+
+  it('on a modulus test shows Ev with its plate and convention, and no bearing methods', async () => {
+    const modulus = JSON.parse(JSON.stringify(analyzeRecord(modulusRecord)));
+    stubRun(ENGINEER, [[]], modulus);
+    renderWithProviders(<InterpretationPage runId={7} record={modulusRecord} />);
+    expect(await screen.findByText(modulus.deformationModuli.result.statement)).toBeTruthy();
+    expect(modulus.deformationModuli.result.statement).toMatch(/^300 mm circular plate; σ0max of the first loading/);
+    expect(screen.queryByRole('table', { name: 'Ultimate-pressure methods' })).toBeNull();
+    expect(screen.getByText(/^No ultimate pressure: not shown for this procedure/)).toBeTruthy();
+    // k of the 300 mm plate, and the 750 mm value only as the named conversion with its caution.
+    expect(screen.getByRole('heading', { name: 'k, 300 mm plate, fixed settlement' })).toBeTruthy();
+    expect(screen.getByText(/^k, 750 mm plate by the IRC:58 conversion/)).toBeTruthy();
+    expect(screen.getByText(/^A conversion, not a measurement/)).toBeTruthy();
   });
 
   it('shows the cautions of the analysis prominently, before the figures', async () => {
     stubRun();
     renderWithProviders(<InterpretationPage runId={7} record={record} />);
     const cautions = await screen.findByRole('region', { name: /Read these before using any figure/ });
-    for (const c of STANDING_CAUTIONS) expect(within(cautions).getByText(c.message)).toBeTruthy();
+    for (const c of analysis.cautions) expect(within(cautions).getByText(c.message)).toBeTruthy();
     const table = screen.getByRole('table', { name: 'Ultimate-pressure methods' });
     expect(cautions.compareDocumentPosition(table) & Node.DOCUMENT_POSITION_FOLLOWING).toBeTruthy();
   });

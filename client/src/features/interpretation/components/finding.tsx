@@ -1,9 +1,14 @@
 import type { Finding } from '@shared/interpretation/analyze-record';
 import type { ReactNode } from 'react';
 
-/** A method's result, or the reason it does not apply, in the same place. */
+/** Why a figure is missing: a method the procedure does not call for says so in its own words. */
+export function missingText(reason: string): string {
+  return reason.startsWith('not shown') ? `Not shown${reason.slice('not shown'.length)}` : `Not determined: ${reason}`;
+}
+
+/** A method's result, or the reason it does not apply or is not shown, in the same place. */
 export function FindingView<T>({ finding, children }: { finding: Finding<T>; children: (result: T) => ReactNode }) {
-  if (!finding.applies) return <p className="text-neutral-800">Not determined: {finding.reason}</p>;
+  if (!finding.applies) return <p className="text-neutral-800">{missingText(finding.reason)}</p>;
   return <>{children(finding.result)}</>;
 }
 

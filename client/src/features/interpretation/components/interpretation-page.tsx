@@ -7,6 +7,7 @@ import { useInterpretation } from '../api/get-interpretation';
 import { useInterpretationVersions } from '../api/interpretation-versions';
 import type { InterpretationSettings } from '../utils/interpretation-settings';
 import { CautionsPanel } from './cautions-panel';
+import { CyclesPanel } from './cycles-panel';
 import { Downloads } from './downloads';
 import { Provenance } from './finding';
 import { FootingPanel } from './footing-panel';
@@ -29,13 +30,38 @@ function Section({ id, title, children }: { id: string; title: string; children:
   );
 }
 
-/** Everything interpreted from one analysis: plots, methods, footing, moduli, time–settlement. */
+/** Which procedure the test followed, and the methods it does not call for with the reason. */
+function ProcedureNote({ analysis }: { analysis: RecordAnalysis }) {
+  const hidden = [...new Set(Object.values(analysis.procedure.methods).flatMap((s) => (s.shown ? [] : [s.why])))];
+  return (
+    <div className="flex flex-col gap-1">
+      <p>
+        Procedure: <strong>{analysis.procedure.name}</strong>.
+      </p>
+      {analysis.procedure.note && <p className="text-sm">{analysis.procedure.note}</p>}
+      {hidden.length > 0 && (
+        <div className="text-sm">
+          Not shown for this procedure:
+          <ul className="list-disc pl-5">
+            {hidden.map((why) => (
+              <li key={why}>{why}</li>
+            ))}
+          </ul>
+        </div>
+      )}
+    </div>
+  );
+}
+
+/** Everything interpreted from one analysis: plots, methods, footing, moduli, cycles, time–settlement. */
 export function AnalysisView({ analysis, record }: { analysis: RecordAnalysis; record: TestRecord }) {
   return (
     <>
       <CautionsPanel cautions={analysis.cautions} warnings={analysis.scalingWarnings} />
+      <ProcedureNote analysis={analysis} />
       <Section id="interp-curve" title="Load–settlement curve">
         <LoadSettlementCharts analysis={analysis} />
+        <p className="text-sm">{analysis.zeroCorrection.statement}</p>
         <Provenance formula={analysis.reduction.formula} source={analysis.reduction.source} />
       </Section>
       <Section id="interp-ultimate" title="Ultimate pressure, by method">
@@ -46,6 +72,9 @@ export function AnalysisView({ analysis, record }: { analysis: RecordAnalysis; r
       </Section>
       <Section id="interp-moduli" title="Subgrade and deformation moduli">
         <ModuliPanel analysis={analysis} />
+      </Section>
+      <Section id="interp-cycles" title="Load–release cycles">
+        <CyclesPanel cycles={analysis.cycles} />
       </Section>
       <Section id="interp-time" title="Time–settlement of each stage">
         <TimeSettlementPanel record={record} stages={analysis.timeSettlement} />

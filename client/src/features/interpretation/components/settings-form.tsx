@@ -1,15 +1,10 @@
 import { type FormEvent, useState } from 'react';
 import { Button } from '../../../components/button';
 import { NumberField, SelectField } from '../../../components/form-field';
+import { ULTIMATE_METHOD_NAMES, ULTIMATE_METHODS } from '@shared/schemas/interpretation';
 import { draftFromSettings, EMPTY_DRAFT, type InterpretationSettings, type SettingsDraft, settingsFromDraft } from '../utils/interpretation-settings';
 
-export const METHOD_OPTIONS = [
-  { value: 'logLogIntersection', label: 'Log–log two-line intersection' },
-  { value: 'tangentIntersection', label: 'Tangent intersection' },
-  { value: 'hyperbolic', label: 'Hyperbolic asymptote' },
-  { value: 'settlementCriterion', label: 'Settlement criterion' },
-  { value: 'brinchHansen80', label: 'Brinch Hansen 80 %' },
-] as const;
+export const METHOD_OPTIONS = ULTIMATE_METHODS.map((value) => ({ value, label: ULTIMATE_METHOD_NAMES[value] }));
 
 const SHAPES = ['square', 'circular', 'strip', 'rectangular'].map((v) => ({ value: v, label: v }));
 const SOILS = [
@@ -39,13 +34,18 @@ export function SettingsForm({ settings, onApply, busy }: { settings: Interpreta
     <form onSubmit={submit} aria-label="Interpretation settings" className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
       <SelectField label="Footing shape" options={SHAPES} placeholder="As in the record" {...field('footingShape')} />
       <NumberField label="Footing width" unit="m" hint="Empty: the record’s footing" {...field('footingWidthM')} />
+      <NumberField label="Footing length" unit="m" hint="Rectangular footings: for the shape factor" {...field('footingLengthM')} />
       <SelectField label="Soil behaviour" options={SOILS} placeholder="As in the record" {...field('soilBehaviour')} />
       <NumberField label="Permissible settlement" unit="mm" hint="Empty: 25 mm (common practice for footings on sand)" {...field('permissibleSettlementMm')} />
-      <NumberField label="Factor of safety" hint="Empty: 3" {...field('factorOfSafety')} />
+      <NumberField label="Factor of safety" hint="Empty: 3, on the net ultimate pressure" {...field('factorOfSafety')} />
+      <NumberField label="Footing depth" unit="m" hint="Base below ground, for the net pressure; empty: 0" {...field('foundationDepthM')} />
+      <NumberField label="Unit weight of the soil" unit="kN/m³" hint="Above the footing base; empty: 0" {...field('unitWeightKnM3')} />
+      <NumberField label="Column load" unit="kN" hint="Gives the square footing width for the settlement limit" {...field('columnLoadKn')} />
+      <NumberField label="Application for k" hint="Repeated loading: which application of each level; empty: the procedure’s" {...field('kApplication')} />
       <SelectField
         label="Ultimate method carried to the footing"
         options={METHOD_OPTIONS}
-        placeholder="The lowest value (cautious)"
+        placeholder="The lowest ultimate within the test, else q_ult ≥ q_max"
         {...field('ultimateMethod')}
       />
       <SelectField label="Ev2 σ0max convention" options={EV} placeholder="First loading (default)" {...field('evConvention')} />

@@ -1,12 +1,13 @@
 import type { ChosenUltimate, Finding } from '@shared/interpretation/analyze-record';
-import type { AnyUltimateResult } from '@shared/interpretation/ultimate';
+import { type AssessedUltimate, STANDING_WORDS } from '@shared/interpretation/ultimate-standing';
 import { DataTable, type DataTableColumns, MonoCell, tableColumns } from '../../../components/data-table';
 import { figure } from './finding';
 
-type Row = AnyUltimateResult & { id: string };
+type Row = AssessedUltimate & { id: string };
 const column = tableColumns<Row>();
 
-const fitText = (r: AnyUltimateResult) => (r.fit ? `${r.fit.measure === 'r2' ? 'R²' : 'SSE'} ${r.fit.value.toFixed(4)}` : '—');
+const fitText = (r: AssessedUltimate) => (r.fit ? `${r.fit.measure === 'r2' ? 'R²' : 'SSE'} ${r.fit.value.toFixed(4)}` : '—');
+const ratio = (x: number | null) => (x === null ? '—' : x.toFixed(2));
 
 const columns: DataTableColumns<Row> = [
   column.accessor('label', { header: 'Method', sortFn: 'text' }),
@@ -16,23 +17,29 @@ const columns: DataTableColumns<Row> = [
     sortFn: 'basic',
     cell: (info) => <MonoCell>{figure(info.row.original.qUltKpa, 'kPa')}</MonoCell>,
   }),
+  column.accessor((r) => r.qOverQmax ?? -1, { id: 'qRatio', header: 'q_ult/q_max', sortFn: 'basic', cell: (info) => <MonoCell>{ratio(info.row.original.qOverQmax)}</MonoCell> }),
+  column.accessor((r) => r.sOverSmax ?? -1, { id: 'sRatio', header: 's/s_max', sortFn: 'basic', cell: (info) => <MonoCell>{ratio(info.row.original.sOverSmax)}</MonoCell> }),
+  column.accessor((r) => STANDING_WORDS[r.standing], { id: 'standing', header: 'Standing', sortFn: 'text' }),
   column.accessor((r) => fitText(r), { id: 'fit', header: 'Fit', sortFn: 'alphanumeric', cell: (info) => <MonoCell>{info.getValue()}</MonoCell> }),
   column.accessor('formula', { header: 'Formula', sortFn: 'text', cell: (info) => <span className="font-mono text-sm">{info.getValue()}</span> }),
   column.accessor('source', { header: 'Source', sortFn: 'text', cell: (info) => <span className="text-sm">{info.getValue()}</span> }),
   column.accessor((r) => r.reason ?? '', { id: 'note', header: 'Note', sortFn: 'text', cell: (info) => <span className="text-sm">{info.getValue()}</span> }),
 ];
 
-/** Every ultimate-pressure method side by side, and the one carried to the footing. */
-export function UltimateMethodsTable({ ultimate, chosen }: { ultimate: Finding<AnyUltimateResult[]>; chosen: Finding<ChosenUltimate> }) {
+/** Every ultimate-pressure method side by side with its standing against the test, and the value carried to the footing. */
+export function UltimateMethodsTable({ ultimate, chosen }: { ultimate: Finding<AssessedUltimate[]>; chosen: Finding<ChosenUltimate> }) {
   if (!ultimate.applies) return <p className="text-neutral-800">No ultimate pressure: {ultimate.reason}</p>;
   return (
     <div className="flex flex-col gap-3">
       <DataTable caption="Ultimate-pressure methods" columns={columns} data={ultimate.result.map((r) => ({ ...r, id: r.method }))} />
+      <p className="text-sm text-neutral-700">
+        q_ult/q_max and s/s_max: the value over the largest pressure and settlement of the test; above 1 it lies beyond the test. A yield or an
+        extrapolated value is never carried to the footing unless the engineer chooses it.
+      </p>
       <p aria-live="polite">
         {chosen.applies ? (
           <>
-            Carried to the footing: <strong>{chosen.result.label}</strong>, <span className="font-mono">{figure(chosen.result.qUltKpa, 'kPa')}</span> (
-            {chosen.result.basis === 'engineer' ? 'the engineer’s choice' : 'the lowest value any method gives'})
+            Carried to the footing: <strong>{chosen.result.statement}</strong>
           </>
         ) : (
           <>No ultimate pressure carried to the footing: {chosen.reason}</>

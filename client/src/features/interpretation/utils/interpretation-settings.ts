@@ -1,29 +1,19 @@
-import type { UltimateMethod } from '@shared/interpretation/ultimate';
+import type { InterpretationSettings } from '@shared/schemas/interpretation';
 
-/** The engineer's settings, as the API's interpretation query and save body take them. Absent = the record's value or the method's default. */
-export interface InterpretationSettings {
-  footingShape?: 'square' | 'circular' | 'strip' | 'rectangular';
-  /** m */
-  footingWidthM?: number;
-  soilBehaviour?: 'cohesionless' | 'cohesive';
-  /** mm */
-  permissibleSettlementMm?: number;
-  factorOfSafety?: number;
-  ultimateMethod?: UltimateMethod;
-  evConvention?: 'firstLoadingMax' | 'branchMax';
-}
+/** The engineer's settings and design inputs, as the API's interpretation query and save body take them (one schema, shared/schemas/interpretation.ts). */
+export type { InterpretationSettings };
 
 /** The query string of the settings that are set, in a stable order (so equal settings share a cache entry). */
 export function settingsQuery(settings: InterpretationSettings): string {
   const entries = Object.entries(settings)
-    .filter(([, v]) => v !== undefined && v !== '')
+    .filter(([, v]) => v !== undefined && String(v) !== '')
     .sort(([a], [b]) => a.localeCompare(b));
   return entries.length ? `?${new URLSearchParams(entries.map(([k, v]) => [k, String(v)])).toString()}` : '';
 }
 
 /** The settings that are set, without empty ones. */
 export function definedSettings(settings: InterpretationSettings): InterpretationSettings {
-  return Object.fromEntries(Object.entries(settings).filter(([, v]) => v !== undefined && v !== '')) as InterpretationSettings;
+  return Object.fromEntries(Object.entries(settings).filter(([, v]) => v !== undefined && String(v) !== '')) as InterpretationSettings;
 }
 
 /** The settings form's text, one string per field ('' = not set). */
@@ -32,14 +22,29 @@ export type SettingsDraft = Record<keyof InterpretationSettings, string>;
 export const EMPTY_DRAFT: SettingsDraft = {
   footingShape: '',
   footingWidthM: '',
+  footingLengthM: '',
   soilBehaviour: '',
   permissibleSettlementMm: '',
   factorOfSafety: '',
+  foundationDepthM: '',
+  unitWeightKnM3: '',
+  columnLoadKn: '',
   ultimateMethod: '',
   evConvention: '',
+  kApplication: '',
 };
 
-const NUMBER_FIELDS = { footingWidthM: [0, 50], permissibleSettlementMm: [0, 500], factorOfSafety: [1, 10] } as const;
+/** [lowest, highest, whether the lowest itself is allowed, whole numbers only], as the server's schema checks them. */
+const NUMBER_FIELDS: Partial<Record<keyof InterpretationSettings, readonly [number, number, boolean, boolean?]>> = {
+  footingWidthM: [0, 50, false],
+  footingLengthM: [0, 200, false],
+  permissibleSettlementMm: [0, 500, false],
+  factorOfSafety: [1, 10, true],
+  foundationDepthM: [0, 50, true],
+  unitWeightKnM3: [0, 30, true],
+  columnLoadKn: [0, 100_000, false],
+  kApplication: [1, 20, true, true],
+};
 
 /** Settings from the form, or the problem of each field that is not a usable number (ranges as the server checks them). */
 export function settingsFromDraft(draft: SettingsDraft): { settings: InterpretationSettings; errors: Partial<Record<keyof InterpretationSettings, string>> } {
@@ -48,12 +53,14 @@ export function settingsFromDraft(draft: SettingsDraft): { settings: Interpretat
   for (const [key, text] of Object.entries(draft) as [keyof InterpretationSettings, string][]) {
     const value = text.trim();
     if (value === '') continue;
-    if (key in NUMBER_FIELDS) {
-      const [low, high] = NUMBER_FIELDS[key as keyof typeof NUMBER_FIELDS];
+    const range = NUMBER_FIELDS[key];
+    if (range) {
+      const [low, high, lowAllowed, whole] = range;
       const n = Number(value);
       if (!Number.isFinite(n)) errors[key] = 'Enter a number.';
-      else if (n < low || n > high || (low === 0 && n === 0))
-        errors[key] = low === 0 ? `Enter a number above 0 and at most ${high}.` : `Enter a number from ${low} to ${high}.`;
+      else if (whole && !Number.isInteger(n)) errors[key] = `Enter a whole number from ${low} to ${high}.`;
+      else if (n < low || n > high || (!lowAllowed && n === low))
+        errors[key] = lowAllowed ? `Enter a number from ${low} to ${high}.` : `Enter a number above ${low} and at most ${high}.`;
       else settings[key] = n;
     } else settings[key] = value;
   }
