@@ -6,7 +6,7 @@ import helmet from 'helmet';
 import type { Sequelize } from 'sequelize';
 import { csrf } from './auth/csrf';
 import { configurePassport } from './auth/passport';
-import { createSessionMiddleware } from './auth/session';
+import { createSessionMiddleware, endUserSessions } from './auth/session';
 import type { ServerConfig } from './config';
 import { HttpError, errorHandler } from './http/errors';
 import { type RouteSpec, mount } from './http/route';
@@ -78,12 +78,16 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, deps: AppD
   const passport = configurePassport();
   const sessionMiddleware = [session.middleware, session.absoluteTimeout, passport.initialize(), passport.session()];
 
+  // An account change ends the user's other sessions and closes their live connections at once.
+  const endSessionsOf = async (userId: number, exceptSid?: string) => {
+    for (const sid of await endUserSessions(sequelize, userId, exceptSid)) deps.onSignOut?.(sid);
+  };
   const api = express.Router();
   api.use('/api', express.json({ limit: '2mb' }), ...sessionMiddleware, csrf.csrfSynchronisedProtection);
   const routes: RouteSpec[] = [
     ...healthRoutes(sequelize),
-    ...authRoutes({ passport, loginLimiter: loginLimiter(config), onSignOut: deps.onSignOut }),
-    ...userRoutes,
+    ...authRoutes({ passport, loginLimiter: loginLimiter(config), onSignOut: deps.onSignOut, endSessionsOf }),
+    ...userRoutes({ endSessionsOf }),
     ...projectRoutes,
     ...sitePlanRoutes(config.dataDir),
     ...photoRoutes(config.dataDir),

@@ -1,7 +1,7 @@
 import connectSessionSequelize from 'connect-session-sequelize';
 import type { RequestHandler } from 'express';
 import session from 'express-session';
-import type { Sequelize } from 'sequelize';
+import { Op, type Sequelize } from 'sequelize';
 import type { ServerConfig } from '../config';
 
 declare module 'express-session' {
@@ -40,4 +40,21 @@ export function createSessionMiddleware(sequelize: Sequelize, config: ServerConf
     next();
   };
   return { middleware, absoluteTimeout, store };
+}
+
+/**
+ * Ends every stored session of a user except `exceptSid` (the one making the change, when it is theirs);
+ * answers the session ids ended, so their live connections can be closed too. Used when the account's
+ * role, state or password changes: the old sessions must not go on with the old rights.
+ */
+export async function endUserSessions(sequelize: Sequelize, userId: number, exceptSid?: string): Promise<string[]> {
+  const Session = sequelize.models.Session;
+  // passport keeps the user id in the session as {"passport":{"user":<id>}}; the LIKE narrows, the parse decides.
+  const rows = await Session.findAll({ where: { data: { [Op.like]: `%"passport":{"user":${Math.trunc(userId)}}%` } }, attributes: ['sid', 'data'] });
+  const sids = rows
+    .map((r) => ({ sid: r.get('sid') as string, data: JSON.parse(String(r.get('data'))) as { passport?: { user?: unknown } } }))
+    .filter((r) => r.data.passport?.user === userId && r.sid !== exceptSid)
+    .map((r) => r.sid);
+  if (sids.length) await Session.destroy({ where: { sid: sids } });
+  return sids;
 }

@@ -33,8 +33,28 @@ function onlyForHandshake(middleware: RequestHandler) {
   };
 }
 
+/**
+ * Refuses a handshake sent by a page of another site (cross-site WebSocket hijacking): a browser names
+ * the page's origin, which must be this host. Clients that send no Origin (not a browser page) pass.
+ */
+export function sameOrigin(req: http.IncomingMessage): boolean {
+  const origin = req.headers.origin;
+  if (origin === undefined) return true;
+  const forwarded = req.headers['x-forwarded-host'];
+  const hosts = [req.headers.host, ...(typeof forwarded === 'string' ? forwarded.split(',').map((h) => h.trim()) : [])];
+  try {
+    return hosts.includes(new URL(origin).host);
+  } catch {
+    return false;
+  }
+}
+
 export function createSocketServer(httpServer: http.Server, sessionMiddleware: RequestHandler[]) {
-  const io = new Server<ClientToServerEvents, ServerToClientEvents>(httpServer, { serveClient: false, maxHttpBufferSize: 64 * 1024 });
+  const io = new Server<ClientToServerEvents, ServerToClientEvents>(httpServer, {
+    serveClient: false,
+    maxHttpBufferSize: 64 * 1024,
+    allowRequest: (req, callback) => callback(sameOrigin(req) ? null : 'origin_not_allowed', sameOrigin(req)),
+  });
   for (const mw of sessionMiddleware) io.engine.use(onlyForHandshake(mw));
   io.use((socket, next) => {
     const req = socket.request as IncomingWithSession;

@@ -14,9 +14,11 @@ export interface AuthDeps {
   loginLimiter: RequestHandler[];
   /** Called after sign-out so live connections of that session close too. */
   onSignOut?: (sessionId: string) => void;
+  /** Ends a user's sessions (all but `exceptSid`) and closes their live connections. */
+  endSessionsOf: (userId: number, exceptSid?: string) => Promise<void>;
 }
 
-export const authRoutes = ({ passport, loginLimiter, onSignOut }: AuthDeps) => [
+export const authRoutes = ({ passport, loginLimiter, onSignOut, endSessionsOf }: AuthDeps) => [
   route({
     method: 'get',
     path: '/api/auth/csrf',
@@ -78,11 +80,12 @@ export const authRoutes = ({ passport, loginLimiter, onSignOut }: AuthDeps) => [
     method: 'post',
     path: '/api/auth/password',
     access: 'signed-in',
-    summary: 'Change my password',
+    summary: 'Change my password (ends my other sessions)',
     body: changePasswordInput,
-    handler: async ({ user, body }) => {
+    handler: async ({ user, body, req }) => {
       if (!(await verifyPassword(user!.passwordHash, body.currentPassword))) throw badRequest('currentPassword: not correct', 'currentPassword');
       await user!.update({ passwordHash: await hashPassword(body.newPassword) });
+      await endSessionsOf(user!.id, req.sessionID);
       await audit({ userId: user!.id, entity: 'user', entityId: user!.id, action: 'password-changed' });
       return undefined;
     },

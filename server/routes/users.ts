@@ -12,7 +12,12 @@ async function assertOrganization(id: number | null | undefined) {
   if (id != null && !(await Organization.findByPk(id))) throw badRequest('organizationId: no such organisation', 'organizationId');
 }
 
-export const userRoutes = [
+export interface UserRouteDeps {
+  /** Ends a user's sessions (all but `exceptSid`) and closes their live connections. */
+  endSessionsOf: (userId: number, exceptSid?: string) => Promise<void>;
+}
+
+export const userRoutes = ({ endSessionsOf }: UserRouteDeps) => [
   route({
     method: 'get',
     path: '/api/users',
@@ -38,10 +43,10 @@ export const userRoutes = [
     method: 'patch',
     path: '/api/users/:id',
     access: ADMINS,
-    summary: 'Change a user account (role, organisation, active, password)',
+    summary: 'Change a user account (role, organisation, active, password); a change of rights ends their sessions',
     params: idParams,
     body: updateUserInput,
-    handler: async ({ params, body, user }) => {
+    handler: async ({ params, body, user, req }) => {
       const target = await User.findByPk(params.id);
       if (!target) throw notFound('User');
       await assertOrganization(body.organizationId);
@@ -53,7 +58,14 @@ export const userRoutes = [
       }
       const before = target.toDto();
       const { password, ...fields } = body;
+      const rightsChanged =
+        (body.role !== undefined && body.role !== before.role) ||
+        (body.organizationId !== undefined && body.organizationId !== before.organizationId) ||
+        (body.active === false && before.active) ||
+        password !== undefined;
       await target.update({ ...fields, ...(password ? { passwordHash: await hashPassword(password) } : {}) });
+      // Sessions and sockets opened with the old rights or password end now (the admin's own session stays).
+      if (rightsChanged) await endSessionsOf(target.id, target.id === user!.id ? req.sessionID : undefined);
       await audit({ userId: user!.id, entity: 'user', entityId: target.id, action: password ? 'updated+password' : 'updated', before: before, after: target.toDto() });
       return target.toDto();
     },
