@@ -33,6 +33,8 @@ export class Journal {
   private fd: number | null = null;
   private segment = -1;
   private archivedSeq: number;
+  /** The last append failed, perhaps halfway through a line. */
+  private torn = false;
 
   constructor(options: JournalOptions) {
     this.dir = path.join(options.dir, `run-${options.runId}`);
@@ -46,19 +48,31 @@ export class Journal {
     return this.archivedSeq;
   }
 
-  /** Appends rows (in seq order) and forces them to disk before returning. */
+  /**
+   * Appends rows (in seq order) and forces them to disk before returning. Throws when the disk
+   * refuses them (full, gone): nothing of `rows` counts as written, and the next append reopens the
+   * segment and starts on a fresh line, so retried rows are read back whole (a repeat is harmless).
+   */
   append(rows: SampleRow[]): void {
     if (rows.length === 0) return;
-    let start = 0;
-    while (start < rows.length) {
-      const seg = Math.floor(rows[start].seq / this.segmentSize);
-      if (seg !== this.segment) this.openSegment(seg);
-      let end = start;
-      while (end < rows.length && Math.floor(rows[end].seq / this.segmentSize) === seg) end++;
-      writeSync(this.fd!, `${rows.slice(start, end).map(encode).join('\n')}\n`);
-      start = end;
+    try {
+      let start = 0;
+      while (start < rows.length) {
+        const seg = Math.floor(rows[start].seq / this.segmentSize);
+        if (seg !== this.segment) this.openSegment(seg);
+        let end = start;
+        while (end < rows.length && Math.floor(rows[end].seq / this.segmentSize) === seg) end++;
+        // After a failed write, a blank line first: a torn line from it ends there (blank lines are skipped).
+        writeSync(this.fd!, `${this.torn ? '\n' : ''}${rows.slice(start, end).map(encode).join('\n')}\n`);
+        this.torn = false;
+        start = end;
+      }
+      fdatasyncSync(this.fd!);
+    } catch (err) {
+      this.torn = true;
+      this.close();
+      throw err;
     }
-    fdatasyncSync(this.fd!);
   }
 
   /** Records that everything up to `seq` is archived, and deletes fully archived segments. */

@@ -8,7 +8,7 @@ import { jackGaugeFor } from '../../shared/calibration/jack';
 import { convertPressure, isPressureUnit } from '../../shared/calibration/units';
 import { plateAreaM2, plateForceKn } from '../../shared/domain/plate';
 import { type AlarmAction, reduceAlarm } from '../../shared/hold/alarm-lifecycle';
-import { type Alarm, gaugeTravelAlarm, loadDriftAlarm, reactionCapacityAlarm, signalLostAlarm, stopLimitAlarm, stopLimitMm, tiltAlarm } from '../../shared/hold/alarms';
+import { type Alarm, gaugeTravelAlarm, loadDriftAlarm, reactionCapacityAlarm, readingsUnsecuredAlarm, signalLostAlarm, stopLimitAlarm, stopLimitMm, tiltAlarm } from '../../shared/hold/alarms';
 import { evaluateHold } from '../../shared/hold/evaluate';
 import { nextStepPrompt } from '../../shared/hold/next-step';
 import { lateReadings, nextReadingDue } from '../../shared/hold/schedule';
@@ -26,6 +26,7 @@ import type { PersistedRun } from '../models/run';
 import type { Archiver } from './archiver';
 import type { Journal } from './journal';
 import { runTime } from './run-clock';
+import { SampleSecurer } from './sample-securer';
 
 const debug = createDebug('sscope:runs:engine');
 
@@ -77,6 +78,8 @@ export class RunEngine {
   /** Channels whose port reported itself gone; cleared by their next good sample. */
   private readonly portLost = new Set<string>();
   private pending: SampleRow[] = [];
+  /** Journals new rows; keeps (bounded) what a refusing journal cannot take. */
+  private readonly securer: SampleSecurer;
   private series: { tMin: number; settlementMm: number }[] = [];
   private lastSeriesMs = -Infinity;
   private hold: HoldEvaluation | null = null;
@@ -102,6 +105,7 @@ export class RunEngine {
     private readonly io: EngineIo,
   ) {
     this.persisted = structuredClone(setup.persisted);
+    this.securer = new SampleSecurer(io.journal);
     this.securedSeq = this.persisted.lastSeq;
     const pressureChannel = setup.rig.rig.channels.find((c) => c.role === 'pressure');
     this.setupM = {
@@ -214,17 +218,12 @@ export class RunEngine {
   }
 
   private flush(): void {
-    if (this.pending.length === 0) return;
-    const rows = this.pending;
+    const failing = this.securer.failure !== null;
+    const rows = this.securer.secure(this.pending); // on disk before anything else sees them
     this.pending = [];
-    try {
-      this.io.journal.append(rows); // on disk before anything else sees them
-      this.securedSeq = rows[rows.length - 1].seq;
-    } catch (err) {
-      debug('journal append failed: %s', (err as Error).message);
-      this.pending = rows.concat(this.pending);
-      return;
-    }
+    if (failing !== (this.securer.failure !== null)) this.alarmNow(); // the journal just failed or recovered
+    if (rows.length === 0) return;
+    this.securedSeq = rows[rows.length - 1].seq;
     this.io.archiver.enqueue(this.runId, rows);
     this.io.pushSamples(this.runId, rows);
   }
@@ -327,6 +326,7 @@ export class RunEngine {
     }
     if (m.meanSettlementMm !== null && s.phase !== 'preparing') alarms.push(stopLimitAlarm({ meanSettlementMm: m.meanSettlementMm, stopLimitMm: this.stopLimit() }));
     if (m.jackForceKn !== null) alarms.push(reactionCapacityAlarm({ jackForceKn: m.jackForceKn, capacityKn: this.setup.plan.reaction.capacityKn }));
+    alarms.push(readingsUnsecuredAlarm({ failure: this.securer.failure, maxWaiting: this.securer.maxWaiting }));
     return alarms;
   }
 
