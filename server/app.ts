@@ -10,6 +10,7 @@ import { createSessionMiddleware, endUserSessions } from './auth/session';
 import type { ServerConfig } from './config';
 import { HttpError, errorHandler } from './http/errors';
 import { type RouteSpec, mount } from './http/route';
+import { ags4Routes } from './routes/ags4';
 import { authRoutes } from './routes/auth';
 import { correctionRoutes } from './routes/corrections';
 import { healthRoutes } from './routes/health';
@@ -72,6 +73,8 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, deps: AppD
           upgradeInsecureRequests: config.secureCookies ? [] : null,
         },
       },
+      // HSTS only where the app is served over TLS (secure cookies): over plain HTTP it would lock browsers out.
+      strictTransportSecurity: config.secureCookies ? { maxAge: 31_536_000, includeSubDomains: true } : false,
     }),
   );
   const session = createSessionMiddleware(sequelize, config);
@@ -98,6 +101,7 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, deps: AppD
     ...correctionRoutes,
     ...interpretationRoutes,
     ...importRoutes,
+    ...ags4Routes,
     ...signoffRoutes(config),
     ...reportRoutes(config.dataDir),
     ...mailboxRoutes(config.dataDir),

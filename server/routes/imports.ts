@@ -103,7 +103,7 @@ export function planForRecord(record: TestRecord, name: string): PlanInput {
   return parsed.data;
 }
 
-function importedRunState(record: TestRecord, nowMs: number): PersistedRun {
+export function importedRunState(record: TestRecord, nowMs: number): PersistedRun {
   const last = record.stages[record.stages.length - 1];
   return {
     lifecycle: { ...initialRunState(), phase: 'completed', stageIndex: last.index, closedReason: 'imported test record' },

@@ -120,6 +120,11 @@ export function parseAgs4(text: string, problems: ProblemList): Ags4File {
   let broken = false;
   let lineEndsReported = 0;
 
+  const endGroup = (group: Ags4Group) => {
+    if (expect !== 'DATA' && !broken) problems.add({ line: group.line, group: group.name, rule: '2b', message: `the group has no ${expect} row` });
+    else if (group.usable && group.rows.length === 0) problems.add({ line: group.line, group: group.name, rule: '2', message: 'the group has no DATA rows' });
+  };
+
   lines.forEach((raw, i) => {
     const line = i + 1;
     const isLast = i === lines.length - 1 && !body.endsWith('\n');
@@ -146,8 +151,7 @@ export function parseAgs4(text: string, problems: ProblemList): Ags4File {
       return;
     }
     if (descriptor === 'GROUP') {
-      if (current && expect !== 'DATA' && !broken)
-        problems.add({ line: current.line, group: current.name, rule: '2b', message: `the group has no ${expect} row` });
+      if (current) endGroup(current);
       const name = fields[0] ?? '';
       if (fields.length !== 1) problems.add({ line, group: name, rule: '4', message: 'a GROUP row holds the descriptor and the group name only' });
       if (!GROUP_NAME.test(name))
@@ -215,9 +219,7 @@ export function parseAgs4(text: string, problems: ProblemList): Ags4File {
       expect = 'DATA';
     } else group.rows.push({ line, values: fields });
   });
-  const last = groups[groups.length - 1];
-  if (last && (expect as Descriptor) !== 'DATA' && !broken)
-    problems.add({ line: last.line, group: last.name, rule: '2b', message: `the group has no ${expect} row` });
+  if (current) endGroup(current);
   return { groups };
 }
 

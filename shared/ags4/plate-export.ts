@@ -56,7 +56,16 @@ export interface PlateTestExport {
 
 export interface Ags4ExportInput {
   project: { id: string; name?: string; site?: string; client?: string; contractor?: string };
-  transmission: { issue: number; date: string; status: string; producer: string; recipient?: string; description?: string };
+  transmission: {
+    issue: number;
+    date: string;
+    status: string;
+    producer: string;
+    recipient?: string;
+    description?: string;
+    /** Further remarks for TRAN_REM (e.g. tests left out of the file and why). */
+    remarks?: string[];
+  };
   locations: { id: string; remarks?: string; finalDepthM?: number }[];
   tests: PlateTestExport[];
 }
@@ -281,6 +290,7 @@ export function exportAgs4(input: Ags4ExportInput): Ags4Export {
     status: text(input.transmission.status),
     description: text(input.transmission.description ?? 'Plate loading tests'),
     recipient: text(input.transmission.recipient),
+    remarks: (input.transmission.remarks ?? []).map((r) => text(r)!),
   };
   const all = notes.all();
   const tables: Ags4Table[] = [
@@ -313,6 +323,7 @@ export function exportAgs4(input: Ags4ExportInput): Ags4Export {
           TRAN_REM: [
             'User-defined headings (DICT) hold what PLTG and PLTT cannot: plate shape and size, gauge keys, gauges beyond four, stage branch and target pressure, plate pressure, times finer than 0.1 min, mean settlement',
             ...all,
+            ...tran.remarks,
           ].join('; '),
         },
       ],

@@ -4,11 +4,11 @@
  */
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
-import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { analyzeRecord } from '../../shared/interpretation/analyze-record';
 import type { TestRecord } from '../../shared/records/schema';
 import { type Client, signedIn, startTestApp, type TestApp } from '../support/api';
+import { tableCounts } from '../support/table-counts';
 
 const FIXTURES = path.join(import.meta.dirname, '../fixtures/records');
 const fixture = (name: string) => readFileSync(path.join(FIXTURES, name), 'utf8');
@@ -25,14 +25,7 @@ beforeAll(async () => {
 afterAll(() => t?.stop());
 
 const TABLES = ['test_plans', 'runs', 'run_events', 'run_records', 'audit_log'];
-async function counts(): Promise<Record<string, number>> {
-  const out: Record<string, number> = {};
-  for (const table of TABLES) {
-    const [row] = (await t.sequelize.query(`SELECT COUNT(*) AS n FROM ${table}`, { type: QueryTypes.SELECT })) as { n: number }[];
-    out[table] = Number(row.n);
-  }
-  return out;
-}
+const counts = () => tableCounts(t.sequelize, TABLES);
 
 describe('importing the fixture records', () => {
   it.each(['sand-bearing-450-square.json', 'modulus-two-cycle-300.json'])('imports %s as JSON content: a custom plan, a completed run, an "imported" event', async (name) => {

@@ -1,0 +1,28 @@
+import { z } from 'zod';
+import { RECORD_LIMITS } from '../records/schema';
+
+const asciiLine = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max)
+    .regex(/^[ -~]*$/, 'printable ASCII only (AGS4 files hold no other characters)');
+
+/** Options of an AGS4 export (query string): the TRAN issue sequence and status, and who carried out the tests. */
+export const ags4ExportQuery = z.strictObject({
+  /** TRAN_ISNO: the issue sequence of this transmission; default 1. */
+  issue: z.coerce.number().int().min(1).max(9999).default(1),
+  /** TRAN_STAT: status of the data, e.g. Preliminary or Final; default Preliminary. */
+  status: asciiLine(40).min(1).default('Preliminary'),
+  /** PROJ_CONT and PLTG_CONT: the testing organisation. */
+  contractor: asciiLine(120).optional(),
+});
+export type Ags4ExportQuery = z.infer<typeof ags4ExportQuery>;
+
+/** Body of an AGS4 import (JSON, or the text fields of a multipart upload with the file in "file"). */
+export const ags4ImportInput = z.object({
+  /** The project the tests go to; a LOCA_ID names a test location of it by pit id (a missing one is added). */
+  projectId: z.coerce.number().int().positive(),
+  content: z.string().max(RECORD_LIMITS.bytes, `at most ${RECORD_LIMITS.bytes} characters`).optional(),
+});
+export type Ags4ImportInput = z.infer<typeof ags4ImportInput>;
