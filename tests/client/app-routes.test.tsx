@@ -30,8 +30,8 @@ describe('app routes', () => {
     // An operator reads projects but does not create them, nor see the users page.
     expect(screen.queryByRole('link', { name: 'New project' })).toBeNull();
     expect(screen.queryByRole('link', { name: 'Users' })).toBeNull();
-    // The standing caution is on every page.
-    expect(screen.getByText('A result applies to one plate at one spot and one depth.')).toBeTruthy();
+    // Cautions stand with results, not on a register of projects where they would become wallpaper.
+    expect(screen.queryByText('A result applies to one plate at one spot and one depth.')).toBeNull();
   });
 
   it('signs out through the server and lands on a plain sign-in page', async () => {

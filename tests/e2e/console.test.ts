@@ -100,6 +100,7 @@ describe('the console in a real browser', () => {
     await shot(operator, 'last-hold-met');
     await shot(engineer, 'engineer-watching');
     await operator.getByRole('button', { name: /^Finish/ }).click();
+    await operator.getByRole('button', { name: 'Yes, finish' }).click(); // Finish asks once more
     await until(() => operator.getByText(/Completed/i).first().isVisible());
     await shot(operator, 'completed');
     await until(() => engineer.getByText(/Completed/i).first().isVisible());

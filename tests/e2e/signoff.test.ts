@@ -90,6 +90,7 @@ describe('replay, interpretation, sign-off and delivery in real browsers', () =>
       throw err;
     });
     await finish.click();
+    await rigPage.getByRole('button', { name: 'Yes, finish' }).click(); // Finish asks once more
     await until(() => rigPage.getByText(/Completed/i).first().isVisible());
     await shot(rigPage, 'run-completed');
     await server.runs.archiver.drain();

@@ -3,9 +3,15 @@ import { Link } from 'react-router-dom';
 
 export type ButtonVariant = 'primary' | 'secondary' | 'danger' | 'quiet';
 
-const BASE =
-  'inline-flex min-h-touch min-w-touch items-center justify-center gap-2 rounded-md px-4 py-2 text-base font-semibold no-underline ' +
-  'disabled:cursor-not-allowed disabled:opacity-60';
+const BASE = 'inline-flex items-center justify-center gap-2 rounded-md py-2 font-semibold no-underline disabled:cursor-not-allowed disabled:opacity-60';
+
+/** `glove`: at least 60 px tall, for the run console's main actions, pressed with work gloves on. */
+export type ButtonSize = 'normal' | 'glove';
+
+const SIZES: Record<ButtonSize, string> = {
+  normal: 'min-h-touch min-w-touch px-4 text-base',
+  glove: 'min-h-[3.75rem] min-w-[3.75rem] px-5 text-xl',
+};
 
 const VARIANTS: Record<ButtonVariant, string> = {
   primary: 'bg-neutral-900 text-white hover:bg-neutral-700',
@@ -14,20 +20,31 @@ const VARIANTS: Record<ButtonVariant, string> = {
   quiet: 'text-neutral-950 hover:bg-neutral-100',
 };
 
-export function buttonClass(variant: ButtonVariant = 'primary', extra = ''): string {
-  return `${BASE} ${VARIANTS[variant]} ${extra}`.trim();
+export function buttonClass(variant: ButtonVariant = 'primary', extra = '', size: ButtonSize = 'normal'): string {
+  return `${BASE} ${SIZES[size]} ${VARIANTS[variant]} ${extra}`.trim();
 }
 
 interface ButtonProps extends ComponentProps<'button'> {
   variant?: ButtonVariant;
+  size?: ButtonSize;
   /** Shown instead of the children while an action runs; the button is disabled meanwhile. */
   busyLabel?: string;
   busy?: boolean;
 }
 
-export function Button({ variant = 'primary', busy = false, busyLabel, className = '', type = 'button', disabled, children, ...rest }: ButtonProps) {
+export function Button({
+  variant = 'primary',
+  size = 'normal',
+  busy = false,
+  busyLabel,
+  className = '',
+  type = 'button',
+  disabled,
+  children,
+  ...rest
+}: ButtonProps) {
   return (
-    <button type={type} className={buttonClass(variant, className)} disabled={disabled || busy} aria-busy={busy || undefined} {...rest}>
+    <button type={type} className={buttonClass(variant, className, size)} disabled={disabled || busy} aria-busy={busy || undefined} {...rest}>
       {busy && busyLabel ? busyLabel : children}
     </button>
   );
@@ -35,10 +52,11 @@ export function Button({ variant = 'primary', busy = false, busyLabel, className
 
 interface LinkButtonProps extends ComponentProps<typeof Link> {
   variant?: ButtonVariant;
+  size?: ButtonSize;
 }
 
-export function LinkButton({ variant = 'secondary', className = '', ...rest }: LinkButtonProps) {
-  return <Link className={buttonClass(variant, className)} {...rest} />;
+export function LinkButton({ variant = 'secondary', size = 'normal', className = '', ...rest }: LinkButtonProps) {
+  return <Link className={buttonClass(variant, className, size)} {...rest} />;
 }
 
 interface FormActionsProps {

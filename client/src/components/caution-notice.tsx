@@ -1,7 +1,7 @@
-/** The standing caution shown with every screen: where the results stop being valid, and who decides. */
-export function CautionNotice() {
+/** The standing caution, shown where results are (console, interpretation, report pages): where they stop being valid, and who decides. */
+export function CautionNotice({ className = '' }: { className?: string }) {
   return (
-    <aside aria-labelledby="standing-caution" className="border-t-4 border-caution-700 bg-caution-50 px-4 py-3 text-caution-950">
+    <aside aria-labelledby="standing-caution" className={`rounded-md border-2 border-caution-700 bg-caution-50 px-4 py-3 text-caution-950 ${className}`}>
       <h2 id="standing-caution" className="font-bold">
         <span aria-hidden="true">⚠ </span>Caution
       </h2>

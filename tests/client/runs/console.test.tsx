@@ -1,35 +1,15 @@
 import './canvas-stubs';
-import type { RunView } from '@shared/schemas/runs';
 import { act, screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import { LiveRunConsole } from '../../../client/src/app/routes/run-pages';
-import { createLiveStore } from '../../../client/src/features/live/live-store';
-import { json, requests, stubFetch } from '../support/fetch-stub';
+import { json, requests } from '../support/fetch-stub';
 import { aUser } from '../support/fixtures';
-import { renderWithProviders } from '../support/render';
+import { COMMANDS, OPERATOR, renderConsole, sent, serveConsole } from './console-harness';
 import { aBatch, aPrompt, aRunView, TRAVEL_ALARM } from './run-fixtures';
 
-const OPERATOR = aUser('operator', 'Tomás Reyes', 'tomas.reyes@example.test');
 const ENGINEER = aUser('engineer', 'Ines Okafor', 'ines.okafor@example.test');
-const COMMANDS = 'POST /api/runs/7/commands';
-
-function serve(routes: Record<string, Response | Response[] | ((init: RequestInit) => Response)> = {}, user = OPERATOR) {
-  return stubFetch({
-    'GET /api/auth/me': json(200, { user, csrfToken: 'session-token' }),
-    'GET /api/runs/7/events': json(200, {
-      items: [{ id: 1, runId: 7, atMs: Date.UTC(2026, 2, 4, 9, 15), kind: 'note', userId: 4, payload: { text: 'Kentledge checked' } }],
-    }),
-    ...routes,
-  });
-}
-
-function renderConsole(view: RunView) {
-  const store = createLiveStore();
-  store.setView(view);
-  return { store, ...renderWithProviders(<LiveRunConsole store={store} />) };
-}
-
-const sent = (fetchMock: ReturnType<typeof stubFetch>) => requests(fetchMock).filter((r) => r.key === COMMANDS);
+const KENTLEDGE_NOTE = { id: 1, runId: 7, atMs: Date.UTC(2026, 2, 4, 9, 15), kind: 'note', userId: 4, payload: { text: 'Kentledge checked' } };
+const serve = (routes: Parameters<typeof serveConsole>[0] = {}, user = OPERATOR) =>
+  serveConsole({ 'GET /api/runs/7/events': json(200, { items: [KENTLEDGE_NOTE] }), ...routes }, user);
 
 describe('run console', () => {
   it('shows the numbers, the verdict with its evidence and criterion, and the prompt in the operator’s terms', async () => {
@@ -142,7 +122,7 @@ describe('run console', () => {
     await waitFor(() => expect(sent(fetchMock)).toHaveLength(1));
     expect(sent(fetchMock)[0].body).toEqual({ version: 42, command: { type: 'note', text: 'Light rain', topic: 'weather' } });
     const log = await screen.findByRole('list', { name: 'Run log' });
-    await waitFor(() => expect(within(log).getByText('weather')).toBeTruthy());
+    await waitFor(() => expect(within(log).getByText('Weather')).toBeTruthy());
   });
 
   it('acknowledges and shelves an alarm by its key', async () => {

@@ -13,40 +13,11 @@ import type { TestRecord } from '@shared/records/schema';
 import { describe, expect, it } from 'vitest';
 import { expectRel } from '../interpretation/tolerance';
 import { reason, result } from './fixtures';
-
-const round2 = (x: number) => Math.round(x * 100) / 100;
-
-/** A record of one reading per stage (read to 0.01 mm), under a named procedure. */
-function record(procedureId: string | undefined, plate: TestRecord['plate'], stages: readonly [Branch, number, number][], footing?: TestRecord['footing']): TestRecord {
-  return {
-    format: 'settlescope-record',
-    version: 1,
-    plate,
-    ...(procedureId ? { plan: { procedureId } } : {}),
-    ...(footing ? { footing } : {}),
-    gauges: [{ key: 'g1' }],
-    stages: stages.map(([branch, q, s], index) => ({ index, branch, targetKpa: q, readings: [{ tMin: 2, pressureKpa: q, gauges: { g1: round2(s) } }] })),
-  };
-}
-
-const steps = (from: number, to: number, step: number) => Array.from({ length: Math.round((to - from) / step) + 1 }, (_, i) => from + i * step);
-
-/** A small deterministic generator (LCG, Numerical Recipes constants) for the property tests. */
-function lcg(seed: number) {
-  let x = seed >>> 0;
-  return () => {
-    x = (Math.imul(x, 1664525) + 1013904223) >>> 0;
-    return x / 2 ** 32;
-  };
-}
+import { lcg, pavementTest, pointRecord as record, REPEATED_LOADING, repeatedLoadingTest, round2, steps, straightLineTo600 } from './synthetic';
 
 describe('a straight load–settlement line never fails', () => {
   // The issue's case: s = q/60 read to 0.01 mm, to 600 kPa (constructed here, [calc]).
-  const straight = record('bearing-granular', { shape: 'square', sizeMm: 450 }, [
-    ['seating', 7, 0],
-    ...steps(50, 600, 50).map((q) => ['loading', q, (q - 7) / 60] as [Branch, number, number]),
-  ]);
-  const analysis = analyzeRecord(straight);
+  const analysis = analyzeRecord(straightLineTo600());
 
   it('finds no break: "failure not reached, q_ult ≥ 600 kPa", no yield chosen for design', () => {
     const methods = result(analysis.ultimate);
@@ -171,8 +142,7 @@ describe('the zero (seating) correction: the seating point is the origin, never 
 });
 
 describe('methods by procedure, k for the plate used', () => {
-  const pavement = (sizeMm: number) =>
-    record('pavement-single', { shape: 'circular', sizeMm }, [['seating', 7, 0], ...[35, 70, 105, 140, 175, 210].map((q) => ['loading', q, (q - 7) / 50] as [Branch, number, number])]);
+  const pavement = pavementTest;
 
   it('a 300 mm pavement test: k labelled for 300 mm at 0.05 in, the 750 mm value only as a labelled conversion with its caution, no bearing methods', () => {
     const a = analyzeRecord(pavement(300));
@@ -261,16 +231,9 @@ describe('footings: shape factors and the basis of the allowable pressure', () =
 describe('repeated loading: the per-cycle split and k from the cycle the procedure names', () => {
   // Constructed [calc]: three levels, six applications each; application r of level q settles
   // q/50 + 0.05·(r − 1) + 0.3·level, and each release leaves 40 % of that.
-  const levels = [70, 140, 210];
-  const loaded = (q: number, level: number, r: number) => q / 50 + 0.05 * (r - 1) + 0.3 * level;
-  const stages: [Branch, number, number][] = [['seating', 7, 0]];
-  levels.forEach((q, level) => {
-    for (let r = 1; r <= 6; r++) {
-      stages.push(['loading', q, loaded(q, level, r)]);
-      stages.push(['unloading', 0, 0.4 * loaded(q, level, r)]);
-    }
-  });
-  const repeated = record('pavement-repeated', { shape: 'circular', sizeMm: 762 }, stages);
+  const { levels, loaded } = REPEATED_LOADING;
+  const repeated = repeatedLoadingTest();
+  const stages = repeated.stages.map((st) => [st.branch, st.targetKpa, st.readings[0].gauges.g1] as [Branch, number, number]);
 
   it('splits every cycle into total, rebound and residual deflection', () => {
     const cycles = result(analyzeRecord(repeated).cycles);
@@ -293,5 +256,25 @@ describe('repeated loading: the per-cycle split and k from the cycle the procedu
 
   it('a single-loading test has no cycles to split, and says why', () => {
     expect(reason(analyzeRecord(record('pavement-single', { shape: 'circular', sizeMm: 762 }, stages)).cycles)).toMatch(/only repeated-loading tests are split cycle by cycle$/);
+  });
+});
+
+describe('reference values behind the limits', () => {
+  it('clay shape factor 1 + 0.2·B/L agrees with N_c of a square and a strip on the surface (Skempton 1951: 6.2 and 5.14, from memory)', () => {
+    // Prandtl's strip N_c = π + 2 = 5.14 (closed form); Skempton's chart gives about 6.2 for a square at the surface.
+    expectRel(shapeCorrection('cohesive', 1, 0).factor, 6.2 / (Math.PI + 2), 0.01);
+  });
+
+  it('sand shape factor 1 − 0.4·B/L: 0.6 for a square, 1 for a strip (Vesić 1973, from memory)', () => {
+    expect(shapeCorrection('cohesionless', 1, 0).footingFactor).toBeCloseTo(0.6, 12);
+    expect(shapeCorrection('cohesionless', 0, 0).footingFactor).toBe(1);
+  });
+
+  it('the ASTM settlement basis of k is 0.05 in = 1.27 mm exactly (1 in = 25.4 mm by definition)', () => {
+    expect(result(analyzeRecord(pavementTest(762)).subgradeModulus.atSettlement).settlementMm).toBeCloseTo(0.05 * 25.4, 12);
+  });
+
+  it('the Terzaghi & Peck sand ratio tends to 4 for wide footings from a 0.3 m plate (Terzaghi & Peck 1967, common textbook statement)', () => {
+    expectRel(terzaghiPeckSandRatio(0.3, 1000), 4, 0.01);
   });
 });

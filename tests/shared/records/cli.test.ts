@@ -7,6 +7,7 @@ import { fileURLToPath } from 'node:url';
 import { analyzeRecord } from '@shared/interpretation/analyze-record';
 import { afterAll, describe, expect, it } from 'vitest';
 import { fixtureRecord, fixtureText } from './fixtures';
+import { pavementTest, repeatedLoadingTest, straightLineTo600 } from './synthetic';
 
 const ROOT = fileURLToPath(new URL('../../../', import.meta.url));
 const TSX = path.join(ROOT, 'node_modules/.bin/tsx');
@@ -115,6 +116,29 @@ describe('npm run analyze', { timeout: 30_000 }, () => {
     const low = await analyze(`${FIXTURES}/sand-bearing-450-square.json`, '--safety-factor', '0.5');
     expect(low.code).toBe(2);
     expect(low.stderr).toMatch(/^analyze: --safety-factor: Too small/);
+  });
+
+  it('prints the done-when cases as the analysis states them: straight line, 300 mm pavement test, repeated loading', async () => {
+    const straight = await analyze(scratchFile('straight.json', JSON.stringify(straightLineTo600())));
+    expect(straight.code).toBe(0);
+    expect(straight.stdout).toContain(result(analyzeRecord(straightLineTo600()).chosenUltimate).statement);
+    expect(straight.stdout).toContain('Failure not reached: q_ult ≥ 600.0 kPa');
+    expect(straight.stdout).not.toMatch(/ {2}(ultimate|yield pressure) {2}/); // no method stands as an ultimate or a yield
+
+    const pavement = await analyze(scratchFile('pavement-300.json', JSON.stringify(pavementTest(300))));
+    const k = result(analyzeRecord(pavementTest(300)).subgradeModulus.atSettlement);
+    expect(pavement.stdout).toContain(`  k, 300 mm plate, fixed settlement     ${k.kMnM3?.toFixed(2)} MN/m³`);
+    expect(pavement.stdout).toContain('settlement basis 0.05 in = 1.27 mm (ASTM D1196 / AASHTO T 222 family)');
+    expect(pavement.stdout).toMatch(/k, 750\/762 mm plate +\d+\.\d\d MN\/m³ \(\d+ pci\): k, 750 mm plate by the IRC:58 conversion\. A conversion, not a measurement/);
+
+    const file = scratchFile('repeated.json', JSON.stringify(repeatedLoadingTest()));
+    const repeated = await analyze(file);
+    expect(repeated.stdout).toContain('Load–release cycles (repeated loading)');
+    expect(repeated.stdout).toContain('loading curve from application 1 of each load level');
+    const sixth = await analyze(file, '--application', '6');
+    const k6 = result(analyzeRecord(repeatedLoadingTest(), { kApplication: 6 }).subgradeModulus.atSettlement);
+    expect(sixth.stdout).toContain(`${k6.kMnM3?.toFixed(2)} MN/m³`);
+    expect(sixth.stdout).toContain('loading curve from application 6 of each load level');
   });
 
   it('exits 2 naming the file, line and column of a broken CSV', async () => {

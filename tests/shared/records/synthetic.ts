@@ -178,3 +178,65 @@ export function weekLongClayRecord(everyMin = 1): TestRecord {
     stages: buildStages({ gauges, stages, holdShare: 0.4, tauMin: 120, tilt: 0.0002 }),
   };
 }
+
+export const round2 = (x: number) => Math.round(x * 100) / 100;
+
+/** A record of one reading per stage (read to 0.01 mm), under a named procedure. */
+export function pointRecord(procedureId: string | undefined, plate: TestRecord['plate'], stages: readonly [Branch, number, number][], footing?: TestRecord['footing']): TestRecord {
+  return {
+    format: 'settlescope-record',
+    version: 1,
+    plate,
+    ...(procedureId ? { plan: { procedureId } } : {}),
+    ...(footing ? { footing } : {}),
+    gauges: [{ key: 'g1' }],
+    stages: stages.map(([branch, q, s], index) => ({ index, branch, targetKpa: q, readings: [{ tMin: 2, pressureKpa: q, gauges: { g1: round2(s) } }] })),
+  };
+}
+
+export const steps = (from: number, to: number, step: number) => Array.from({ length: Math.round((to - from) / step) + 1 }, (_, i) => from + i * step);
+
+/** A small deterministic generator (LCG, Numerical Recipes constants) for the property tests. */
+export function lcg(seed: number) {
+  let x = seed >>> 0;
+  return () => {
+    x = (Math.imul(x, 1664525) + 1013904223) >>> 0;
+    return x / 2 ** 32;
+  };
+}
+
+/** The straight line: s = (q − 7)/60 read to 0.01 mm, 50 to 600 kPa on a 450 mm square plate, bearing procedure [calc]. */
+export function straightLineTo600(): TestRecord {
+  return pointRecord('bearing-granular', { shape: 'square', sizeMm: 450 }, [
+    ['seating', 7, 0],
+    ...steps(50, 600, 50).map((q) => ['loading', q, (q - 7) / 60] as [Branch, number, number]),
+  ]);
+}
+
+/** A single-loading pavement test on a circular plate: s = (q − 7)/50, the profile's six increments [calc]. */
+export function pavementTest(sizeMm: number): TestRecord {
+  return pointRecord('pavement-single', { shape: 'circular', sizeMm }, [
+    ['seating', 7, 0],
+    ...[35, 70, 105, 140, 175, 210].map((q) => ['loading', q, (q - 7) / 50] as [Branch, number, number]),
+  ]);
+}
+
+/**
+ * A repeated-loading pavement test [calc]: three levels, six applications each; application r of level q
+ * settles q/50 + 0.05·(r − 1) + 0.3·level, and each release leaves 40 % of that.
+ */
+export const REPEATED_LOADING = {
+  levels: [70, 140, 210],
+  loaded: (q: number, level: number, r: number) => q / 50 + 0.05 * (r - 1) + 0.3 * level,
+} as const;
+
+export function repeatedLoadingTest(): TestRecord {
+  const stages: [Branch, number, number][] = [['seating', 7, 0]];
+  REPEATED_LOADING.levels.forEach((q, level) => {
+    for (let r = 1; r <= 6; r++) {
+      stages.push(['loading', q, REPEATED_LOADING.loaded(q, level, r)]);
+      stages.push(['unloading', 0, 0.4 * REPEATED_LOADING.loaded(q, level, r)]);
+    }
+  });
+  return pointRecord('pavement-repeated', { shape: 'circular', sizeMm: 762 }, stages);
+}

@@ -1,6 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { lazy, Suspense } from 'react';
 import { type LoaderFunctionArgs, useParams } from 'react-router-dom';
+import { CautionNotice } from '../../components/caution-notice';
 import { PageHeader } from '../../components/page-header';
 import { LoadingState, QueryResult } from '../../components/query-states';
 import { interpretationQueryOptions, runRecordQueryOptions, useRunRecord } from '../../features/interpretation/api/get-interpretation';
@@ -34,6 +35,7 @@ export function InterpretationRoute() {
           </Suspense>
         )}
       </QueryResult>
+      <CautionNotice className="mt-6" />
     </>
   );
 }

@@ -1,6 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { type LoaderFunctionArgs, redirect, useNavigate, useSearchParams } from 'react-router-dom';
-import { CautionNotice } from '../../components/caution-notice';
 import { safeNextPath } from '../../config/paths';
 import { SignInForm } from '../../features/auth/components/sign-in-form';
 import { meQueryOptions } from '../../lib/auth';
@@ -26,7 +25,6 @@ export function SignInRoute() {
           <SignInForm onSignedIn={() => navigate(safeNextPath(search.get('next')), { replace: true })} />
         </div>
       </main>
-      <CautionNotice />
     </div>
   );
 }

@@ -1,5 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { type LoaderFunctionArgs, useParams } from 'react-router-dom';
+import { CautionNotice } from '../../components/caution-notice';
 import { PageHeader } from '../../components/page-header';
 import { QueryResult } from '../../components/query-states';
 import { ReportPhotos } from '../../features/photos/components/photo-sections';
@@ -27,6 +28,7 @@ export function SignoffRoute() {
         {(view) => <SignoffPanel view={view} canSign={canSign} />}
       </QueryResult>
       <ReportPhotos runId={runId} />
+      <CautionNotice className="mt-6" />
     </>
   );
 }

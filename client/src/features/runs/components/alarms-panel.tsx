@@ -1,9 +1,9 @@
 import { type AlarmRecord, type AlarmState, alarmKey } from '@shared/hold/alarm-lifecycle';
 import type { RunCommand } from '@shared/schemas/runs';
+import { formatQuantity } from '@shared/units/format';
 import { useState } from 'react';
 import { Button, FormActions } from '../../../components/button';
 import { NumberField, TextField } from '../../../components/form-field';
-import { formatNumber } from '../../../components/readout';
 import { formatClock } from '../utils/run-format';
 
 const STATE_LABEL: Record<AlarmState, string> = {
@@ -70,7 +70,8 @@ function AlarmItem({
       <p className="text-sm">
         {STATE_LABEL[record.state]}
         {record.state === 'shelved' && record.shelvedUntilMs !== null && ` until ${formatClock(record.shelvedUntilMs)}`} · value{' '}
-        <span className="font-mono">{formatNumber(alarm.value, 2)}</span>, limit <span className="font-mono">{formatNumber(alarm.limit, 2)}</span> {alarm.unit}
+        <span className="font-mono">{formatQuantity(alarm.value, alarm.unit)}</span>, limit{' '}
+        <span className="font-mono">{formatQuantity(alarm.limit, alarm.unit)}</span>
       </p>
       <p className="text-sm">
         Rule: {alarm.source.text} <span className="italic">({alarm.source.tag})</span>

@@ -1,3 +1,4 @@
+import { describeRunEvent } from '@shared/runs/event-text';
 import type { RunCommand } from '@shared/schemas/runs';
 import { type Ref, useState } from 'react';
 import { FormActions } from '../../../components/button';
@@ -39,13 +40,6 @@ export function NoteForm({
   );
 }
 
-/** Words for what an event carries: a note's text, a reason, an alarm's message. */
-function eventDetail(event: RunEvent): string {
-  const p = event.payload ?? {};
-  const text = [p.text, p.reason, p.message].find((v) => typeof v === 'string');
-  return typeof text === 'string' ? text : '';
-}
-
 /** Everything that happened in the run, newest first. */
 export function EventsLog({ events, isPending, error }: { events: RunEvent[] | undefined; isPending: boolean; error: unknown }) {
   if (isPending) return <LoadingState label="Loading the log…" />;
@@ -54,13 +48,16 @@ export function EventsLog({ events, isPending, error }: { events: RunEvent[] | u
   return (
     <ol aria-label="Run log" className="max-h-96 overflow-y-auto rounded-md border-2 border-neutral-300">
       {items.length === 0 && <li className="p-3 text-neutral-800">Nothing recorded yet.</li>}
-      {items.map((e) => (
-        <li key={e.id} className="flex flex-wrap gap-x-3 border-b border-neutral-300 px-3 py-2 last:border-b-0">
-          <span className="font-mono text-neutral-800">{formatClock(e.atMs)}</span>
-          <span className="font-semibold">{e.kind === 'note' && e.payload?.topic === 'weather' ? 'weather' : e.kind}</span>
-          <span>{eventDetail(e)}</span>
-        </li>
-      ))}
+      {items.map((e) => {
+        const words = describeRunEvent(e);
+        return (
+          <li key={e.id} className="flex flex-wrap gap-x-3 border-b border-neutral-300 px-3 py-2 last:border-b-0">
+            <span className="font-mono text-neutral-800">{formatClock(e.atMs)}</span>
+            <span className="font-semibold">{words.title}</span>
+            {words.detail && <span>{words.detail}</span>}
+          </li>
+        );
+      })}
     </ol>
   );
 }

@@ -66,7 +66,6 @@ export function PreparingPanel({
   busy: boolean;
   disabled: boolean;
 }) {
-  const blocked = view.overdueInstruments.length > 0 && !view.calibrationOverride;
   return (
     <section aria-labelledby="prepare-heading" className="flex flex-col gap-3 rounded-md border-2 border-neutral-800 p-3">
       <h2 id="prepare-heading" className="text-xl font-bold">
@@ -105,14 +104,11 @@ export function PreparingPanel({
       </table>
       <OverdueBlock view={view} role={role} send={send} busy={busy} />
       <div className="flex flex-wrap gap-2">
-        <Button variant="secondary" busy={busy} disabled={disabled} onClick={() => void send({ type: 'zero' })}>
+        <Button variant="secondary" size="glove" busy={busy} disabled={disabled} onClick={() => void send({ type: 'zero' })}>
           Zero gauges
         </Button>
-        <Button busy={busy} disabled={disabled || blocked} onClick={() => void send({ type: 'start' })}>
-          Start (seating)
-        </Button>
       </div>
-      {blocked && <p className="text-neutral-800">Start waits for the overdue calibration to be accepted.</p>}
+      <p className="text-neutral-800">Zero the gauges once every channel reads, then start from the bar at the top.</p>
     </section>
   );
 }

@@ -1,7 +1,17 @@
 import type { RunView } from '@shared/schemas/runs';
-import { formatNumber, Readout } from '../../../components/readout';
+import { formatPlanned, formatValue } from '@shared/units/format';
+import { useRef } from 'react';
+import { Readout } from '../../../components/readout';
 import { currentRate } from '../utils/hold-evidence';
-import { formatDuration, formatTilt } from '../utils/run-format';
+import { formatDuration, formatTilt, tiltIsLevel } from '../utils/run-format';
+
+/** The tilt in words with its deadband: what it read last decides which threshold applies now. */
+function useTiltText(slope: number | null): string {
+  const wasLevel = useRef(false);
+  const text = formatTilt(slope, wasLevel.current);
+  wasLevel.current = tiltIsLevel(slope, wasLevel.current);
+  return text;
+}
 
 interface ReadingsPanelProps {
   view: RunView;
@@ -14,6 +24,7 @@ export function ReadingsPanel({ view, dataAgeS }: ReadingsPanelProps) {
   const { live } = view;
   const target = view.stages[view.stageIndex]?.targetKpa ?? null;
   const rate = view.hold ? currentRate(view.hold.evidence) : null;
+  const tilt = useTiltText(live.tiltSlope);
   const nearStop = live.meanSettlementMm !== null && live.meanSettlementMm >= 0.8 * view.stopLimitMm;
   return (
     <section aria-labelledby="readings-heading" className="flex flex-col gap-3">
@@ -26,14 +37,14 @@ export function ReadingsPanel({ view, dataAgeS }: ReadingsPanelProps) {
         </p>
       </div>
       <div className="grid grid-cols-2 gap-2 lg:grid-cols-4">
-        <Readout label="Target pressure" value={formatNumber(target, 0)} unit="kPa" />
-        <Readout label="Actual pressure" value={formatNumber(live.pressureKpa, 1)} unit="kPa" />
-        <Readout label="Plate force" value={formatNumber(live.plateForceKn, 2)} unit="kN" />
-        <Readout label="Jack gauge" value={formatNumber(live.oilPressure, 1)} unit={live.oilUnit ?? undefined} />
-        <Readout label="Mean settlement" value={formatNumber(live.meanSettlementMm, 2)} unit="mm" />
-        <Readout label="Rate" value={formatNumber(rate, 3)} unit="mm/min" />
-        <Readout label="Tilt" value={formatTilt(live.tiltSlope)} />
-        <Readout label="Gauge spread" value={formatNumber(live.spreadMm, 2)} unit="mm" />
+        <Readout label="Target pressure" value={formatPlanned(target, 'kPa')} unit="kPa" />
+        <Readout label="Actual pressure" value={formatValue(live.pressureKpa, 'kPa')} unit="kPa" />
+        <Readout label="Plate force" value={formatValue(live.plateForceKn, 'kN')} unit="kN" />
+        <Readout label="Jack gauge" value={formatValue(live.oilPressure, live.oilUnit)} unit={live.oilUnit ?? undefined} />
+        <Readout label="Mean settlement" value={formatValue(live.meanSettlementMm, 'mm')} unit="mm" />
+        <Readout label="Rate" value={formatValue(rate, 'mm/min')} unit="mm/min" />
+        <Readout label="Tilt" value={tilt} />
+        <Readout label="Gauge spread" value={formatValue(live.spreadMm, 'mm')} unit="mm" />
       </div>
       {live.pressureProblem && (
         <p role="alert" className="rounded-md border-2 border-alarm-700 bg-alarm-50 p-2 font-semibold text-alarm-900">
@@ -51,9 +62,9 @@ export function ReadingsPanel({ view, dataAgeS }: ReadingsPanelProps) {
       <ul className="grid grid-cols-2 gap-2 lg:grid-cols-4" aria-label="Gauges">
         {live.gauges.map((g) => (
           <li key={g.key}>
-            <Readout label={`${g.label} settlement`} value={formatNumber(g.settlementMm, 2)} unit="mm" />
+            <Readout label={`${g.label} settlement`} value={formatValue(g.settlementMm, 'mm')} unit="mm" />
             <p className="px-1 text-sm text-neutral-800">
-              reading <span className="font-mono">{formatNumber(g.readingMm, 2)}</span> mm
+              reading <span className="font-mono">{formatValue(g.readingMm, 'mm')}</span> mm
               {g.travelMm !== null && (
                 <>
                   {' '}

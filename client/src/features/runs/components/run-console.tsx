@@ -1,13 +1,13 @@
 import { ACTIVE_PHASES, type RunCommand, type RunView } from '@shared/schemas/runs';
 import { type ReactNode, useRef, useState } from 'react';
 import { Button } from '../../../components/button';
+import { CautionNotice } from '../../../components/caution-notice';
 import { FormError } from '../../../components/form-alert';
-import { PageHeader } from '../../../components/page-header';
+import { useRunMode } from '../../../components/run-mode';
 import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
 import { useRunEvents } from '../api/get-run-events';
 import { useRunCommand } from '../api/send-run-command';
-import { PHASE_LABELS, stageLabel } from '../utils/run-format';
 import { useNow } from '../utils/use-now';
 import { useShortcuts } from '../utils/use-shortcuts';
 import { useWakeLock } from '../utils/use-wake-lock';
@@ -19,6 +19,7 @@ import { ManualEntryPanel } from './manual-entry-panel';
 import { EventsLog, NoteForm } from './notes-panel';
 import { PreparingPanel } from './preparing-panel';
 import { ReadingsPanel } from './readings-panel';
+import { mainAction, RunBar } from './run-bar';
 import { StepPanel, stageActions } from './step-panel';
 
 interface RunConsoleProps {
@@ -64,6 +65,8 @@ export function RunConsole({ view, receivedAtMs, onView, connection, charts }: R
   const disabled = !active || (view.controller !== null && view.controller.id !== user?.id);
   const actions = stageActions(view);
   const [askingEarly, setAskingEarly] = useState(false);
+  const [askingFinish, setAskingFinish] = useState(false);
+  const main = mainAction(view, actions);
   const [resetting, setResetting] = useState(false);
   // The server takes a reset only while the load is held constant.
   const canReset = view.phase === 'holding' || view.phase === 'hold-met';
@@ -71,28 +74,43 @@ export function RunConsole({ view, receivedAtMs, onView, connection, charts }: R
   const events = useRunEvents(view.id, view.version);
   const now = useNow();
   useWakeLock(active);
+  useRunMode(active);
+  // From the log: until it has loaded, Start is offered and the server says if the gauges are not zeroed yet.
+  const zeroed = events.data?.some((e) => e.kind === 'gauges-zeroed') ?? true;
+  const startBlocked =
+    view.overdueInstruments.length > 0 && !view.calibrationOverride
+      ? 'Start waits for the overdue calibration to be accepted.'
+      : zeroed
+        ? null
+        : 'Zero the gauges first.';
 
   const when = (ok: boolean, run: () => void) => (ok && !disabled && !busy ? run : null);
   useShortcuts({
     a: actions.applyNext ? when(true, () => void send({ type: 'advance' })) : when(actions.applyEarly, () => setAskingEarly(true)),
     t: when(actions.topUp, () => void send({ type: 'top-up' })),
     r: when(actions.stageReached, () => void send({ type: 'stage-reached' })),
-    f: when(actions.finish, () => void send({ type: 'finish' })),
+    f: when(actions.finish, () => setAskingFinish(true)),
     n: active ? () => noteRef.current?.focus() : null,
   });
 
   return (
     <>
-      <PageHeader title={view.planName} context={`Run ${view.id} · ${view.rigName}${view.manual ? ' (readings by hand)' : ''}`} actions={connection} />
-      <div className="mb-3 flex flex-wrap items-center gap-3">
-        <p className="rounded-md bg-neutral-900 px-3 py-1 text-lg font-bold text-white">{PHASE_LABELS[view.phase]}</p>
-        <p className="text-lg font-semibold">{stageLabel(view.stages[view.stageIndex], view.stages.length)}</p>
-        {view.closedReason && <p className="text-neutral-800">Closed: {view.closedReason}</p>}
-      </div>
-      <ControlBar view={view} userId={user?.id} send={send} busy={busy} />
-      <div className="my-3" aria-live="assertive">
+      <RunBar
+        view={view}
+        actions={actions}
+        send={send}
+        busy={busy}
+        disabled={disabled}
+        startBlocked={startBlocked}
+        connection={connection}
+        askingFinish={askingFinish}
+        setAskingFinish={setAskingFinish}
+      />
+      <div aria-live="assertive">
         <FormError message={refusal(command.error)} />
       </div>
+      {view.closedReason && <p className="mb-3 text-lg font-semibold">Closed: {view.closedReason}</p>}
+      <ControlBar view={view} userId={user?.id} send={send} busy={busy} />
       {view.phase === 'preparing' && <PreparingPanel view={view} role={user?.role} send={send} busy={busy} disabled={disabled} />}
       {/* On a phone the step and the verdict come straight after the numbers; on a tablet they stand beside numbers and plots. */}
       <div className="mt-3 grid grid-cols-1 gap-4 lg:grid-cols-3">
@@ -101,7 +119,16 @@ export function RunConsole({ view, receivedAtMs, onView, connection, charts }: R
         </div>
         <div className="flex min-w-0 flex-col gap-4 lg:col-start-3 lg:row-span-2 lg:row-start-1">
           {active && view.phase !== 'preparing' && (
-            <StepPanel view={view} actions={actions} send={send} busy={busy} disabled={disabled} askingEarly={askingEarly} setAskingEarly={setAskingEarly} />
+            <StepPanel
+              view={view}
+              actions={actions}
+              send={send}
+              busy={busy}
+              disabled={disabled}
+              askingEarly={askingEarly}
+              setAskingEarly={setAskingEarly}
+              main={main}
+            />
           )}
           <HoldPanel hold={view.hold} />
           {view.manual && active && <ManualEntryPanel view={view} send={send} busy={busy} disabled={disabled} />}
@@ -129,6 +156,7 @@ export function RunConsole({ view, receivedAtMs, onView, connection, charts }: R
           <StopRun send={send} busy={busy} disabled={disabled} />
         </div>
       )}
+      <CautionNotice className="mt-6" />
     </>
   );
 }

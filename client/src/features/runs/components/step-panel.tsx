@@ -1,8 +1,10 @@
 import type { NextStepPrompt } from '@shared/hold/next-step';
 import type { RunCommand, RunView } from '@shared/schemas/runs';
+import { formatPlanned, formatValue } from '@shared/units/format';
 import { formatNumber } from '../../../components/readout';
-import { BRANCH_LABELS } from '../utils/run-format';
+import { BRANCH_LABELS, stageLabel } from '../utils/run-format';
 import { CommandButton, ReasonForm } from './command-button';
+import type { MainAction } from './run-bar';
 
 /** Which of the stage actions apply to a run as it stands. */
 export function stageActions(view: RunView) {
@@ -14,7 +16,8 @@ export function stageActions(view: RunView) {
     applyEarly: phase === 'holding' && !isLast,
     finish: phase === 'hold-met' && isLast, // the server finishes only once the last hold is met
     stageReached: phase === 'pumping' && (view.manual || view.live.pressureKpa === null),
-    topUp: holding || phase === 'pumping',
+    // The server records top-ups during a hold only.
+    topUp: holding,
   };
 }
 
@@ -26,7 +29,7 @@ function PromptFigures({ prompt }: { prompt: NextStepPrompt }) {
       <div className="rounded-md border-2 border-neutral-300 p-2">
         <dt className="text-sm font-semibold text-neutral-800">Target pressure</dt>
         <dd className="font-mono text-3xl font-bold">
-          {prompt.targetKpa} <span className="text-base font-normal">kPa</span>
+          {formatPlanned(prompt.targetKpa, 'kPa')} <span className="text-base font-normal">kPa</span>
         </dd>
       </div>
       <div className="rounded-md border-2 border-neutral-300 p-2">
@@ -38,7 +41,7 @@ function PromptFigures({ prompt }: { prompt: NextStepPrompt }) {
       <div className="rounded-md border-2 border-neutral-950 p-2">
         <dt className="text-sm font-semibold text-neutral-800">Pump the jack gauge to</dt>
         <dd className="font-mono text-3xl font-bold">
-          {formatNumber(prompt.gaugePressure, 1)} <span className="text-base font-normal">{prompt.gaugeUnit}</span>
+          {formatValue(prompt.gaugePressure, prompt.gaugeUnit)} <span className="text-base font-normal">{prompt.gaugeUnit}</span>
         </dd>
       </div>
     </dl>
@@ -55,10 +58,19 @@ interface StepPanelProps {
   /** The early-advance reason form is open (A pressed before the hold is met). */
   askingEarly: boolean;
   setAskingEarly: (open: boolean) => void;
+  /** The action the pinned bar carries: not repeated here. */
+  main: MainAction;
+}
+
+/** What the step panel says when there is no prompt: the stage still to come, or that this is the last. */
+function noPromptText(view: RunView, actions: StageActions): string {
+  const following = view.stages[view.stageIndex + 1];
+  if (following) return `Then ${stageLabel(following, view.stages.length).replace(/^Stage/, 'stage')}, once this hold is met.`;
+  return actions.finish ? 'This is the last stage: finish the run.' : 'This is the last stage: finish the run once its hold is met.';
 }
 
 /** What to apply next and the one-touch actions of the stage. */
-export function StepPanel({ view, actions, send, busy, disabled, askingEarly, setAskingEarly }: StepPanelProps) {
+export function StepPanel({ view, actions, send, busy, disabled, askingEarly, setAskingEarly, main }: StepPanelProps) {
   const { prompt } = view;
   const pumping = view.phase === 'pumping' || view.phase === 'preparing';
   return (
@@ -85,32 +97,27 @@ export function StepPanel({ view, actions, send, busy, disabled, askingEarly, se
           </p>
         </>
       ) : (
-        <p className="text-neutral-800">{actions.finish ? 'This is the last stage: finish the run once the hold is met.' : 'No further stage is planned.'}</p>
+        <p className="text-lg font-semibold">{noPromptText(view, actions)}</p>
       )}
       <div className="flex flex-wrap gap-2">
-        {actions.applyNext && (
+        {actions.applyNext && main !== 'apply-next' && (
           <CommandButton shortcut="A" className="text-lg" busy={busy} disabled={disabled} onClick={() => void send({ type: 'advance' })}>
             Apply next stage
           </CommandButton>
         )}
         {actions.applyEarly && !askingEarly && (
-          <CommandButton shortcut="A" variant="secondary" disabled={disabled} onClick={() => setAskingEarly(true)}>
+          <CommandButton shortcut="A" variant="secondary" size="glove" disabled={disabled} onClick={() => setAskingEarly(true)}>
             Apply next stage early…
           </CommandButton>
         )}
-        {actions.stageReached && (
+        {actions.stageReached && main !== 'stage-reached' && (
           <CommandButton shortcut="R" busy={busy} disabled={disabled} onClick={() => void send({ type: 'stage-reached' })}>
             Stage reached
           </CommandButton>
         )}
-        {actions.topUp && (
-          <CommandButton shortcut="T" variant="secondary" busy={busy} disabled={disabled} onClick={() => void send({ type: 'top-up' })}>
+        {actions.topUp && main !== 'top-up' && (
+          <CommandButton shortcut="T" variant="secondary" size="glove" busy={busy} disabled={disabled} onClick={() => void send({ type: 'top-up' })}>
             Top up recorded
-          </CommandButton>
-        )}
-        {actions.finish && (
-          <CommandButton shortcut="F" busy={busy} disabled={disabled} onClick={() => void send({ type: 'finish' })}>
-            Finish
           </CommandButton>
         )}
       </div>
