@@ -192,6 +192,8 @@ describe('run console', () => {
           version: 43,
           calibrationOverride: { by: 'Ines Okafor', reason: 'Spare jack verified against the load cell', atMs: 1 },
         }),
+        // The gauges are zeroed: the calibration is all Start waits for.
+        'GET /api/runs/7/events': json(200, { items: [{ id: 2, runId: 7, atMs: Date.UTC(2026, 2, 4, 9, 10), kind: 'gauges-zeroed', userId: 4, payload: {} }] }),
       },
       ENGINEER,
     );
