@@ -14,8 +14,8 @@ import { BadInputError, loadRecordFile } from './load-record';
 
 const USAGE = `Usage: npm run analyze -- FILE [--json] [design inputs]
 
-Interprets a plate load test record and prints the results: the Settlescope JSON record (.json) or a
-readings CSV (.csv); other names are recognised by their first character.
+Interprets a plate load test record and prints the results: the Settlescope JSON record (.json), a
+readings CSV (.csv) or an AGS4 file of one test (.ags); other names are recognised by how they start.
 
 Options:
   --json       print the whole analysis, with every formula and source, as JSON

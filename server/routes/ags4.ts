@@ -5,14 +5,10 @@ import { ags4ExportQuery, ags4ImportInput } from '../../shared/schemas/ags4';
 import { idParams } from '../../shared/schemas/common';
 import { EDITORS, STAFF } from '../auth/permissions';
 import { loadLocation, loadProject } from '../auth/scope';
-import { badRequest, notFound } from '../http/errors';
+import { badRequest } from '../http/errors';
 import { route } from '../http/route';
 import { singleUpload } from '../http/uploads';
-import { Project } from '../models/project';
-import { Run } from '../models/run';
-import { TestLocation } from '../models/test-location';
-import { TestPlan } from '../models/test-plan';
-import { Ags4Refused, type Ags4Scope, ags4Export, ags4Import, runsAt } from '../services/ags4';
+import { Ags4Refused, type Ags4Scope, ags4Export, ags4Import, locationScope, projectTestsScope, runScope } from '../services/ags4';
 
 /** Sends the checked file; the notes of its stated choices go along in a header as well as in TRAN_REM. */
 async function sendAgs4(res: Response, scope: Ags4Scope, query: Parameters<typeof ags4Export>[1]): Promise<void> {
@@ -20,12 +16,6 @@ async function sendAgs4(res: Response, scope: Ags4Scope, query: Parameters<typeo
   res.set('x-ags4-notes', String(file.notes.length));
   // attachment() would set the type from the .ags extension (unknown): set it after.
   res.attachment(file.fileName).type('text/plain').send(file.text);
-}
-
-async function projectOf(location: TestLocation): Promise<Project> {
-  const project = await Project.findByPk(location.projectId);
-  if (!project) throw notFound('Project');
-  return project;
 }
 
 export const ags4Routes = [
@@ -36,13 +26,7 @@ export const ags4Routes = [
     summary: 'A run’s test as an AGS4 file (PLTG/PLTT, edition 4.1.1), checked before it is sent',
     params: idParams,
     query: ags4ExportQuery,
-    handler: async ({ params, query, res }) => {
-      const run = await Run.findByPk(params.id);
-      const plan = run && (await TestPlan.findByPk(run.planId));
-      const location = plan && (await TestLocation.findByPk(plan.locationId));
-      if (!run || !location) throw notFound('Run');
-      await sendAgs4(res, { project: await projectOf(location), runs: [{ run, location }], label: `of run ${run.id}`, slug: `run-${run.id}` }, query);
-    },
+    handler: async ({ params, query, res }) => sendAgs4(res, await runScope(params.id), query),
   }),
   route({
     method: 'get',
@@ -52,8 +36,7 @@ export const ags4Routes = [
     params: idParams,
     query: ags4ExportQuery,
     handler: async ({ params, query, user, res }) => {
-      const location = await loadLocation(user!, params.id);
-      await sendAgs4(res, { project: await projectOf(location), runs: await runsAt([location]), label: `at ${location.pitId}`, slug: location.pitId }, query);
+      await sendAgs4(res, await locationScope(await loadLocation(user!, params.id)), query);
     },
   }),
   route({
@@ -64,9 +47,7 @@ export const ags4Routes = [
     params: idParams,
     query: ags4ExportQuery,
     handler: async ({ params, query, user, res }) => {
-      const project = await loadProject(user!, params.id);
-      const locations = await TestLocation.findAll({ where: { projectId: project.id }, order: [['pitId', 'ASC']] });
-      await sendAgs4(res, { project, runs: await runsAt(locations), label: `of project ${project.code}`, slug: 'plate-tests' }, query);
+      await sendAgs4(res, await projectTestsScope(await loadProject(user!, params.id)), query);
     },
   }),
   route({
@@ -79,7 +60,7 @@ export const ags4Routes = [
     handler: async ({ body, user, req, res }) => {
       const text = req.file ? req.file.buffer.toString('utf8') : body.content;
       if (text === undefined) throw badRequest('content: required (or upload a file in the field "file")', 'content');
-      let project: Project;
+      let project: Awaited<ReturnType<typeof loadProject>>;
       try {
         project = await loadProject(user!, body.projectId);
       } catch {

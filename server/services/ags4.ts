@@ -12,10 +12,10 @@ import type { TestRecord } from '../../shared/records/schema';
 import type { Ags4ExportQuery } from '../../shared/schemas/ags4';
 import { locationInput } from '../../shared/schemas/projects';
 import { transaction } from '../db/transaction';
-import { HttpError } from '../http/errors';
+import { HttpError, notFound } from '../http/errors';
 import { Interpretation, RunRecord } from '../models/interpretation';
 import { Organization } from '../models/organization';
-import type { Project } from '../models/project';
+import { Project } from '../models/project';
 import { Run } from '../models/run';
 import { RunEvent } from '../models/run-event';
 import { Signoff } from '../models/signoff';
@@ -57,10 +57,36 @@ export interface Ags4Scope {
 }
 
 /** The runs of the locations given, oldest first. */
-export async function runsAt(locations: readonly TestLocation[]): Promise<Ags4Scope['runs']> {
+async function runsAt(locations: readonly TestLocation[]): Promise<Ags4Scope['runs']> {
   const plans = await TestPlan.findAll({ where: { locationId: locations.map((l) => l.id) } });
   const runs = plans.length ? await Run.findAll({ where: { planId: plans.map((p) => p.id) }, order: [['id', 'ASC']] }) : [];
   return runs.map((run) => ({ run, location: locations.find((l) => l.id === plans.find((p) => p.id === run.planId)!.locationId)! }));
+}
+
+async function projectOf(location: TestLocation): Promise<Project> {
+  const project = await Project.findByPk(location.projectId);
+  if (!project) throw notFound('Project');
+  return project;
+}
+
+/** One run's test (404 for an unknown run). Access is the caller's to check. */
+export async function runScope(runId: number): Promise<Ags4Scope> {
+  const run = await Run.findByPk(runId);
+  const plan = run && (await TestPlan.findByPk(run.planId));
+  const location = plan && (await TestLocation.findByPk(plan.locationId));
+  if (!run || !location) throw notFound('Run');
+  return { project: await projectOf(location), runs: [{ run, location }], label: `of run ${run.id}`, slug: `run-${run.id}` };
+}
+
+/** Every test of a location. */
+export async function locationScope(location: TestLocation): Promise<Ags4Scope> {
+  return { project: await projectOf(location), runs: await runsAt([location]), label: `at ${location.pitId}`, slug: location.pitId };
+}
+
+/** Every test of a project. */
+export async function projectTestsScope(project: Project): Promise<Ags4Scope> {
+  const locations = await TestLocation.findAll({ where: { projectId: project.id }, order: [['pitId', 'ASC']] });
+  return { project, runs: await runsAt(locations), label: `of project ${project.code}`, slug: 'plate-tests' };
 }
 
 const safeName = (text: string) => text.replace(/[^A-Za-z0-9_-]+/g, '_').slice(0, 60) || 'tests';

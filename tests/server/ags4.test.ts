@@ -5,7 +5,9 @@
  * settlement 0.01 mm, seating load 0.1 kN); bad AGS4 is refused with every problem named by line, group and
  * heading (rules 1 printable ASCII, 8 TYPE, 10a unique keys, 10c parents, 17 TYPE defined) and nothing stored.
  */
-import { readFileSync } from 'node:fs';
+import { execFile } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkAgs4 } from '../../shared/ags4/check';
@@ -156,4 +158,46 @@ describe('refusing bad AGS4, every problem named and nothing stored', () => {
     ]);
     expect(await counts()).toEqual(before);
   });
+});
+
+describe('the command line', () => {
+  const ROOT = path.join(import.meta.dirname, '../..');
+  const scratch = mkdtempSync(path.join(tmpdir(), 'settlescope-ags4-'));
+  afterAll(() => rmSync(scratch, { recursive: true, force: true }));
+  const tsx = (script: string, args: string[]) =>
+    new Promise<{ code: number; stdout: string; stderr: string }>((resolve) => {
+      const db = t.config.db;
+      const env = {
+        ...process.env,
+        SSCOPE_DB_HOST: db.host,
+        SSCOPE_DB_PORT: String(db.port),
+        SSCOPE_DB_NAME: db.database,
+        SSCOPE_DB_USER: db.user,
+        SSCOPE_DB_PASSWORD: db.password,
+      };
+      execFile(path.join(ROOT, 'node_modules/.bin/tsx'), [script, ...args], { cwd: ROOT, env, maxBuffer: 16 * 1024 * 1024 }, (error, stdout, stderr) =>
+        resolve({ code: error ? Number(error.code) : 0, stdout, stderr }),
+      );
+    });
+
+  it('npm run ags4 writes a checked file; npm run analyze reads a file of one test and refuses one of several', async () => {
+    const one = path.join(scratch, 'one.ags');
+    const written = await tsx('server/cli/ags4.ts', ['--run', String(runIds[0]), '--out', one, '--status', 'Final']);
+    expect(written.code, written.stderr).toBe(0);
+    const text = readFileSync(one, 'utf8');
+    expect(checkAgs4(text).problems).toEqual([]);
+    expect(text).toContain('"Final"');
+    const analysed = await tsx('server/cli/analyze.ts', [one, '--json']);
+    expect(analysed.code, analysed.stderr).toBe(0);
+    expect(JSON.parse(analysed.stdout).summary.stages).toBe(JSON.parse(fixtures[0]).stages.length);
+
+    const both = await tsx('server/cli/ags4.ts', ['--project', String(projectId), '--out', '-']);
+    expect(both.code, both.stderr).toBe(0);
+    const several = path.join(scratch, 'several.ags');
+    await import('node:fs/promises').then((fs) => fs.writeFile(several, both.stdout));
+    const refused = await tsx('server/cli/analyze.ts', [several]);
+    expect(refused.code).toBe(2);
+    expect(refused.stderr).toMatch(/holds 2 plate loading tests/);
+    expect((await tsx('server/cli/ags4.ts', ['--location', '99999'])).code).toBe(2);
+  }, 120_000);
 });
