@@ -1,5 +1,5 @@
 import type { Finding, FootingAnalysis, LabelledModulus, RecordAnalysis } from '@shared/interpretation/analyze-record';
-import { STANDING_WORDS } from '@shared/interpretation/ultimate-standing';
+import { STANDING_LEGEND, STANDING_WORDS } from '@shared/interpretation/ultimate-standing';
 import { fixed, textTable } from './text-table';
 
 const label = (name: string) => name.padEnd(38);
@@ -89,8 +89,9 @@ function ultimate(a: RecordAnalysis): string[] {
       ['q_ult/q_max', `over the largest pressure tested${extent ? ` (${fixed(extent.qMaxKpa, 1)} kPa)` : ''}; above 1 lies beyond the test`],
       ['s_ult', 'the settlement the method puts at q_ult'],
       ['s_ult/s_max', `over the largest settlement measured${extent ? ` (${fixed(extent.sMaxMm, 2)} mm)` : ''}`],
-      ['standing', 'ultimate (within a test that failed), yield pressure (a bend below a pressure then carried), extrapolated, beyond the test, or no value'],
+      ['standing', 'ultimate (within a test that failed), yield pressure, extrapolated, beyond the test, or no value'],
     ]),
+    `  ${STANDING_LEGEND}`,
     line('Carried to the footing checks', a.chosenUltimate.applies ? a.chosenUltimate.result.statement : notApplicable(a.chosenUltimate.reason)),
   ];
 }

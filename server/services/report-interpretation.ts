@@ -4,7 +4,7 @@
  * shape keep the section they were signed with (report-pdf.ts).
  */
 import type { Finding, LabelledModulus, RecordAnalysis } from '../../shared/interpretation/analyze-record';
-import { STANDING_WORDS } from '../../shared/interpretation/ultimate-standing';
+import { STANDING_LEGEND, STANDING_WORDS } from '../../shared/interpretation/ultimate-standing';
 import { ULTIMATE_METHOD_NAMES } from '../../shared/schemas/interpretation';
 import type { UltimateMethod } from '../../shared/interpretation/ultimate';
 import type { ReportData } from './report-data';
@@ -45,7 +45,7 @@ function ultimate(w: SectionWriter, a: RecordAnalysis): void {
     ]),
     [0.18, 0.09, 0.09, 0.08, 0.1, 0.46],
   );
-  w.para('q_ult/q_max and s/s_max: the value over the largest pressure and settlement of the test; above 1 it lies beyond the test.', 8);
+  w.para(STANDING_LEGEND, 8);
   finding(w, 'Ultimate pressure carried forward', a.chosenUltimate, (c) => c.statement);
 }
 

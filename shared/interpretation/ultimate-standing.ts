@@ -195,3 +195,10 @@ export const STANDING_WORDS: Record<UltimateStanding, string> = {
   beyondLimits: 'beyond the test',
   none: 'no value',
 };
+
+/** The legend every view prints under the ultimate-pressure methods. */
+export const STANDING_LEGEND =
+  'q_ult/q_max and s/s_max: the value over the largest pressure and settlement of the test; above 1 it lies beyond the test. ' +
+  `Extrapolated values are shown up to q_ult/q_max ≤ ${EXTRAPOLATION_LIMITS.maxPressureRatio} and s/s_max ≤ ${EXTRAPOLATION_LIMITS.maxSettlementRatio} ` +
+  '(common practice: a fitted asymptote is read only when the test reached about half of it; limits chosen here), beyond that they are no result. ' +
+  'A yield pressure (a bend below a pressure then carried without failure signs) or an extrapolated value is never carried to the footing unless the engineer chooses it.';

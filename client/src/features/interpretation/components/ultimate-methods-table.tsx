@@ -1,5 +1,5 @@
 import type { ChosenUltimate, Finding } from '@shared/interpretation/analyze-record';
-import { type AssessedUltimate, STANDING_WORDS } from '@shared/interpretation/ultimate-standing';
+import { type AssessedUltimate, STANDING_LEGEND, STANDING_WORDS } from '@shared/interpretation/ultimate-standing';
 import { DataTable, type DataTableColumns, MonoCell, tableColumns } from '../../../components/data-table';
 import { figure } from './finding';
 
@@ -32,10 +32,7 @@ export function UltimateMethodsTable({ ultimate, chosen }: { ultimate: Finding<A
   return (
     <div className="flex flex-col gap-3">
       <DataTable caption="Ultimate-pressure methods" columns={columns} data={ultimate.result.map((r) => ({ ...r, id: r.method }))} />
-      <p className="text-sm text-neutral-700">
-        q_ult/q_max and s/s_max: the value over the largest pressure and settlement of the test; above 1 it lies beyond the test. A yield or an
-        extrapolated value is never carried to the footing unless the engineer chooses it.
-      </p>
+      <p className="text-sm text-neutral-700">{STANDING_LEGEND}</p>
       <p aria-live="polite">
         {chosen.applies ? (
           <>
