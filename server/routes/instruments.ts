@@ -123,7 +123,9 @@ export const instrumentRoutes = (dataDir: string) => {
         const calibration = await loadCalibration(params.id);
         const file = calibration.certificateFile;
         if (!file) throw notFound('Certificate');
-        res.setHeader('Content-Disposition', `inline; filename="calibration-${calibration.id}${path.extname(file)}"`);
+        // A PDF is downloaded, never shown in the app's own origin (a PDF can carry script and open actions); images show inline.
+        const disposition = path.extname(file).toLowerCase() === '.pdf' ? 'attachment' : 'inline';
+        res.setHeader('Content-Disposition', `${disposition}; filename="calibration-${calibration.id}${path.extname(file)}"`);
         await sendStoredFile(res, certificates, file);
       },
     }),

@@ -5,7 +5,7 @@ import type { ReadingFlag } from '../hold/schedule';
 import type { HoldEvaluation } from '../hold/verdict';
 import type { PlannedStage } from '../plans/stages';
 import { z } from 'zod';
-import { idSchema, requiredText } from './common';
+import { idSchema, requiredLines } from './common';
 
 /**
  * Where a run stands. `preparing`: rig checked, gauges zeroed; `pumping`: the operator brings the jack
@@ -23,7 +23,7 @@ export const runCreateInput = z.object({
 export type RunCreateInput = z.infer<typeof runCreateInput>;
 
 const channelKey = z.string().min(1).max(16);
-const reason = requiredText(500);
+const reason = requiredLines(500);
 
 /** Commands a person sends to a run. Each carries the run version it was decided on (R7). */
 export const runCommandSchema = z.discriminatedUnion('type', [
@@ -39,7 +39,7 @@ export const runCommandSchema = z.discriminatedUnion('type', [
   z.object({ type: z.literal('top-up') }),
   z.object({ type: z.literal('gauge-reset'), channel: channelKey, beforeMm: z.number().min(-500).max(500), afterMm: z.number().min(-500).max(500) }),
   /** A note for the record; one about the weather also fills the report's weather line. */
-  z.object({ type: z.literal('note'), text: requiredText(2000), topic: z.literal('weather').optional() }),
+  z.object({ type: z.literal('note'), text: requiredLines(2000), topic: z.literal('weather').optional() }),
   z.object({ type: z.literal('finish') }),
   z.object({ type: z.literal('stop'), reason }),
   z.object({ type: z.literal('acknowledge-alarm'), key: z.string().min(1).max(80) }),

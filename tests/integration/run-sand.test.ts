@@ -4,10 +4,10 @@
  * → journal → MariaDB, watched by a socket.io client.
  */
 import { QueryTypes } from 'sequelize';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { subscribeRunStream } from '../../client/src/lib/run-stream';
 import type { RunningServer } from '../../server/main';
 import type { SimulatorProcess } from '../../server/ops/simulated-rig';
-import type { SampleBatch } from '../../shared/realtime/events';
 import type { RunView } from '../../shared/schemas/runs';
 import { Client, demoEmail } from '../support/api';
 import { connectSocket, httpSignIn, startLiveServer } from '../support/live-server';
@@ -44,12 +44,13 @@ describe('a bearing test on dense sand, plan to finish through the API', () => {
     const { cookie } = await httpSignIn(server.url, demoEmail('engineer'));
     const socket = await connectSocket(server.url, cookie);
     const seen: number[] = [];
-    socket.on('run:samples', (b: SampleBatch) => seen.push(...b.seq));
     let lastView: RunView | null = null;
-    socket.on('run:view', (v) => {
-      lastView = v;
+    const stream = subscribeRunStream(socket, runId, {
+      samples: (b) => seen.push(...b.seq),
+      view: (v) => {
+        lastView = v;
+      },
     });
-    expect(await socket.emitWithAck('run:join', { runId, afterSeq: 0 })).toEqual({ ok: true });
 
     await waitFor(operator, runId, (v) => v.live.gauges.every((g) => g.readingMm !== null) && v.live.pressureKpa !== null, 'first readings');
     await command(operator, runId, { type: 'zero' });
@@ -101,10 +102,12 @@ describe('a bearing test on dense sand, plan to finish through the API', () => {
     expect(events.filter((k: string) => k === 'hold-met')).toHaveLength(stages.length);
     expect(events).toEqual(expect.arrayContaining(['run-created', 'gauges-zeroed', 'run-started', 'run-completed']));
 
-    // The watcher saw the run live and its samples in order.
+    // The watcher saw the run live, and every sample once and in order.
     expect(lastView).not.toBeNull();
+    await vi.waitFor(() => expect(stream.head).toBe(view.lastSeq), { timeout: 10_000, interval: 50 });
     expect(seen.length).toBeGreaterThan(100);
-    expect(seen).toEqual([...seen].sort((a, b) => a - b));
+    expect(seen).toEqual(Array.from({ length: view.lastSeq }, (_, i) => i + 1));
+    stream.close();
     socket.close();
   }, 240_000);
 });
