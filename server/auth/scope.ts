@@ -17,10 +17,10 @@ export async function loadProject(user: User, id: number): Promise<Project> {
   return project;
 }
 
+/** Loads a test location the user may see, or answers the same 404 whether it is missing or another client's. */
 export async function loadLocation(user: User, id: number): Promise<TestLocation> {
   const location = await TestLocation.findByPk(id);
-  if (!location) throw notFound('Test location');
-  await loadProject(user, location.projectId);
+  if (!location || (await Project.count({ where: { id: location.projectId, ...projectScope(user) } })) === 0) throw notFound('Test location');
   return location;
 }
 

@@ -35,6 +35,7 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
   else if (err instanceof ZodError) e = fromZod(err);
   else if (err?.code === 'EBADCSRFTOKEN' || err?.message === 'invalid csrf token') e = new HttpError(403, 'csrf_invalid', 'The form expired or came from elsewhere; reload and try again.');
   else if (err?.type === 'entity.parse.failed') e = badRequest('body: not valid JSON');
+  else if (err instanceof URIError) e = badRequest('path: malformed URL encoding');
   else if (err?.type === 'entity.too.large') e = new HttpError(413, 'too_large', 'The request body is too large.');
   else if (err?.name === 'MulterError') e = new HttpError(err.code === 'LIMIT_FILE_SIZE' ? 413 : 400, 'invalid_upload', `${err.field ?? 'file'}: ${err.message}`, err.field);
   else if (err?.name === 'SequelizeUniqueConstraintError') {

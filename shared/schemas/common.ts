@@ -12,9 +12,20 @@ export interface ListResponse<T> {
   items: T[];
 }
 
-export const trimmed = (max: number) => z.string().trim().max(max);
-export const requiredText = (max: number) => z.string().trim().min(1, 'required').max(max);
-export const optionalText = (max: number) => z.string().trim().max(max).default('');
+// biome-ignore lint/suspicious/noControlCharactersInRegex: control characters are what is refused
+const ONE_LINE = /^[^\u0000-\u001f\u007f\u2028\u2029]*$/;
+// biome-ignore lint/suspicious/noControlCharactersInRegex: control characters are what is refused
+const LINES = /^[^\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]*$/;
+/** Names, codes, captions: one line, so a value cannot forge a header line (e-mail subject, CSV, PDF) or hide text. */
+const oneLine = (s: z.ZodString) => s.regex(ONE_LINE, 'must be one line without control characters');
+/** Notes and reasons: line breaks and tabs allowed, other control characters not. */
+const lines = (s: z.ZodString) => s.regex(LINES, 'must not contain control characters');
+
+export const trimmed = (max: number) => oneLine(z.string().trim().max(max));
+export const requiredText = (max: number) => oneLine(z.string().trim().min(1, 'required').max(max));
+export const optionalText = (max: number) => lines(z.string().trim().max(max)).default('');
+/** Required free text that may run over several lines (notes, reasons). */
+export const requiredLines = (max: number) => lines(z.string().trim().min(1, 'required').max(max));
 
 type PatchShape<T extends z.ZodRawShape> = { [K in keyof T]: z.ZodOptional<T[K] extends z.ZodDefault<infer Inner> ? Inner : T[K]> };
 

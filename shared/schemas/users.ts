@@ -1,12 +1,37 @@
 import { z } from 'zod';
 import { patchOf, requiredText } from './common';
+import { COMMON_PASSWORDS } from './common-passwords';
 
 export const ROLES = ['admin', 'engineer', 'operator', 'client'] as const;
 export const roleSchema = z.enum(ROLES);
 export type Role = z.infer<typeof roleSchema>;
 
-/** Password policy (QUALITY.md S3): at least 8, up to 128 characters. */
-export const passwordSchema = z.string().min(8, 'at least 8 characters').max(128, 'at most 128 characters');
+/** True when every character is the previous one plus (or minus) one: 12345678, abcdefgh, 87654321. */
+function straightRun(text: string): boolean {
+  const codes = [...text].map((c) => c.codePointAt(0)!);
+  const step = codes[1] - codes[0];
+  return Math.abs(step) === 1 && codes.every((c, i) => i === 0 || c - codes[i - 1] === step);
+}
+
+/** Why a password is too easy to guess (NIST SP 800-63B style: a blocklist rather than composition rules), or null. */
+export function weakPasswordReason(password: string): string | null {
+  const lower = password.toLowerCase();
+  if (/^(.)\1*$/su.test(password)) return 'one character repeated is too easy to guess';
+  if (straightRun(lower)) return 'a straight run of characters is too easy to guess';
+  // A listed word alone, or with digits and symbols stuck on the end (password1!, qwerty2024).
+  if (COMMON_PASSWORDS.has(lower) || COMMON_PASSWORDS.has(lower.replace(/[^\p{L}]+$/u, ''))) return 'this password is too common; choose a longer phrase of your own';
+  return null;
+}
+
+/** Password policy (QUALITY.md S3): 8 to 128 characters, not a common or trivially guessed one. */
+export const passwordSchema = z
+  .string()
+  .min(8, 'at least 8 characters')
+  .max(128, 'at most 128 characters')
+  .superRefine((password, ctx) => {
+    const reason = weakPasswordReason(password);
+    if (reason) ctx.addIssue({ code: 'custom', message: reason });
+  });
 
 export const loginInput = z.object({
   email: z.string().trim().toLowerCase().email('a valid e-mail address'),

@@ -13,19 +13,27 @@ const sessionCookie = (res: { headers: Record<string, unknown> }) =>
   ((res.headers['set-cookie'] as string[] | undefined) ?? []).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
 
 describe('sign-in and session (QUALITY.md S3, S4)', () => {
-  it('sets an httpOnly SameSite cookie with our own name and regenerates the session id at sign-in', async () => {
+  it('stores no session before sign-in, then sets an httpOnly SameSite cookie with our own name', async () => {
+    const sessions = () => t.sequelize.models.Session.count();
+    const stored = await sessions();
     const c = new Client(t.app);
     const pre = await c.agent.get('/api/auth/csrf');
-    const before = sessionCookie(pre)!;
-    expect(before).toMatch(/HttpOnly/);
-    expect(before).toMatch(/SameSite=Lax/);
+    await c.agent.get('/api/auth/csrf');
+    expect(sessionCookie(pre)).toBeUndefined();
+    expect(await sessions()).toBe(stored);
+    // The anonymous CSRF token rides in its own signed cookie.
+    const preCookie = (pre.headers['set-cookie'] as unknown as string[]).find((h) => h.startsWith('sscope.pre='))!;
+    expect(preCookie).toMatch(/HttpOnly/);
+    expect(preCookie).toMatch(/SameSite=Strict/);
     c.token = pre.body.csrfToken;
     const login = await c.post('/api/auth/login', { email: demoEmail('operator'), password: DEMO_PASSWORD });
     expect(login.status).toBe(200);
     expect(login.body.user).toMatchObject({ role: 'operator', email: demoEmail('operator') });
     expect(login.body.user.passwordHash).toBeUndefined();
     const after = sessionCookie(login)!;
-    expect(after.split(';')[0]).not.toBe(before.split(';')[0]);
+    expect(after).toMatch(/HttpOnly/);
+    expect(after).toMatch(/SameSite=Lax/);
+    expect(await sessions()).toBe(stored + 1);
     expect(login.body.csrfToken).not.toBe(pre.body.csrfToken);
     c.token = login.body.csrfToken;
     expect((await c.get('/api/auth/me')).body.user.role).toBe('operator');
@@ -106,5 +114,14 @@ describe('security headers (QUALITY.md S8)', () => {
     expect(res.headers['content-security-policy']).toMatch(/default-src 'self'/);
     expect(res.headers['x-content-type-options']).toBe('nosniff');
     expect(res.headers['x-powered-by']).toBeUndefined();
+    // Served over plain HTTP (no secure cookies): no HSTS, which would lock browsers out of this address.
+    expect(res.headers['strict-transport-security']).toBeUndefined();
+  });
+
+  it('answers 400, not 500, for a malformed URL encoding', async () => {
+    const c = await signedIn(t.app, 'engineer');
+    const res = await c.get('/api/runs/%FF/verify');
+    expect(res.status).toBe(400);
+    expect(res.body.error.message).toMatch(/URL encoding/);
   });
 });
