@@ -93,6 +93,8 @@ describe('signal faults (QUALITY R3, R4, R5)', () => {
     expect(got.at(-1)).toBeGreaterThanOrEqual(rejoinedAt);
     expect(got).toEqual(Array.from({ length: got.length }, (_, i) => got[0] + i));
 
+    // Stopping opens the release valve: what the samples read after this is the unloading, not the hold.
+    const seqHoldEnd = ((await operator.get(`/api/runs/${runId}`)).body as RunView).lastSeq;
     await command(operator, runId, { type: 'stop', reason: 'end of the fault test' });
     await server.runs.archiver.drain();
     const rows = (await server.sequelize.query('SELECT seq, t_ms AS t, channel, value, status FROM samples WHERE run_id = ? AND seq > ? ORDER BY seq', {
@@ -114,7 +116,7 @@ describe('signal faults (QUALITY R3, R4, R5)', () => {
       expect(bad.length, `rejected samples on channel ${channel}`).toBeGreaterThan(0);
       expect(bad.every((r) => r.value === null)).toBe(true);
     }
-    const held = rows.filter((r) => r.seq > seqBefore); // all during the hold
+    const held = rows.filter((r) => r.seq > seqBefore && r.seq <= seqHoldEnd); // all during the hold
     const g2 = held.filter((r) => r.channel === 1 && r.status === SAMPLE_STATUS.ok).map((r) => r.value! / 1000);
     // A held plate creeps smoothly: no accepted reading jumps from its neighbour (random bytes would).
     const steps = g2.slice(1).map((v, i) => Math.abs(v - g2[i]));
