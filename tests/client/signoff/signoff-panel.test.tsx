@@ -72,6 +72,20 @@ describe('sign-off panel', () => {
     expect(screen.getByRole('button', { name: 'E-mail the report to the client' })).toBeTruthy();
     expect(screen.getByRole('button', { name: 'Reopen as revision' })).toBeTruthy();
     expect(screen.queryByRole('button', { name: /Submit/ })).toBeNull();
+    // A signed revision is not signed again.
+    expect(screen.queryByRole('button', { name: 'Sign' })).toBeNull();
+  });
+
+  it('offers withdrawing a run in review to draft, with a reason', async () => {
+    const fetchMock = stubFetch({ 'GET /api/auth/csrf': json(200, { csrfToken: 't-1' }), 'POST /api/runs/12/signoff/reopen': json(200, { ...IN_REVIEW, state: 'draft' }) });
+    const { user } = renderWithProviders(<SignoffPanel view={IN_REVIEW} canSign />);
+    await user.click(screen.getByRole('button', { name: 'Withdraw to draft' }));
+    expect(screen.getByText('Say why the run goes back to draft.')).toBeTruthy();
+    await user.type(screen.getByLabelText('Reason to withdraw from review'), 'One more look at the curve.');
+    await user.click(screen.getByRole('button', { name: 'Withdraw to draft' }));
+    await screen.findByRole('button', { name: 'Withdraw to draft' });
+    const sent = requests(fetchMock).find((r) => r.key === 'POST /api/runs/12/signoff/reopen');
+    expect(sent?.body).toEqual({ reason: 'One more look at the curve.' });
   });
 
   it('shows operators the state and signatures without any action', () => {

@@ -70,30 +70,31 @@ function SignForm({ runId }: { runId: number }) {
   );
 }
 
-function ReopenForm({ runId }: { runId: number }) {
+/** Reopen a signed run as a new revision, or withdraw one in review to draft (both with a reason). */
+function ReopenForm({ runId, withdraw = false }: { runId: number; withdraw?: boolean }) {
   const reopen = useReopenRun(runId);
   const [reason, setReason] = useState('');
   const [problem, setProblem] = useState<string>();
   const submit = (e: FormEvent) => {
     e.preventDefault();
-    if (!reason.trim()) return setProblem('Say why the signed run must change.');
+    if (!reason.trim()) return setProblem(withdraw ? 'Say why the run goes back to draft.' : 'Say why the signed run must change.');
     setProblem(undefined);
     reopen.mutate({ reason: reason.trim() }, { onSuccess: () => setReason('') });
   };
   return (
-    <form onSubmit={submit} aria-label="Reopen as a new revision" className="flex max-w-xl flex-col gap-3">
+    <form onSubmit={submit} aria-label={withdraw ? 'Withdraw to draft' : 'Reopen as a new revision'} className="flex max-w-xl flex-col gap-3">
       <TextAreaField
-        label="Reason for a new revision"
+        label={withdraw ? 'Reason to withdraw from review' : 'Reason for a new revision'}
         value={reason}
         maxLength={500}
         onChange={(e) => setReason(e.target.value)}
         error={problem ?? (isApiError(reopen.error) && reopen.error.field === 'reason' ? reopen.error.message : undefined)}
-        hint="The signatures so far stay on record."
+        hint={withdraw ? 'While in review the readings, notes and interpretation are locked; withdraw to change them.' : 'The signatures so far stay on record.'}
       />
       <FormError message={reopen.error && !(isApiError(reopen.error) && reopen.error.field) ? reopen.error.message : undefined} />
       <div>
-        <Button type="submit" variant="secondary" busy={reopen.isPending} busyLabel="Reopening…">
-          Reopen as revision
+        <Button type="submit" variant="secondary" busy={reopen.isPending} busyLabel={withdraw ? 'Withdrawing…' : 'Reopening…'}>
+          {withdraw ? 'Withdraw to draft' : 'Reopen as revision'}
         </Button>
       </div>
     </form>
@@ -231,7 +232,13 @@ export function SignoffPanel({ view, canSign }: { view: SignoffView; canSign: bo
               <FormError message={submit.error?.message} />
             </div>
           )}
-          {view.state !== 'draft' && <SignForm runId={view.runId} />}
+          {/* One signature per revision, by someone other than the submitter (the server checks both). */}
+          {view.state === 'in-review' && (
+            <>
+              <SignForm runId={view.runId} />
+              <ReopenForm runId={view.runId} withdraw />
+            </>
+          )}
           {view.state === 'signed' && (
             <>
               <SendReport runId={view.runId} />
