@@ -1,4 +1,5 @@
 import type { Calibration } from '../../shared/calibration/schema';
+import type { KitInstrument } from '../../shared/hold/instrument-alarms';
 import { calibrationStatus, todayUtc } from '../../shared/instruments/status';
 import type { CalibrationStatus, Rig as RigDto } from '../../shared/schemas/instruments';
 import { notFound } from '../http/errors';
@@ -12,7 +13,9 @@ export interface RigContext {
   calibrations: Map<number, Calibration>;
   status: Map<number, CalibrationStatus>;
   serials: Map<number, string>;
-  jack: { calibration: Calibration | null; serial: string; status: CalibrationStatus } | null;
+  /** What the register says of each instrument: resolution, travel, calibration and its due date. */
+  kit?: Map<number, KitInstrument>;
+  jack: { calibration: Calibration | null; serial: string; status: CalibrationStatus; ratedPressureMpa?: number | null } | null;
 }
 
 export async function loadRigContext(rigId: number): Promise<RigContext> {
@@ -24,13 +27,16 @@ export async function loadRigContext(rigId: number): Promise<RigContext> {
   const calibrations = new Map<number, Calibration>();
   const status = new Map<number, CalibrationStatus>();
   const serials = new Map<number, string>();
+  const kit = new Map<number, KitInstrument>();
   for (const i of instruments) {
     const current = i.currentCalibration();
     if (current) calibrations.set(i.id, current.method);
     status.set(i.id, calibrationStatus(current?.dueOn, today));
     serials.set(i.id, i.serialNumber);
+    kit.set(i.id, { serial: i.serialNumber, resolution: i.resolution, travelMm: i.travelMm, calibration: current?.method ?? null, dueOn: current?.dueOn ?? null });
   }
   const jackId = rig.jackInstrumentId;
-  const jack = jackId ? { calibration: calibrations.get(jackId) ?? null, serial: serials.get(jackId) ?? '?', status: status.get(jackId) ?? 'uncalibrated' } : null;
-  return { rig: rig.toDto(), calibrations, status, serials, jack };
+  const ratedPressureMpa = instruments.find((i) => i.id === jackId)?.ratedPressureMpa ?? null;
+  const jack = jackId ? { calibration: calibrations.get(jackId) ?? null, serial: serials.get(jackId) ?? '?', status: status.get(jackId) ?? 'uncalibrated', ratedPressureMpa } : null;
+  return { rig: rig.toDto(), calibrations, status, serials, kit, jack };
 }

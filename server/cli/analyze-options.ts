@@ -24,6 +24,7 @@ const METHOD_WORDS: Record<string, NonNullable<InterpretationSettings['ultimateM
   hyperbolic: 'hyperbolic',
   criterion: 'settlementCriterion',
   'brinch-hansen': 'brinchHansen80',
+  'largest-pressure': 'largestPressure',
 };
 const SOIL_WORDS: Record<string, NonNullable<InterpretationSettings['soilBehaviour']>> = { sand: 'cohesionless', clay: 'cohesive', cohesionless: 'cohesionless', cohesive: 'cohesive' };
 const EV_WORDS: Record<string, NonNullable<InterpretationSettings['evConvention']>> = { 'first-loading': 'firstLoadingMax', 'each-branch': 'branchMax' };

@@ -10,6 +10,7 @@ import { plateAreaM2, plateForceKn } from '../../shared/domain/plate';
 import { type AlarmAction, reduceAlarm } from '../../shared/hold/alarm-lifecycle';
 import { type Alarm, gaugeTravelAlarm, loadDriftAlarm, reactionCapacityAlarm, readingsUnsecuredAlarm, signalLostAlarm, stopLimitAlarm, stopLimitMm, tiltAlarm } from '../../shared/hold/alarms';
 import { evaluateHold } from '../../shared/hold/evaluate';
+import { emptyInstrumentWatch, gaugeResolutionMm, gaugeTravelMm, instrumentAlarms, type Kit, rigResolutionMm, watchReading, watchReset } from '../../shared/hold/instrument-alarms';
 import { nextStepPrompt } from '../../shared/hold/next-step';
 import { lateReadings, nextReadingDue } from '../../shared/hold/schedule';
 import type { HoldEvaluation } from '../../shared/hold/verdict';
@@ -69,6 +70,7 @@ const EVALUATE_MS = 500;
 const SERIES_STEP_MS = 2000;
 /** The target counts as reached within max(2 %, 2 kPa) (common practice, as the load-drift rule). */
 const reached = (actual: number, target: number) => Math.abs(actual - target) <= Math.max(0.02 * target, 2);
+const NO_KIT: Kit = new Map();
 
 export class RunEngine {
   private persisted: PersistedRun;
@@ -77,6 +79,8 @@ export class RunEngine {
   private readonly lastOkWallMs = new Map<string, number>();
   /** Channels whose port reported itself gone; cleared by their next good sample. */
   private readonly portLost = new Set<string>();
+  /** What the instrument alarms remember between readings: last readings, gauge jumps, recorded resets. */
+  private watch = emptyInstrumentWatch();
   private pending: SampleRow[] = [];
   /** Journals new rows; keeps (bounded) what a refusing journal cannot take. */
   private readonly securer: SampleSecurer;
@@ -173,6 +177,7 @@ export class RunEngine {
     this.latest.set(r.key, r.value);
     this.lastOkWallMs.set(r.key, r.wallMs);
     this.persisted.lastSampleMs = tMs;
+    this.watchInstruments(r, tMs);
     if (r.role === 'gauge') this.recordSettlement(tMs);
   }
 
@@ -237,6 +242,18 @@ export class RunEngine {
     return this.setup.stages[stageIndex]?.branch === 'unloading' ? 'falling' : 'rising';
   }
 
+  private get kit(): Kit {
+    return this.setup.rig.kit ?? NO_KIT;
+  }
+
+  /** Feeds the instrument alarms' memory; jumps are looked for under a held load only. */
+  private watchInstruments(r: ChannelReading, tMs: number): void {
+    const channel = this.setup.rig.rig.channels[r.channelIndex];
+    if (!channel || r.value === null) return;
+    const held = this.state.phase === 'holding' || this.state.phase === 'hold-met';
+    this.watch = watchReading(this.watch, { key: r.key, role: r.role, tMs, raw: r.raw, value: r.value }, { resolutionMm: gaugeResolutionMm(channel, this.kit), held });
+  }
+
   // ---------------------------------------------------------------- decisions
 
   private evaluate(): void {
@@ -274,7 +291,7 @@ export class RunEngine {
           stopLimitMm: this.stopLimit(),
           maxHoldMin: this.setup.plan.termination.maxHoldMin,
           procedureId: this.setup.plan.procedureId,
-          resolutionMm: 0.01,
+          resolutionMm: rigResolutionMm(this.setup.rig.rig.channels, this.kit),
         });
         if (this.hold.verdict === 'satisfied') observe({ type: 'hold-met' });
       } catch (err) {
@@ -292,7 +309,7 @@ export class RunEngine {
    */
   private prompt(stage: PlannedStage) {
     // Never beyond the jack calibration's range: the prompt then says why instead of giving a pressure.
-    const gauge = jackGaugeFor(this.setup.rig.jack?.calibration ?? null, { branch: this.jackBranch(stage.index), unit: this.setupM.pressureUnit });
+    const gauge = jackGaugeFor(this.setup.rig.jack?.calibration ?? null, { branch: this.jackBranch(stage.index), unit: this.setupM.pressureUnit, ratedPressureMpa: this.setup.rig.jack?.ratedPressureMpa });
     return nextStepPrompt({ stage, plate: this.setup.plan.plate, apparatusWeightKn: this.setup.plan.apparatusWeightKn, gaugePressureFor: gauge.pressureFor, gaugeUnit: gauge.unit });
   }
 
@@ -319,7 +336,7 @@ export class RunEngine {
     if (placed.length >= 2) alarms.push(tiltAlarm({ gauges: placed }));
     for (const c of this.setup.rig.rig.channels) {
       const reading = this.latest.get(c.key);
-      if (c.gauge && reading != null) alarms.push({ ...gaugeTravelAlarm({ gauge: c.key, readingMm: reading, travelMm: c.gauge.travelMm, sign: c.gauge.direction }) });
+      if (c.gauge && reading != null) alarms.push({ ...gaugeTravelAlarm({ gauge: c.key, readingMm: reading, travelMm: gaugeTravelMm(c, this.kit) ?? c.gauge.travelMm, sign: c.gauge.direction }) });
       if (this.setup.rig.rig.mode === 'serial' && s.phase !== 'preparing') {
         alarms.push(signalLostAlarm({ channel: c.key, lastSampleAtMs: this.lastOkWallMs.get(c.key) ?? null, nowMs: nowWall, portLost: this.portLost.has(c.key) }));
       }
@@ -327,7 +344,24 @@ export class RunEngine {
     if (m.meanSettlementMm !== null && s.phase !== 'preparing') alarms.push(stopLimitAlarm({ meanSettlementMm: m.meanSettlementMm, stopLimitMm: this.stopLimit() }));
     if (m.jackForceKn !== null) alarms.push(reactionCapacityAlarm({ jackForceKn: m.jackForceKn, capacityKn: this.setup.plan.reaction.capacityKn }));
     alarms.push(readingsUnsecuredAlarm({ failure: this.securer.failure, maxWaiting: this.securer.maxWaiting }));
+    alarms.push(...this.instrumentAlarms());
     return alarms;
+  }
+
+  /** Calibration overdue or expiring, readings outside their calibrated range, unexplained gauge jumps. */
+  private instrumentAlarms(): Alarm[] {
+    const m = this.measurements;
+    const jackId = this.setup.rig.rig.jackInstrumentId;
+    return instrumentAlarms({
+      channels: this.setup.rig.rig.channels,
+      kit: this.kit,
+      calibrations: this.setup.rig.calibrations,
+      jack: jackId == null ? null : { instrumentId: jackId, calibration: this.setup.rig.jack?.calibration ?? null },
+      oil: m.oilPressure === null ? null : { value: m.oilPressure, unit: m.oilUnit },
+      watch: this.watch,
+      sinceMs: this.state.stageStartedAtMs,
+      nowWallMs: Date.now(),
+    });
   }
 
   /** Reconciles the alarms between evaluations, saving and pushing any change. */
@@ -356,6 +390,7 @@ export class RunEngine {
     const gaugeSigns = Object.fromEntries(this.setup.rig.rig.channels.flatMap((c) => (c.gauge ? [[c.key, c.gauge.direction]] : [])));
     const r = applyCommand(this.state, command, { nowMs: now, actor, stages: this.setup.stages, gaugeReadings, overdueInstruments: this.setup.overdueInstruments, gaugeSigns });
     if (!r.ok) throw new CommandRefused(r.code, r.message);
+    if (command.type === 'gauge-reset') this.watch = watchReset(this.watch, command.channel, now);
     const before = this.state;
     this.persisted.lifecycle = r.state;
     if (command.type === 'manual-reading') this.recordManual(command);
@@ -506,7 +541,7 @@ export class RunEngine {
         spreadMm: m.tilt?.spreadMm ?? null,
         gauges: m.gauges.map((g) => {
           const c = this.setup.rig.rig.channels.find((x) => x.key === g.key);
-          return { ...g, label: c?.label ?? g.key, travelMm: c?.gauge?.travelMm ?? null };
+          return { ...g, label: c?.label ?? g.key, travelMm: c ? gaugeTravelMm(c, this.kit) : null };
         }),
       },
       hold: this.hold,

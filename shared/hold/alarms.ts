@@ -314,6 +314,11 @@ export interface CalibratedRangeInput {
   /** The reading in the calibration's input unit. */
   reading: number;
   calibration: Calibration;
+  /**
+   * Readings this fraction of the span beyond either end still count as inside: an instrument at rest
+   * reads a little either side of its zero. Default 0.01 (1 % of the span).
+   */
+  marginFraction?: number;
 }
 
 /**
@@ -326,8 +331,9 @@ export function calibratedRangeAlarm(input: CalibratedRangeInput): Alarm | null 
   if (!Number.isFinite(lo) && !Number.isFinite(hi)) return null;
   const reading = requireFinite(input.reading, 'reading');
   const unit = input.calibration.inputUnit;
-  const below = reading < lo;
-  const active = below || reading > hi;
+  const margin = Number.isFinite(hi - lo) ? requireNonNegative(input.marginFraction ?? 0.01, 'marginFraction') * (hi - lo) : 0;
+  const below = reading < lo - margin;
+  const active = below || reading > hi + margin;
   const span = `${lo}–${hi} ${unit}`;
   return {
     code: 'outside-calibration',

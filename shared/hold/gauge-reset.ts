@@ -71,14 +71,21 @@ export interface GaugeJump {
   toMm: number;
 }
 
+/** Options of {@link jumpBetween}. */
+export interface LiveJumpOptions extends JumpOptions {
+  /** Readings further apart than this (run clock ms) are not compared: a change over a longer time is movement, not a knock. Default 10 s. */
+  maxGapMs?: number;
+}
+
 /**
  * The jump between a gauge's previous reading and this one, or null: the live form of
  * {@link findUnmarkedJumps}, reading by reading. Whether a reset explains it is the alarm's business.
  */
-export function jumpBetween(previous: { tMs: number; mm: number } | null | undefined, reading: { tMs: number; mm: number }, options: JumpOptions): GaugeJump | null {
+export function jumpBetween(previous: { tMs: number; mm: number } | null | undefined, reading: { tMs: number; mm: number }, options: LiveJumpOptions): GaugeJump | null {
   if (!previous) return null;
   const resolution = requirePositive(options.resolutionMm, 'resolutionMm');
   const maxDivisions = requirePositive(options.maxDivisions ?? 100, 'maxDivisions');
+  if (reading.tMs - previous.tMs > requirePositive(options.maxGapMs ?? 10_000, 'maxGapMs')) return null;
   return isJump(reading.mm - previous.mm, resolution, maxDivisions) ? { fromMs: previous.tMs, toMs: reading.tMs, fromMm: previous.mm, toMm: reading.mm } : null;
 }
 

@@ -29,7 +29,7 @@ import {
 import { FIXED_PRESSURE_KPA, kForStandardPlate, kLabel, type StandardPlateK, type SubgradeModulus, subgradeModulusAtPressure, subgradeModulusAtSettlement } from './subgrade';
 import { type CreepCoefficient, type CycleSplit, creepPerLogCycle, cyclicSplit, type HyperbolicTimeFit, hyperbolicTimeFit } from './time-settlement';
 import { type CompareUltimateOptions, compareUltimateMethods, criterionSettlementMm, type UltimateMethod } from './ultimate';
-import { type AssessedUltimate, assessUltimate, type ChosenUltimate, chooseUltimate, type TestExtent, testExtent } from './ultimate-standing';
+import { type AssessedUltimate, assessUltimate, type ChosenUltimate, chooseUltimate, type TestExtent, testExtent, type UltimateChoice } from './ultimate-standing';
 
 export type { ChosenUltimate } from './ultimate-standing';
 
@@ -48,8 +48,8 @@ export interface AnalyzeRecordOptions {
   reduction?: ReductionRule;
   /** Options of the ultimate-pressure methods (log–log split, tangent points, settlement criterion, reading resolution). Default: each method's own. */
   ultimate?: CompareUltimateOptions;
-  /** The method whose ultimate pressure is scaled to the footing. Default: the lowest that stands as an ultimate within the test, else q_ult ≥ q_max. */
-  ultimateMethod?: UltimateMethod;
+  /** The method whose ultimate pressure is scaled to the footing, or the largest pressure carried. Default: the lowest that stands as an ultimate within the test, else q_ult ≥ q_max. */
+  ultimateMethod?: UltimateChoice;
   /** Footing settlement scaling. Default: Terzaghi & Peck's sand rule for cohesionless soil, the linear rule for cohesive soil. */
   scaling?: SettlementScaling;
   /** Poisson's ratio for the elastic modulus. Default 0.5 when the footing's soil is cohesive, else 0.3 (EN 1997-2 Annex K.2). */

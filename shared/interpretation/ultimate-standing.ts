@@ -117,13 +117,16 @@ export function assessUltimate(r: AnyUltimateResult, extent: TestExtent): Assess
   return { ...r, qOverQmax, sOverSmax, indicativeKpa: null, standing: 'ultimate' };
 }
 
+/** What the engineer may carry to the footing: a method's value, or the largest pressure carried as the lower bound q_ult ≥ q_max. */
+export type UltimateChoice = UltimateMethod | 'largestPressure';
+
 /** The ultimate pressure carried into the footing checks, and how it was picked. */
 export interface ChosenUltimate {
   /** The method, or null for the lower bound q_ult ≥ q_max of a test that did not fail. */
   method: UltimateMethod | null;
   label: string;
   qUltKpa: number;
-  /** engineer: named by the engineer; lowest: the lowest ultimate within the test; lowerBound: q_ult ≥ q_max. */
+  /** engineer: a method named by the engineer; lowest: the lowest ultimate within the test; lowerBound: q_ult ≥ q_max (by default or as the engineer chose). */
   basis: 'engineer' | 'lowest' | 'lowerBound';
   standing: UltimateStanding | 'lowerBound';
   qOverQmax: number;
@@ -142,7 +145,7 @@ export interface ChosenUltimate {
 export function chooseUltimate(
   methods: readonly AssessedUltimate[],
   extent: TestExtent,
-  wanted: UltimateMethod | undefined,
+  wanted: UltimateChoice | undefined,
 ): { applies: true; result: ChosenUltimate } | { applies: false; reason: string } {
   const pick = (r: AssessedUltimate, basis: 'engineer' | 'lowest'): { applies: true; result: ChosenUltimate } => {
     const q = r.qUltKpa as number;
@@ -163,13 +166,13 @@ export function chooseUltimate(
       },
     };
   };
-  if (wanted !== undefined) {
+  if (wanted !== undefined && wanted !== 'largestPressure') {
     const chosen = methods.find((r) => r.method === wanted);
     if (!chosen) return { applies: false, reason: `unknown ultimate-pressure method "${wanted}"` };
     return chosen.qUltKpa === null ? { applies: false, reason: `${chosen.label}: ${chosen.reason}` } : pick(chosen, 'engineer');
   }
   const standing = methods.filter((r) => r.standing === 'ultimate' && r.qUltKpa !== null);
-  if (standing.length > 0) return pick(standing.reduce((a, b) => ((b.qUltKpa as number) < (a.qUltKpa as number) ? b : a)), 'lowest');
+  if (standing.length > 0 && wanted === undefined) return pick(standing.reduce((a, b) => ((b.qUltKpa as number) < (a.qUltKpa as number) ? b : a)), 'lowest');
   const q = extent.qMaxKpa;
   return {
     applies: true,
@@ -180,7 +183,7 @@ export function chooseUltimate(
       basis: 'lowerBound',
       standing: 'lowerBound',
       qOverQmax: 1,
-      statement: `${extent.failure.reached ? 'No method finds an ultimate within the test' : 'Failure not reached'}: q_ult ≥ ${fmt(q)} kPa, the largest pressure carried (${extent.failure.evidence}). The footing checks use this lower bound, which is on the safe side.`,
+      statement: `${wanted === 'largestPressure' ? 'The engineer’s choice, the largest pressure carried' : extent.failure.reached ? 'No method finds an ultimate within the test' : 'Failure not reached'}: q_ult ≥ ${fmt(q)} kPa, the largest pressure carried (${extent.failure.evidence}). The footing checks use this lower bound, which is on the safe side.`,
       formula: 'q_ult ≥ q_max (the largest pressure the plate carried)',
       source: 'Common practice: a test stopped before failure bounds the ultimate pressure from below',
     },

@@ -1,15 +1,24 @@
 import { z } from 'zod';
-import type { UltimateMethod } from '../interpretation/ultimate';
+import type { UltimateChoice } from '../interpretation/ultimate-standing';
 
-export const ULTIMATE_METHODS = ['logLogIntersection', 'tangentIntersection', 'hyperbolic', 'settlementCriterion', 'brinchHansen80'] as const satisfies readonly UltimateMethod[];
+/** The ultimate pressures an engineer can carry to the footing: each method's, or the largest pressure carried (q_ult ≥ q_max). */
+export const ULTIMATE_METHODS = [
+  'logLogIntersection',
+  'tangentIntersection',
+  'hyperbolic',
+  'settlementCriterion',
+  'brinchHansen80',
+  'largestPressure',
+] as const satisfies readonly UltimateChoice[];
 
-/** What a practitioner reads for each ultimate-pressure method (the page, the report and the command line). */
-export const ULTIMATE_METHOD_NAMES: Record<UltimateMethod, string> = {
+/** What a practitioner reads for each choice (the page, the report and the command line). */
+export const ULTIMATE_METHOD_NAMES: Record<UltimateChoice, string> = {
   logLogIntersection: 'Log–log two-line intersection',
   tangentIntersection: 'Tangent intersection',
   hyperbolic: 'Hyperbolic asymptote (Chin–Kondner)',
   settlementCriterion: 'Settlement criterion',
   brinchHansen80: 'Brinch Hansen 80 %',
+  largestPressure: 'Largest pressure carried (q_ult ≥ q_max)',
 };
 
 /** A number, also when it comes as text (query string, command line); other text is left for zod to reject with the field's name. */

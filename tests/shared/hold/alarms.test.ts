@@ -153,8 +153,10 @@ describe('reading outside its calibrated range', () => {
     expect(calibratedRangeAlarm({ subject: 'p1', label: 'Jack JK-1', reading: -2, calibration: jack })).toMatchObject({ active: true, limit: 0 });
   });
 
-  it('stays quiet inside the range, at its ends too', () => {
-    for (const reading of [0, 12.5, 50]) expect(calibratedRangeAlarm({ subject: 'p1', label: 'Jack JK-1', reading, calibration: jack })?.active).toBe(false);
+  it('stays quiet inside the range, at its ends too, and for the flutter of an instrument at rest (1 % of the span)', () => {
+    for (const reading of [0, 12.5, 50, -0.04, 50.4]) expect(calibratedRangeAlarm({ subject: 'p1', label: 'Jack JK-1', reading, calibration: jack })?.active).toBe(false);
+    expect(calibratedRangeAlarm({ subject: 'p1', label: 'Jack JK-1', reading: 50.6, calibration: jack })?.active).toBe(true);
+    expect(calibratedRangeAlarm({ subject: 'p1', label: 'Jack JK-1', reading: 50.1, calibration: jack, marginFraction: 0 })?.active).toBe(true);
   });
 
   it('takes a table without a range as covering its points; a bare line with no span has nothing to judge', () => {
@@ -191,6 +193,11 @@ describe('unexplained jump (a gauge knocked or reset without a record — common
     expect(unexplainedJumpAlarm({ gauge: 'g1', jumps, resetsAtMs: [t0 + 60_000] }).active).toBe(false);
     expect(unexplainedJumpAlarm({ gauge: 'g1', jumps, resetsAtMs: [t0 + 600_000] }).active).toBe(true);
     expect(unexplainedJumpAlarm({ gauge: 'g1', jumps, resetsAtMs: [t0 - 60_000] }).active).toBe(true);
+  });
+
+  it('does not compare readings far apart in time: a change over minutes is movement, not a knock', () => {
+    expect(jumpBetween({ tMs: t0, mm: 5 }, { tMs: t0 + 60_000, mm: 7 }, { resolutionMm: 0.01 })).toBeNull();
+    expect(jumpBetween({ tMs: t0, mm: 5 }, { tMs: t0 + 1_000, mm: 7 }, { resolutionMm: 0.01 })).not.toBeNull();
   });
 
   it('stays quiet on normal data: steady settlement with noise of a division or two', () => {

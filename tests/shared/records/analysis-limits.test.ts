@@ -93,6 +93,10 @@ describe('yield, failure and extrapolation', () => {
     expect(chosen.qUltKpa).toBe(Math.min(...ultimates.map((m) => m.qUltKpa as number)));
     expect(chosen.qOverQmax).toBeCloseTo(chosen.qUltKpa / 600, 12);
     for (const m of result(a.ultimate)) if (m.qUltKpa !== null) expect(m.qOverQmax).toBeCloseTo(m.qUltKpa / 600, 12);
+    // The engineer may still carry the largest pressure carried, the lower bound, instead.
+    const bound = result(analyzeRecord(curveOf(plunge), { ultimateMethod: 'largestPressure' }).chosenUltimate);
+    expect(bound).toMatchObject({ basis: 'lowerBound', method: null, qUltKpa: 600 });
+    expect(bound.statement).toMatch(/^The engineer’s choice, the largest pressure carried: q_ult ≥ 600\.0 kPa/);
   });
 
   it('an asymptote far beyond a small test is no result (q_ult/q_max above 2), and an extrapolated one is never chosen automatically', () => {

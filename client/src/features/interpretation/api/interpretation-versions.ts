@@ -1,4 +1,4 @@
-import type { UltimateMethod } from '@shared/interpretation/ultimate';
+import type { UltimateChoice } from '@shared/interpretation/ultimate-standing';
 import type { ListResponse } from '@shared/schemas/common';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
@@ -11,7 +11,7 @@ export interface InterpretationVersion {
   runId: number;
   version: number;
   options: InterpretationSettings;
-  chosenMethod: UltimateMethod | null;
+  chosenMethod: UltimateChoice | null;
   reason: string;
   createdBy: number | null;
   createdByName: string | null;
@@ -22,7 +22,7 @@ export interface InterpretationVersion {
 
 export interface SaveInterpretationInput {
   options: InterpretationSettings;
-  chosenMethod: UltimateMethod;
+  chosenMethod: UltimateChoice;
   reason: string;
 }
 

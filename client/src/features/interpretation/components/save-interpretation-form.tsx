@@ -1,4 +1,4 @@
-import type { UltimateMethod } from '@shared/interpretation/ultimate';
+import type { UltimateChoice } from '@shared/interpretation/ultimate-standing';
 import { type FormEvent, useState } from 'react';
 import { Button } from '../../../components/button';
 import { FormError, FormNotice } from '../../../components/form-alert';
@@ -21,7 +21,7 @@ export function SaveInterpretationForm({ runId, settings }: { runId: number; set
     const found = { method: method ? undefined : 'Choose the method you rely on.', reason: reason.trim() ? undefined : 'Say why you chose it.' };
     setProblems(found);
     if (found.method || found.reason) return;
-    save.mutate({ options: settings, chosenMethod: method as UltimateMethod, reason: reason.trim() }, { onSuccess: () => setReason('') });
+    save.mutate({ options: settings, chosenMethod: method as UltimateChoice, reason: reason.trim() }, { onSuccess: () => setReason('') });
   };
 
   return (
