@@ -84,6 +84,7 @@ export function subscribeRunStream(socket: AppSocket, runId: number, handlers: R
       return sequencer.head;
     },
     close(): void {
+      joins++; // an answer still on its way is no longer ours
       clearInterval(timer);
       listen('off');
       if (socket.connected) socket.emit('run:leave', { runId }, () => {});
