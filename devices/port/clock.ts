@@ -1,16 +1,28 @@
 /** Time source of the device layer; tests inject a manual one. */
 export interface Clock {
-  /** Monotonic milliseconds; never goes back, even when the wall clock is set. */
+  /** Monotonic milliseconds (any origin): intervals, timeouts and sample times. Never moves with the wall clock. */
   now(): number;
   /** Calls `fn` once after `ms` milliseconds; returns a function that cancels it. */
   after(ms: number, fn: () => void): () => void;
 }
 
-/** performance.now() on the epoch scale: monotonic, and close to Date.now() when the process started. */
-export const systemClock: Clock = {
-  now: () => performance.timeOrigin + performance.now(),
+/** A clock that can also tell wall time (ms since the epoch), for stamps a person reads. */
+export interface WallClock extends Clock {
+  wall(): number;
+}
+
+/**
+ * The process's clocks: performance.now() (CLOCK_MONOTONIC: unmoved by setting the wall clock, paused
+ * while the machine sleeps) and Date.now(). They are never compared with each other except in {@link wallAt}.
+ */
+export const systemClock: WallClock = {
+  now: () => performance.now(),
+  wall: () => Date.now(),
   after(ms, fn) {
     const handle = setTimeout(fn, ms);
     return () => clearTimeout(handle);
   },
 };
+
+/** Wall time of a monotonic instant: the one place monotonic times become wall times. */
+export const wallAt = (clock: WallClock, monoMs: number): number => clock.wall() - (clock.now() - monoMs);

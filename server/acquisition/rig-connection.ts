@@ -5,6 +5,7 @@
  */
 import path from 'node:path';
 import createDebug from 'debug';
+import { type WallClock, systemClock, wallAt } from '../../devices/port/clock';
 import { createDeviceReader } from '../../devices/readers/create-reader';
 import type { DeviceReader } from '../../devices/readers/device-reader';
 import type { DeviceStats } from '../../devices/readers/sample-channel';
@@ -22,7 +23,9 @@ export interface ChannelReading {
   channelIndex: number;
   key: string;
   role: RigChannelInput['role'];
-  /** Wall-clock time of the sample, ms since the epoch (monotonic within the process). */
+  /** When the sample was taken on the connection's monotonic clock, ms (for intervals: signal-lost, run time). */
+  monoMs: number;
+  /** Wall-clock time of the sample, ms since the epoch (for showing; converted from `monoMs`). */
   wallMs: number;
   /** The device's reading in its profile unit (mm for gauges); null when none was trusted. */
   raw: number | null;
@@ -54,9 +57,11 @@ export const resolvePort = (port: string) => (path.isAbsolute(port) ? port : pat
 
 export interface RigConnectionOptions {
   channels: RigChannelInput[];
-  /** Calibration in force per instrument id (absent: the device's value is taken as it is). */
-  calibrations: Map<number, Calibration>;
+  /** Calibration in force per instrument id (absent: the device's value is taken as it is); read at every sample, so a calibration applied mid-run takes effect at once. */
+  calibrations: ReadonlyMap<number, Calibration>;
   onReading: (reading: ChannelReading) => void;
+  /** Time source of the readers and of the readings' stamps. Default: the system clock. */
+  clock?: WallClock;
 }
 
 export class RigConnection {
@@ -68,13 +73,17 @@ export class RigConnection {
     this.options.channels.forEach((channel, channelIndex) => {
       const profile = findDeviceProfile(channel.profileId);
       if (!profile || !channel.port) return; // manual channel
-      const calibration = channel.instrumentId != null ? this.options.calibrations.get(channel.instrumentId) : undefined;
+      const clock = this.options.clock ?? systemClock;
       const port = resolvePort(channel.port);
       const reader = createDeviceReader(profile, {
         deviceId: channel.key,
         channel: channel.key,
         path: port,
-        onSample: (s) => this.options.onReading(toReading(s, channelIndex, channel, calibration)),
+        clock,
+        onSample: (s) => {
+          const calibration = channel.instrumentId != null ? this.options.calibrations.get(channel.instrumentId) : undefined;
+          this.options.onReading(toReading(s, channelIndex, channel, calibration, wallAt(clock, s.t)));
+        },
       });
       this.readers.push({ key: channel.key, port, reader });
       debug('reading %s on %s (%s)', channel.key, port, profile.id);
@@ -92,7 +101,7 @@ export class RigConnection {
   }
 }
 
-function toReading(s: DeviceSample, channelIndex: number, channel: RigChannelInput, calibration: Calibration | undefined): ChannelReading {
+function toReading(s: DeviceSample, channelIndex: number, channel: RigChannelInput, calibration: Calibration | undefined, wallMs: number): ChannelReading {
   const raw = s.status === 'ok' && s.value !== undefined ? s.value : null;
   let value: number | null = null;
   if (raw !== null) {
@@ -102,5 +111,5 @@ function toReading(s: DeviceSample, channelIndex: number, channel: RigChannelInp
       value = null; // outside what the calibration can say: never a guessed number
     }
   }
-  return { channelIndex, key: channel.key, role: channel.role, wallMs: s.t, raw, value: value !== null && Number.isFinite(value) ? value : null, status: raw !== null && value === null ? 'rejected' : s.status, deviceSeq: s.seq };
+  return { channelIndex, key: channel.key, role: channel.role, monoMs: s.t, wallMs, raw, value: value !== null && Number.isFinite(value) ? value : null, status: raw !== null && value === null ? 'rejected' : s.status, deviceSeq: s.seq };
 }

@@ -1,6 +1,7 @@
 import { type CreationOptional, DataTypes, type InferAttributes, type InferCreationAttributes, Model, type Sequelize } from 'sequelize';
 import type { AlarmRecord } from '../../shared/hold/alarm-lifecycle';
 import type { RunState } from '../../shared/runs/lifecycle';
+import type { RunSetupSnapshot } from '../../shared/runs/measurement-model';
 import type { RunPhase, StagePointLive } from '../../shared/schemas/runs';
 import { jsonColumn } from './json';
 
@@ -15,6 +16,8 @@ export interface PersistedRun {
   lastSampleMs: number | null;
   /** End-of-hold points of the stages done so far (the load–settlement curve). */
   stagePoints?: StagePointLive[];
+  /** What the run measures with, taken when it was created (absent on runs created before snapshots were kept). */
+  setup?: RunSetupSnapshot;
 }
 
 export class Run extends Model<InferAttributes<Run>, InferCreationAttributes<Run>> {

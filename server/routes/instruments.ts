@@ -1,6 +1,7 @@
 import path from 'node:path';
 import { idParams } from '../../shared/schemas/common';
 import { calibrationRecordInput, instrumentInput } from '../../shared/schemas/instruments';
+import { calibrationRecorded } from '../acquisition/calibration-events';
 import { EDITORS, STAFF } from '../auth/permissions';
 import { notFound } from '../http/errors';
 import { route } from '../http/route';
@@ -91,6 +92,7 @@ export const instrumentRoutes = (dataDir: string) => {
           (transaction) => CalibrationRecord.create({ ...body, instrumentId: params.id, createdBy: user!.id }, { transaction }),
           (c) => ({ userId: user!.id, entity: 'calibration', entityId: c.id, action: 'created', after: c.toDto() }),
         );
+        calibrationRecorded(params.id); // a run using the instrument applies it from now on
         return created.toDto();
       },
     }),

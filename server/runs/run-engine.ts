@@ -4,6 +4,8 @@
  * authority over its run's state; everything it decides is persisted and pushed to watchers.
  */
 import createDebug from 'debug';
+import { type WallClock, systemClock } from '../../devices/port/clock';
+import type { Calibration } from '../../shared/calibration/schema';
 import { jackGaugeFor } from '../../shared/calibration/jack';
 import { convertPressure, isPressureUnit } from '../../shared/calibration/units';
 import { plateAreaM2, plateForceKn } from '../../shared/domain/plate';
@@ -17,16 +19,18 @@ import type { HoldEvaluation } from '../../shared/hold/verdict';
 import type { PlannedStage } from '../../shared/plans/stages';
 import { reconcileAlarms } from '../../shared/runs/alarm-board';
 import { type Actor, type RunEventDraft, type RunState, applyCommand, applyObservation, needsCurrentVersion } from '../../shared/runs/lifecycle';
-import { type MeasurementSetup, type Measurements, jackGaugePressure, measure } from '../../shared/runs/measurements';
-import { SAMPLE_STATUS, type SampleRow, fromMicro, toMicro } from '../../shared/runs/samples';
+import { HoldSeriesTracker } from '../../shared/runs/hold-series';
+import { type CalibrationVersion, MODEL_EVENT_KINDS, type ModelEvent, type ModelSample, RunMeasurer, type RunSetupSnapshot, jackBranchOf } from '../../shared/runs/measurement-model';
+import { type Measurements, jackGaugePressure } from '../../shared/runs/measurements';
+import { SAMPLE_STATUS, type SampleRow, toMicro } from '../../shared/runs/samples';
 import type { PlanInput } from '../../shared/schemas/plans';
 import { ACTIVE_PHASES, type RunCommand, type RunView } from '../../shared/schemas/runs';
-import { type ChannelReading, RigConnection, channelUnit } from '../acquisition/rig-connection';
-import type { RigContext } from '../acquisition/rig-context';
+import { type ChannelReading, RigConnection, type RigConnectionOptions, channelUnit } from '../acquisition/rig-connection';
+import { type RigContext, snapshotCalibrations } from '../acquisition/rig-context';
 import type { PersistedRun } from '../models/run';
 import type { Archiver } from './archiver';
 import type { Journal } from './journal';
-import { runTime } from './run-clock';
+import { RunClock } from './run-clock';
 import { SampleSecurer } from './sample-securer';
 
 const debug = createDebug('sscope:runs:engine');
@@ -41,6 +45,10 @@ export interface EngineIo {
   pushSamples(runId: number, rows: SampleRow[]): void;
   /** Sends an operator action to a simulated rig's control channel (demo rigs only). */
   simulator?: (action: 'pump' | 'top-up' | 'release' | 'gauge-reset', body: object) => void;
+  /** Time source (monotonic for intervals, wall for anchoring the run clock). Default: the system clock. */
+  clock?: WallClock;
+  /** Opens the rig's ports (tests pass a fake). Default: a RigConnection. */
+  connect?: (options: RigConnectionOptions) => { start(): void; stop(): Promise<void> };
 }
 
 export interface EngineSetup {
@@ -52,6 +60,14 @@ export interface EngineSetup {
   rig: RigContext;
   persisted: PersistedRun;
   overdueInstruments: string[];
+  /** What the run measures with: its snapshot, taken when it was created. */
+  snapshot: RunSetupSnapshot;
+  /**
+   * The run so far, when it is loaded again: every event (oldest first) and the samples of the current
+   * stage (or the last per channel of a closed run), in sequence order. The engine's measurements and
+   * hold series are rebuilt from them through the same model that keeps them live.
+   */
+  history?: { events: ModelEvent[]; samples: ModelSample[] };
 }
 
 export class CommandRefused extends Error {
@@ -66,17 +82,25 @@ export class CommandRefused extends Error {
 /** Samples go out (journal, archive, sockets) in batches this often: well inside QUALITY P1's 50 ms. */
 const FLUSH_MS = 25;
 const EVALUATE_MS = 500;
-/** Hold-series points are kept at most this often (run time), so a 24-hour hold stays small. */
-const SERIES_STEP_MS = 2000;
 /** The target counts as reached within max(2 %, 2 kPa) (common practice, as the load-drift rule). */
 const reached = (actual: number, target: number) => Math.abs(actual - target) <= Math.max(0.02 * target, 2);
 const NO_KIT: Kit = new Map();
 
 export class RunEngine {
   private persisted: PersistedRun;
-  private readonly connection: RigConnection | null;
-  private readonly latest = new Map<string, number | null>();
-  private readonly lastOkWallMs = new Map<string, number>();
+  private readonly connection: { start(): void; stop(): Promise<void> } | null;
+  /** The measurement model, fed every sample and every event of the run in order. */
+  private readonly measurer: RunMeasurer;
+  private readonly tracker: HoldSeriesTracker;
+  /** Events that change what a sample means, as sent to browsers with the view. */
+  private readonly modelEvents: ModelEvent[] = [];
+  /** Calibration in force per instrument: the snapshot's, then those applied mid-run (the readers read this map). */
+  private readonly calibrations: Map<number, Calibration>;
+  private readonly calibrationIds = new Map<number, number | null>();
+  private readonly clock: WallClock;
+  private readonly runClock: RunClock;
+  /** Monotonic time of each channel's last good sample (signal-lost compares it with monotonic now). */
+  private readonly lastOkMonoMs = new Map<string, number>();
   /** Channels whose port reported itself gone; cleared by their next good sample. */
   private readonly portLost = new Set<string>();
   /** What the instrument alarms remember between readings: last readings, gauge jumps, recorded resets. */
@@ -84,11 +108,8 @@ export class RunEngine {
   private pending: SampleRow[] = [];
   /** Journals new rows; keeps (bounded) what a refusing journal cannot take. */
   private readonly securer: SampleSecurer;
-  private series: { tMin: number; settlementMm: number }[] = [];
-  private lastSeriesMs = -Infinity;
   private hold: HoldEvaluation | null = null;
   private measurements: Measurements;
-  private readonly setupM: MeasurementSetup;
   private readonly timers: NodeJS.Timeout[] = [];
   private watchers = new Map<string, { id: number; name: string; role: string }>();
   /** Manual mode: when readings were typed in this hold, minutes since the target was reached. */
@@ -111,16 +132,63 @@ export class RunEngine {
     this.persisted = structuredClone(setup.persisted);
     this.securer = new SampleSecurer(io.journal);
     this.securedSeq = this.persisted.lastSeq;
-    const pressureChannel = setup.rig.rig.channels.find((c) => c.role === 'pressure');
-    this.setupM = {
-      channels: setup.rig.rig.channels,
-      plate: setup.plan.plate,
-      apparatusWeightKn: setup.plan.apparatusWeightKn,
-      jack: setup.rig.jack?.calibration ?? null,
-      pressureUnit: pressureChannel ? channelUnit(pressureChannel, pressureChannel.instrumentId != null ? setup.rig.calibrations.get(pressureChannel.instrumentId) : undefined) : null,
-    };
+    this.clock = io.clock ?? systemClock;
+    this.runClock = new RunClock(this.persisted.clock, this.clock);
+    this.calibrations = snapshotCalibrations(setup.snapshot);
+    for (const v of setup.snapshot.instruments) this.calibrationIds.set(v.instrumentId, v.calibrationId);
+    this.tracker = new HoldSeriesTracker(setup.rig.rig.mode === 'manual');
+    this.measurer = new RunMeasurer(setup.snapshot, setup.history?.events ?? [], (e, m) => this.onModelEvent(e, m));
+    for (const sample of setup.history?.samples ?? []) {
+      this.measurer.add(sample);
+      this.tracker.onSample(sample, this.measurer);
+    }
+    this.measurer.advance(null);
     this.measurements = this.measure();
-    this.connection = setup.rig.rig.mode === 'serial' ? new RigConnection({ channels: setup.rig.rig.channels, calibrations: setup.rig.calibrations, onReading: (r) => this.onReading(r) }) : null;
+    const connect = io.connect ?? ((o: RigConnectionOptions) => new RigConnection(o));
+    this.connection = setup.rig.rig.mode === 'serial' ? connect({ channels: this.channels, calibrations: this.calibrations, clock: this.clock, onReading: (r) => this.onReading(r) }) : null;
+  }
+
+  /** The run's channels as its snapshot has them (sample order). */
+  private get kit(): Kit {
+    return this.setup.rig.kit ?? NO_KIT;
+  }
+
+  /** Feeds the instrument alarms' memory; jumps are looked for under a held load only. */
+  private watchInstruments(r: ChannelReading, tMs: number): void {
+    const channel = this.channels[r.channelIndex];
+    if (!channel || r.value === null) return;
+    const held = this.state.phase === 'holding' || this.state.phase === 'hold-met';
+    this.watch = watchReading(this.watch, { key: r.key, role: r.role, tMs, raw: r.raw, value: r.value }, { resolutionMm: gaugeResolutionMm(channel, this.kit), held });
+  }
+
+  private get channels() {
+    return this.setup.snapshot.channels;
+  }
+
+  private onModelEvent(e: ModelEvent, m: RunMeasurer): void {
+    this.tracker.onEvent(e, m);
+    if (!MODEL_EVENT_KINDS.has(e.kind)) return;
+    this.modelEvents.push({ kind: e.kind, atMs: e.atMs, payload: e.payload });
+    if (e.kind === 'calibration-applied') {
+      const id = Number(e.payload.instrumentId);
+      const calibration = (e.payload.calibration ?? null) as Calibration | null;
+      if (calibration) this.calibrations.set(id, calibration);
+      else this.calibrations.delete(id);
+      this.calibrationIds.set(id, (e.payload.calibrationId ?? null) as number | null);
+    }
+  }
+
+  /**
+   * Stamps the run's new events with its last sequence number (the samples they come after, so every
+   * view applies them to exactly the same samples) and lets the measurement model take them.
+   */
+  private record(events: RunEventDraft[]): RunEventDraft[] {
+    const afterSeq = this.persisted.lastSeq;
+    return events.map((e) => {
+      const stamped = { ...e, payload: { ...e.payload, afterSeq } };
+      this.measurer.push(stamped);
+      return stamped;
+    });
   }
 
   get runId() {
@@ -136,9 +204,8 @@ export class RunEngine {
     return this.setup.rig.rig.id;
   }
 
-  /** Starts reading. `restoredSeries` rebuilds the current hold's settlement–time series after a restart. */
-  start(restoredSeries: { tMin: number; settlementMm: number }[] = []): void {
-    this.series = restoredSeries;
+  /** Starts reading. */
+  start(): void {
     this.connection?.start();
     this.timers.push(setInterval(() => this.flush(), FLUSH_MS), setInterval(() => this.evaluate(), EVALUATE_MS));
   }
@@ -157,40 +224,47 @@ export class RunEngine {
     await this.io.archiver.drain();
   }
 
-  nowMs(wallMs = Date.now()): number {
-    return runTime(this.persisted.clock, wallMs);
+  /** The current hold's settlement–time series (the hold rules judge it). */
+  get holdSeries(): readonly { tMin: number; settlementMm: number }[] {
+    return this.tracker.points;
+  }
+
+  /** Run time now, ms. */
+  nowMs(): number {
+    return this.runClock.at();
   }
 
   // ---------------------------------------------------------------- samples
 
   private onReading(r: ChannelReading): void {
     if (this.closed) return;
-    const tMs = Math.round(this.nowMs(r.wallMs));
+    const tMs = Math.round(this.runClock.at(r.monoMs));
     const seq = ++this.persisted.lastSeq;
-    this.pending.push({ seq, tMs, channel: r.channelIndex, raw: r.raw === null ? null : toMicro(r.raw), value: r.value === null ? null : toMicro(r.value), status: SAMPLE_STATUS[r.status] });
+    const row: SampleRow = { seq, tMs, channel: r.channelIndex, raw: r.raw === null ? null : toMicro(r.raw), value: r.value === null ? null : toMicro(r.value), status: SAMPLE_STATUS[r.status] };
+    this.pending.push(row);
+    // Measured as stored (micro-units), so the console and every later view start from the same numbers.
+    this.measurer.add(row);
     if (r.status === 'disconnected' && !this.portLost.has(r.key)) {
       this.portLost.add(r.key);
       this.alarmNow(); // a pulled cable is known at once (QUALITY R3): no need to wait for the silence
     }
     if (r.value === null) return;
     this.portLost.delete(r.key);
-    this.latest.set(r.key, r.value);
-    this.lastOkWallMs.set(r.key, r.wallMs);
+    this.lastOkMonoMs.set(r.key, r.monoMs);
     this.persisted.lastSampleMs = tMs;
     this.watchInstruments(r, tMs);
-    if (r.role === 'gauge') this.recordSettlement(tMs);
+    this.tracker.onSample(row, this.measurer);
   }
 
   /** Manual mode: typed readings become samples like any other (raw = value: there is no device). */
   private recordManual(command: Extract<RunCommand, { type: 'manual-reading' }>): void {
-    const wallMs = Date.now();
+    const monoMs = this.clock.now();
     const held = this.state.holdStartedAtMs;
-    if (held !== null) this.manualTimes.push(Math.max(0, (this.nowMs(wallMs) - held) / 60_000));
-    const channels = this.setup.rig.rig.channels;
-    for (const [index, c] of channels.entries()) {
+    if (held !== null) this.manualTimes.push(Math.max(0, (this.runClock.at(monoMs) - held) / 60_000));
+    for (const [index, c] of this.channels.entries()) {
       const typed = c.role === 'gauge' ? command.gauges[c.key] : c.role === 'pressure' && command.pressureKpa !== undefined ? this.oilForPlatePressure(command.pressureKpa) : undefined;
       if (typed === undefined || typed === null) continue;
-      this.onReading({ channelIndex: index, key: c.key, role: c.role, wallMs, raw: typed, value: typed, status: 'ok', deviceSeq: 0 });
+      this.onReading({ channelIndex: index, key: c.key, role: c.role, monoMs, wallMs: this.clock.wall(), raw: typed, value: typed, status: 'ok', deviceSeq: 0 });
     }
     this.measurements = this.measure();
     this.flush();
@@ -198,28 +272,11 @@ export class RunEngine {
 
   /** A typed plate pressure, stored as the oil pressure (in the pressure channel's unit) that gives it, so every pressure sample means the same. */
   private oilForPlatePressure(kpa: number): number | null {
-    const jack = this.setupM.jack;
+    const { jack, pressureUnit: unit, stageIndex } = this.measurer.modelState;
     if (!jack) return null;
-    const oil = jackGaugePressure(jack, this.jackBranch(this.state.stageIndex))(Math.max(0, plateForceKn(this.setupM.plate, kpa) - this.setupM.apparatusWeightKn));
-    const unit = this.setupM.pressureUnit;
+    const oil = jackGaugePressure(jack, jackBranchOf(this.setup.snapshot, stageIndex))(Math.max(0, plateForceKn(this.setup.snapshot.plate, kpa) - this.setup.snapshot.apparatusWeightKn));
     if (oil === null || !unit || unit === jack.inputUnit) return oil;
     return isPressureUnit(unit) && isPressureUnit(jack.inputUnit) ? convertPressure(oil, jack.inputUnit, unit) : null;
-  }
-
-  /**
-   * Adds a point to the hold's settlement–time series. Called on every gauge sample, so it measures
-   * only when a point is due (inside a hold, at most every SERIES_STEP_MS); the view's figures are
-   * refreshed by the evaluation tick.
-   */
-  private recordSettlement(tMs: number): void {
-    const s = this.state;
-    if (s.holdStartedAtMs === null || (s.phase !== 'holding' && s.phase !== 'hold-met')) return;
-    if (tMs - this.lastSeriesMs < SERIES_STEP_MS && this.setup.rig.rig.mode === 'serial') return;
-    this.measurements = this.measure();
-    const mean = this.measurements.meanSettlementMm;
-    if (mean === null) return;
-    this.lastSeriesMs = tMs;
-    this.series.push({ tMin: Math.max(0, (tMs - s.holdStartedAtMs) / 60_000), settlementMm: mean });
   }
 
   private flush(): void {
@@ -234,24 +291,7 @@ export class RunEngine {
   }
 
   private measure(): Measurements {
-    return measure(this.setupM, this.latest, this.state.zeros, this.state.resetOffsets, this.jackBranch(this.state.stageIndex));
-  }
-
-  /** Unloading stages read the jack on its falling branch. */
-  private jackBranch(stageIndex: number): 'rising' | 'falling' {
-    return this.setup.stages[stageIndex]?.branch === 'unloading' ? 'falling' : 'rising';
-  }
-
-  private get kit(): Kit {
-    return this.setup.rig.kit ?? NO_KIT;
-  }
-
-  /** Feeds the instrument alarms' memory; jumps are looked for under a held load only. */
-  private watchInstruments(r: ChannelReading, tMs: number): void {
-    const channel = this.setup.rig.rig.channels[r.channelIndex];
-    if (!channel || r.value === null) return;
-    const held = this.state.phase === 'holding' || this.state.phase === 'hold-met';
-    this.watch = watchReading(this.watch, { key: r.key, role: r.role, tMs, raw: r.raw, value: r.value }, { resolutionMm: gaugeResolutionMm(channel, this.kit), held });
+    return this.measurer.measure();
   }
 
   // ---------------------------------------------------------------- decisions
@@ -268,30 +308,25 @@ export class RunEngine {
       const r = applyObservation(this.state, o, now);
       if (r) {
         this.persisted.lifecycle = r.state;
-        events.push(...r.events);
+        events.push(...this.record(r.events));
       }
     };
 
     if (s.phase === 'pumping' && stage && q !== null && this.setup.rig.rig.mode === 'serial') {
       // The hold starts the first time the pressure arrives; drifting off afterwards is the load-drift
       // alarm's business (top up), not a reason to keep the hold clock waiting.
-      if (reached(q, this.effectiveTarget(stage.targetKpa))) {
-        observe({ type: 'target-reached' });
-        this.series = [];
-        this.lastSeriesMs = -Infinity;
-        this.recordSettlement(now);
-      }
+      if (reached(q, this.effectiveTarget(stage.targetKpa))) observe({ type: 'target-reached' }); // the model's hold series starts at it
     }
     this.hold = null;
     if ((this.state.phase === 'holding' || this.state.phase === 'hold-met') && this.state.holdStartedAtMs !== null && stage) {
       const rule = stage.branch === 'seating' ? ({ kind: 'fixed', durationMin: 0.5 } as const) : this.setup.plan.holdRule;
       try {
-        this.hold = evaluateHold(rule, this.series, {
+        this.hold = evaluateHold(rule, this.tracker.points, {
           nowMin: Math.max(0, (now - this.state.holdStartedAtMs) / 60_000),
           stopLimitMm: this.stopLimit(),
           maxHoldMin: this.setup.plan.termination.maxHoldMin,
           procedureId: this.setup.plan.procedureId,
-          resolutionMm: rigResolutionMm(this.setup.rig.rig.channels, this.kit),
+          resolutionMm: rigResolutionMm(this.channels, this.kit),
         });
         if (this.hold.verdict === 'satisfied') observe({ type: 'hold-met' });
       } catch (err) {
@@ -308,8 +343,9 @@ export class RunEngine {
    * (the transducer or gauge on the jack), converted from the jack calibration's input unit.
    */
   private prompt(stage: PlannedStage) {
+    const { jack, pressureUnit } = this.measurer.modelState;
     // Never beyond the jack calibration's range: the prompt then says why instead of giving a pressure.
-    const gauge = jackGaugeFor(this.setup.rig.jack?.calibration ?? null, { branch: this.jackBranch(stage.index), unit: this.setupM.pressureUnit, ratedPressureMpa: this.setup.rig.jack?.ratedPressureMpa });
+    const gauge = jackGaugeFor(jack, { branch: jackBranchOf(this.setup.snapshot, stage.index), unit: pressureUnit, ratedPressureMpa: this.setup.rig.jack?.ratedPressureMpa });
     return nextStepPrompt({ stage, plate: this.setup.plan.plate, apparatusWeightKn: this.setup.plan.apparatusWeightKn, gaugePressureFor: gauge.pressureFor, gaugeUnit: gauge.unit });
   }
 
@@ -322,23 +358,24 @@ export class RunEngine {
     return stopLimitMm(this.setup.plan.termination, this.setup.plan.plate.sizeMm);
   }
 
-  private currentAlarms(nowWall: number): Alarm[] {
+  /** The alarm rules now; `nowMono`: the clock's monotonic now (signal-lost measures silence on it). */
+  private currentAlarms(nowMono: number): Alarm[] {
     const m = this.measurements;
     const s = this.state;
     const stage = this.setup.stages[s.stageIndex];
     const alarms: Alarm[] = [];
     const during = s.phase === 'holding' || s.phase === 'hold-met';
     if (during && stage && m.pressureKpa !== null) alarms.push(loadDriftAlarm({ targetKpa: this.effectiveTarget(stage.targetKpa), actualKpa: m.pressureKpa }));
-    const placed = this.setup.rig.rig.channels.flatMap((c) => {
+    const placed = this.channels.flatMap((c) => {
       const g = m.gauges.find((x) => x.key === c.key);
       return c.gauge && g?.settlementMm != null ? [{ xMm: c.gauge.xMm, yMm: c.gauge.yMm, settlementMm: g.settlementMm }] : [];
     });
     if (placed.length >= 2) alarms.push(tiltAlarm({ gauges: placed }));
-    for (const c of this.setup.rig.rig.channels) {
-      const reading = this.latest.get(c.key);
+    for (const c of this.channels) {
+      const reading = this.measurer.latestOf(c.key);
       if (c.gauge && reading != null) alarms.push({ ...gaugeTravelAlarm({ gauge: c.key, readingMm: reading, travelMm: gaugeTravelMm(c, this.kit) ?? c.gauge.travelMm, sign: c.gauge.direction }) });
       if (this.setup.rig.rig.mode === 'serial' && s.phase !== 'preparing') {
-        alarms.push(signalLostAlarm({ channel: c.key, lastSampleAtMs: this.lastOkWallMs.get(c.key) ?? null, nowMs: nowWall, portLost: this.portLost.has(c.key) }));
+        alarms.push(signalLostAlarm({ channel: c.key, lastSampleAtMs: this.lastOkMonoMs.get(c.key) ?? null, nowMs: nowMono, portLost: this.portLost.has(c.key) }));
       }
     }
     if (m.meanSettlementMm !== null && s.phase !== 'preparing') alarms.push(stopLimitAlarm({ meanSettlementMm: m.meanSettlementMm, stopLimitMm: this.stopLimit() }));
@@ -353,14 +390,14 @@ export class RunEngine {
     const m = this.measurements;
     const jackId = this.setup.rig.rig.jackInstrumentId;
     return instrumentAlarms({
-      channels: this.setup.rig.rig.channels,
+      channels: this.channels,
       kit: this.kit,
-      calibrations: this.setup.rig.calibrations,
-      jack: jackId == null ? null : { instrumentId: jackId, calibration: this.setup.rig.jack?.calibration ?? null },
+      calibrations: this.calibrations,
+      jack: jackId == null ? null : { instrumentId: jackId, calibration: this.measurer.modelState.jack },
       oil: m.oilPressure === null ? null : { value: m.oilPressure, unit: m.oilUnit },
       watch: this.watch,
       sinceMs: this.state.stageStartedAtMs,
-      nowWallMs: Date.now(),
+      nowWallMs: this.clock.wall(),
     });
   }
 
@@ -374,9 +411,9 @@ export class RunEngine {
   }
 
   private updateAlarms(now: number, events: RunEventDraft[]): void {
-    const { records, changes } = reconcileAlarms(this.persisted.alarms, this.currentAlarms(Date.now()), now);
+    const { records, changes } = reconcileAlarms(this.persisted.alarms, this.currentAlarms(this.clock.now()), now);
     this.persisted.alarms = records;
-    for (const c of changes) events.push({ kind: `alarm-${c.action}`, atMs: now, userId: null, payload: { key: c.key, message: c.message } });
+    events.push(...this.record(changes.map((c) => ({ kind: `alarm-${c.action}`, atMs: now, userId: null, payload: { key: c.key, message: c.message } }))));
   }
 
   // ---------------------------------------------------------------- commands
@@ -386,34 +423,46 @@ export class RunEngine {
     if (version !== this.state.version && needsCurrentVersion(command)) throw new CommandRefused('conflict', `The run changed (now version ${this.state.version}); look again and retry.`);
     const now = this.nowMs();
     if (command.type === 'acknowledge-alarm' || command.type === 'shelve-alarm') this.alarmCommand(command, actor, now);
-    const gaugeReadings = Object.fromEntries(this.setup.rig.rig.channels.filter((c) => c.role === 'gauge' && this.latest.get(c.key) != null).map((c) => [c.key, this.latest.get(c.key)!]));
-    const gaugeSigns = Object.fromEntries(this.setup.rig.rig.channels.flatMap((c) => (c.gauge ? [[c.key, c.gauge.direction]] : [])));
+    const gaugeReadings = Object.fromEntries(this.channels.flatMap((c) => (c.role === 'gauge' && this.measurer.latestOf(c.key) != null ? [[c.key, this.measurer.latestOf(c.key) as number]] : [])));
+    const gaugeSigns = Object.fromEntries(this.channels.flatMap((c) => (c.gauge ? [[c.key, c.gauge.direction]] : [])));
     const r = applyCommand(this.state, command, { nowMs: now, actor, stages: this.setup.stages, gaugeReadings, overdueInstruments: this.setup.overdueInstruments, gaugeSigns });
     if (!r.ok) throw new CommandRefused(r.code, r.message);
     if (command.type === 'gauge-reset') this.watch = watchReset(this.watch, command.channel, now);
     const before = this.state;
-    this.persisted.lifecycle = r.state;
-    if (command.type === 'manual-reading') this.recordManual(command);
+    // A finished hold's point on the curve is measured as the hold ended, before the command's events apply.
     if ((before.phase === 'holding' || before.phase === 'hold-met') && (r.state.stageIndex !== before.stageIndex || !ACTIVE_PHASES.includes(r.state.phase))) {
       this.recordStagePoint(before.stageIndex, now);
     }
-    if (r.state.stageIndex !== before.stageIndex || (before.phase === 'preparing' && r.state.phase === 'pumping')) {
-      this.series = [];
-      this.manualTimes = [];
-    }
-    if (command.type === 'stage-reached') this.recordSettlement(now);
+    this.persisted.lifecycle = r.state;
+    const events = this.record(r.events);
+    if (command.type === 'manual-reading') this.recordManual(command);
+    if (r.state.stageIndex !== before.stageIndex || (before.phase === 'preparing' && r.state.phase === 'pumping')) this.manualTimes = [];
+    this.measurements = this.measure();
     this.drive(command, r.state);
-    await this.queueSave(r.events);
+    await this.queueSave(events);
     if (!this.isActive) void this.closeAfterCommand();
     const view = this.view();
     this.io.pushView(this.runId, view);
     return view;
   }
 
+  /**
+   * A calibration recorded while the run goes on, for one of its instruments: it applies from now (the
+   * run records which certificate, so every view applies it from the same sample on).
+   */
+  async applyCalibration(version: CalibrationVersion): Promise<void> {
+    if (this.closed || !this.isActive || !this.calibrationIds.has(version.instrumentId)) return;
+    if (this.calibrationIds.get(version.instrumentId) === version.calibrationId) return;
+    const events = this.record([{ kind: 'calibration-applied', atMs: this.nowMs(), userId: null, payload: { ...version } }]);
+    this.measurements = this.measure();
+    await this.queueSave(events);
+    this.io.pushView(this.runId, this.view());
+  }
+
   /** The point a finished stage leaves on the load–settlement curve (its end of hold). */
   private recordStagePoint(stageIndex: number, atMs: number): void {
     const stage = this.setup.stages[stageIndex];
-    const m = this.measurements;
+    const m = this.measure();
     if (!stage || m.pressureKpa === null || m.meanSettlementMm === null) return;
     this.persisted.stagePoints = [...(this.persisted.stagePoints ?? []), { stageIndex, branch: stage.branch, targetKpa: stage.targetKpa, pressureKpa: m.pressureKpa, settlementMm: m.meanSettlementMm, atMs }];
   }
@@ -453,7 +502,7 @@ export class RunEngine {
     const events = this.unsaved;
     this.unsaved = [];
     try {
-      await this.io.save(this.runId, { ...structuredClone(this.persisted), lastSeq: this.securedSeq }, events);
+      await this.io.save(this.runId, { ...structuredClone(this.persisted), lastSeq: this.securedSeq, clock: this.runClock.persisted() }, events);
     } catch (err) {
       this.unsaved = events.concat(this.unsaved);
       debug('save failed (%s); %d events wait for the database', (err as Error).message, this.unsaved.length);
@@ -477,15 +526,6 @@ export class RunEngine {
 
   // ---------------------------------------------------------------- views
 
-  /** A closed run shown again: its last recorded value per channel (calibrated, micro-units) stands in for live readings. */
-  primeLatest(lastByChannel: ReadonlyMap<number, number>): void {
-    this.setup.rig.rig.channels.forEach((c, i) => {
-      const v = lastByChannel.get(i);
-      if (v !== undefined) this.latest.set(c.key, fromMicro(v));
-    });
-    this.measurements = this.measure();
-  }
-
   setWatchers(watchers: { id: number; name: string; role: string }[]): void {
     this.watchers = new Map(watchers.map((w) => [String(w.id), w]));
   }
@@ -506,11 +546,11 @@ export class RunEngine {
       rigId: this.setup.rig.rig.id,
       rigName: this.setup.rig.rig.name,
       manual: this.setup.rig.rig.mode === 'manual',
-      channels: this.setup.rig.rig.channels.map((c) => ({
+      channels: this.channels.map((c) => ({
         key: c.key,
         label: c.label,
         role: c.role,
-        unit: channelUnit(c, c.instrumentId != null ? this.setup.rig.calibrations.get(c.instrumentId) : undefined),
+        unit: channelUnit(c, c.instrumentId != null ? this.calibrations.get(c.instrumentId) : undefined),
         direction: c.gauge?.direction ?? null,
       })),
       plate: { shape: this.setup.plan.plate.shape, sizeMm: this.setup.plan.plate.sizeMm },
@@ -524,7 +564,7 @@ export class RunEngine {
       calibrationOverride: s.calibrationOverride,
       overdueInstruments: this.setup.overdueInstruments,
       closedReason: s.closedReason,
-      clock: { nowMs: now, speed: this.persisted.clock.speed },
+      clock: { nowMs: now, speed: this.runClock.speed },
       stageStartedAtMs: s.stageStartedAtMs,
       holdStartedAtMs: s.holdStartedAtMs,
       holdMetAtMs: s.holdMetAtMs,
@@ -540,7 +580,7 @@ export class RunEngine {
         tiltSlope: m.tilt ? Math.tan(m.tilt.tilt.radians) : null,
         spreadMm: m.tilt?.spreadMm ?? null,
         gauges: m.gauges.map((g) => {
-          const c = this.setup.rig.rig.channels.find((x) => x.key === g.key);
+          const c = this.channels.find((x) => x.key === g.key);
           return { ...g, label: c?.label ?? g.key, travelMm: c ? gaugeTravelMm(c, this.kit) : null };
         }),
       },
@@ -553,6 +593,7 @@ export class RunEngine {
       watchers: [...this.watchers.values()],
       lastSeq: this.securedSeq,
       stagePoints: this.persisted.stagePoints ?? [],
+      measurement: { setup: this.setup.snapshot, events: this.modelEvents },
     };
   }
 }

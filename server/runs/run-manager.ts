@@ -6,12 +6,13 @@
 import path from 'node:path';
 import createDebug from 'debug';
 import { QueryTypes, type Sequelize } from 'sequelize';
-import { gaugeSettlement } from '../../shared/hold/gauge-reset';
 import { buildStageSequence } from '../../shared/plans/stages';
 import { type Actor, type RunEventDraft, initialRunState } from '../../shared/runs/lifecycle';
-import { type SampleRow, fromMicro } from '../../shared/runs/samples';
+import type { ModelEvent, ModelSample } from '../../shared/runs/measurement-model';
+import type { SampleRow } from '../../shared/runs/samples';
 import { ACTIVE_PHASES, type RunView } from '../../shared/schemas/runs';
-import { type RigContext, loadRigContext } from '../acquisition/rig-context';
+import { onCalibrationRecorded } from '../acquisition/calibration-events';
+import { type RigContext, calibrationVersion, loadRigContext, setupSnapshot } from '../acquisition/rig-context';
 import { transaction } from '../db/transaction';
 import { badRequest, conflict, notFound } from '../http/errors';
 import { type PersistedRun, Run } from '../models/run';
@@ -42,9 +43,23 @@ export class RunManager {
   private readonly engines = new Map<number, RunEngine>();
   readonly archiver: Archiver;
   private readonly journals = new Map<number, Journal>();
+  private readonly stopListening: () => void;
 
   constructor(private readonly o: RunManagerOptions) {
     this.archiver = new Archiver(o.sequelize, { onArchived: (runId, seq) => this.journals.get(runId)?.markArchived(seq) });
+    this.stopListening = onCalibrationRecorded((id) => void this.calibrationRecorded(id));
+  }
+
+  /** A new calibration of an instrument: every active run using it applies it from now. */
+  private async calibrationRecorded(instrumentId: number): Promise<void> {
+    for (const engine of this.engines.values()) {
+      if (!engine.isActive) continue;
+      try {
+        await engine.applyCalibration(calibrationVersion(await loadRigContext(engine.rigId), instrumentId));
+      } catch (err) {
+        debug('calibration of instrument %d for run %d: %s', instrumentId, engine.runId, (err as Error).message);
+      }
+    }
   }
 
   engine(runId: number): RunEngine | undefined {
@@ -62,13 +77,12 @@ export class RunManager {
     if (!run || run.rigId == null || ACTIVE_PHASES.includes(run.status)) return undefined;
     const plan = await TestPlan.findByPk(run.planId);
     if (!plan) return undefined;
-    const engine = this.launch(run, plan, await loadRigContext(run.rigId), run.state);
+    // Its last recorded value per channel stands in for live readings, measured as at the end of the run.
     const last = (await this.o.sequelize.query(
-      'SELECT s.channel AS ch, s.value AS v FROM samples s JOIN (SELECT channel, MAX(seq) AS seq FROM samples WHERE run_id = ? AND value IS NOT NULL GROUP BY channel) m ON m.seq = s.seq WHERE s.run_id = ?',
+      'SELECT s.seq, s.t_ms AS tMs, s.channel, s.value FROM samples s JOIN (SELECT channel, MAX(seq) AS seq FROM samples WHERE run_id = ? AND value IS NOT NULL GROUP BY channel) m ON m.seq = s.seq WHERE s.run_id = ? ORDER BY s.seq',
       { replacements: [runId, runId], type: QueryTypes.SELECT },
-    )) as { ch: number; v: number }[];
-    engine.primeLatest(new Map(last.map((r) => [Number(r.ch), Number(r.v)])));
-    return engine;
+    )) as ModelSample[];
+    return this.launch(run, plan, await loadRigContext(run.rigId, run.createdAt), run.state, { events: await this.events(runId), samples: last.map(modelSample) });
   }
 
   /** Why a rig's ports are taken, or null. */
@@ -88,7 +102,9 @@ export class RunManager {
     }
     const busy = this.rigBusy(rigId);
     if (busy) throw conflict(`rigId: ${busy}`, 'rigId');
-    const persisted: PersistedRun = { lifecycle: initialRunState(), clock: newRunClock(rig.rig.simulator?.speed ?? 1), alarms: {}, lastSeq: 0, lastSampleMs: null };
+    const input = plan.toInput();
+    const setup = setupSnapshot(input, buildStageSequence(input), rig);
+    const persisted: PersistedRun = { lifecycle: initialRunState(), clock: newRunClock(rig.rig.simulator?.speed ?? 1), alarms: {}, lastSeq: 0, lastSampleMs: null, setup };
     const run = await transaction(async (t) => {
       const created = await Run.create({ planId, rigId, status: 'preparing', state: persisted, startedAt: null, finishedAt: null, createdBy: actor.id }, { transaction: t });
       await RunEvent.create({ runId: created.id, at: new Date(persisted.clock.anchorRunMs), kind: 'run-created', userId: actor.id, payload: { planId, rigId, rig: rig.rig.name } }, { transaction: t });
@@ -115,7 +131,7 @@ export class RunManager {
   private async resume(run: Run): Promise<void> {
     const plan = await TestPlan.findByPk(run.planId);
     if (!plan || run.rigId == null) return;
-    const rig = await loadRigContext(run.rigId);
+    const rig = await loadRigContext(run.rigId, run.state.setup ? undefined : run.createdAt);
     const persisted = run.state;
     const journal = this.journal(run.id);
     const backlog = journal.unarchived();
@@ -126,14 +142,17 @@ export class RunManager {
     }
     const dbMax = await this.maxSeq(run.id);
     persisted.lastSeq = Math.max(persisted.lastSeq, dbMax);
-    const engine = this.launch(run, plan, rig, persisted);
     const now = runTime(persisted.clock, Date.now());
     await this.saveEvents(run.id, [{ kind: 'outage', atMs: now, userId: null, payload: { fromMs: persisted.lastSampleMs, toMs: now, note: 'server restarted; no samples in this gap' } }]);
-    engine.start(await this.holdSeries(run.id, persisted, rig));
+    const engine = this.launch(run, plan, rig, persisted, { events: await this.events(run.id), samples: await this.stageSamples(run.id, persisted) });
+    engine.start();
   }
 
-  private launch(run: Run, plan: TestPlan, rig: RigContext, persisted: PersistedRun): RunEngine {
+  private launch(run: Run, plan: TestPlan, rig: RigContext, persisted: PersistedRun, history?: { events: ModelEvent[]; samples: ModelSample[] }): RunEngine {
     const input = plan.toInput();
+    const stages = buildStageSequence(input);
+    // A run created before snapshots were kept gets one from its rig (calibrations recorded by its creation).
+    persisted.setup ??= setupSnapshot(input, stages, rig);
     const sim = rig.rig.simulator;
     const io: EngineIo = {
       archiver: this.archiver,
@@ -143,7 +162,7 @@ export class RunManager {
       pushSamples: this.o.pushSamples,
       simulator: sim ? (action, body) => void tellSimulator(sim.controlUrl, action, body) : undefined,
     };
-    const engine = new RunEngine({ runId: run.id, planId: plan.id, planName: plan.name, plan: input, stages: buildStageSequence(input), rig, persisted, overdueInstruments: overdue(rig) }, io);
+    const engine = new RunEngine({ runId: run.id, planId: plan.id, planName: plan.name, plan: input, stages, rig, persisted, overdueInstruments: overdue(rig), snapshot: persisted.setup, history }, io);
     this.engines.set(run.id, engine);
     return engine;
   }
@@ -195,28 +214,30 @@ export class RunManager {
     return Number(row.m);
   }
 
-  /** The current hold's mean settlement series, rebuilt from the archive (used after a restart). */
-  private async holdSeries(runId: number, persisted: PersistedRun, rig: RigContext): Promise<{ tMin: number; settlementMm: number }[]> {
-    const s = persisted.lifecycle;
-    if (s.holdStartedAtMs === null) return [];
+  /** Every event of a run, oldest first, as the measurement model reads them. */
+  private async events(runId: number): Promise<ModelEvent[]> {
+    return (await RunEvent.findAll({ where: { runId }, order: [['id', 'ASC']] })).map((e) => ({ kind: e.kind, atMs: e.at.getTime(), payload: e.payload }));
+  }
+
+  /**
+   * The samples the engine rebuilds its measurements and the hold series from after a restart, through
+   * the same model that keeps them live: the last good one of each channel before the current stage
+   * (a gauge read seldom still counts) and every one since the stage began, in sequence order.
+   */
+  private async stageSamples(runId: number, persisted: PersistedRun): Promise<ModelSample[]> {
+    const from = persisted.lifecycle.stageStartedAtMs ?? persisted.lifecycle.holdStartedAtMs;
     await this.archiver.drain();
-    const gauges = rig.rig.channels.map((c, i) => ({ c, i })).filter(({ c }) => c.role === 'gauge' && c.gauge);
-    const rows = (await this.o.sequelize.query('SELECT t_ms AS t, channel AS ch, value AS v FROM samples WHERE run_id = ? AND t_ms >= ? AND value IS NOT NULL ORDER BY seq', {
-      replacements: [runId, s.holdStartedAtMs],
-      type: QueryTypes.SELECT,
-    })) as { t: number; ch: number; v: number }[];
-    const latest = new Map<number, number>();
-    const series: { tMin: number; settlementMm: number }[] = [];
-    let last = -Infinity;
-    for (const r of rows) {
-      const g = gauges.find((x) => x.i === r.ch);
-      if (!g) continue;
-      latest.set(r.ch, gaugeSettlement(fromMicro(r.v), s.zeros[g.c.key] ?? 0, g.c.gauge!.direction, [s.resetOffsets[g.c.key] ?? 0]));
-      if (latest.size < gauges.length || r.t - last < 2000) continue;
-      last = r.t;
-      series.push({ tMin: (r.t - s.holdStartedAtMs) / 60_000, settlementMm: [...latest.values()].reduce((a, b) => a + b, 0) / latest.size });
-    }
-    return series;
+    const since = from ?? Number.MAX_SAFE_INTEGER;
+    const rows = (await this.o.sequelize.query(
+      `SELECT s.seq, s.t_ms AS tMs, s.channel, s.value FROM samples s
+         JOIN (SELECT channel, MAX(seq) AS seq FROM samples WHERE run_id = :id AND t_ms < :since AND value IS NOT NULL GROUP BY channel) m ON m.seq = s.seq
+         WHERE s.run_id = :id
+       UNION ALL
+       SELECT seq, t_ms, channel, value FROM samples WHERE run_id = :id AND t_ms >= :since
+       ORDER BY seq`,
+      { replacements: { id: runId, since }, type: QueryTypes.SELECT },
+    )) as ModelSample[];
+    return rows.map(modelSample);
   }
 
   /**
@@ -232,6 +253,7 @@ export class RunManager {
   }
 
   async stopAll(): Promise<void> {
+    this.stopListening();
     await Promise.all([...this.engines.values()].map((e) => e.stop()));
     this.engines.clear();
     await this.archiver.drain();
@@ -240,6 +262,9 @@ export class RunManager {
 }
 
 export const runNotFound = () => notFound('Run');
+
+/** A sample row as the database driver returns it (BIGINT columns may come as strings). */
+const modelSample = (r: ModelSample): ModelSample => ({ seq: Number(r.seq), tMs: Number(r.tMs), channel: Number(r.channel), value: r.value === null ? null : Number(r.value) });
 
 /**
  * Sends an operator action to a simulated rig, retrying a few times: a pooled keep-alive connection

@@ -5,13 +5,11 @@
  */
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { buildStageSequence, type PlannedStage } from '../../shared/plans/stages';
-import { type MeasurementSetup, measure } from '../../shared/runs/measurements';
-import { fromMicro } from '../../shared/runs/samples';
+import { type ModelEvent, type ModelSample, RunMeasurer, type RunSetupSnapshot } from '../../shared/runs/measurement-model';
 import { type RECORD_EVENT_KINDS, RECORD_FORMAT, RECORD_LIMITS, RECORD_VERSION, type RecordStage, type TestRecord } from '../../shared/records/schema';
 import { formatIssue, parseTestRecord } from '../../shared/records/validate';
 import type { PlanInput } from '../../shared/schemas/plans';
-import { type RigContext, loadRigContext } from '../acquisition/rig-context';
-import { channelUnit } from '../acquisition/rig-connection';
+import { runSnapshot } from '../acquisition/rig-context';
 import { HttpError, notFound } from '../http/errors';
 import { correctedValues } from '../models/correction';
 import { RunRecord } from '../models/interpretation';
@@ -22,25 +20,17 @@ import { TestLocation } from '../models/test-location';
 import { TestPlan } from '../models/test-plan';
 
 /** A run event as the record builder needs it (run clock ms). */
-export interface TimedEvent {
-  atMs: number;
-  kind: string;
-  payload: Record<string, unknown>;
-}
+export type TimedEvent = ModelEvent;
 
-/** One archived sample: run clock ms, rig channel index, calibrated value in micro-units (null when none was trusted). */
-export interface TimedSample {
-  tMs: number;
-  channel: number;
-  value: number | null;
-}
+/** One archived sample: sequence number, run clock ms, rig channel index, calibrated value in micro-units (null when none was trusted). */
+export type TimedSample = ModelSample;
 
 /** What a run's record is built from besides its samples. */
 export interface RunRecordSource {
   plan: PlanInput;
   stages: readonly PlannedStage[];
-  /** The rig's channels, jack calibration and plate, as the run engine measures with them. */
-  setup: MeasurementSetup;
+  /** What the run measured with: the snapshot taken when it was created (never today's rig or calibrations). */
+  setup: RunSetupSnapshot;
   /** Every run event, oldest first. */
   events: readonly TimedEvent[];
   metadata?: TestRecord['metadata'];
@@ -58,18 +48,6 @@ export function readingStepMs(heldMs: number, longestStageMs: number): number {
   return Math.max(MIN_READING_STEP_MS, Math.ceil(Math.max(byTotal, byStage)));
 }
 
-/** The measurement setup of a run on a rig, as the run engine builds it. */
-export function measurementSetup(plan: PlanInput, rig: RigContext): MeasurementSetup {
-  const pressureChannel = rig.rig.channels.find((c) => c.role === 'pressure');
-  return {
-    channels: rig.rig.channels,
-    plate: plan.plate,
-    apparatusWeightKn: plan.apparatusWeightKn,
-    jack: rig.jack?.calibration ?? null,
-    pressureUnit: pressureChannel ? channelUnit(pressureChannel, pressureChannel.instrumentId != null ? rig.calibrations.get(pressureChannel.instrumentId) : undefined) : null,
-  };
-}
-
 interface StageWindow {
   stage: PlannedStage;
   fromMs: number;
@@ -78,15 +56,16 @@ interface StageWindow {
 
 const STAGE_ENDS = new Set(['stage-advanced', 'run-completed', 'run-stopped']);
 
-/** Each held stage from its 'target-reached' (t = 0) to the next 'stage-advanced', finish or stop (or open-ended). */
-export function stageWindows(stages: readonly PlannedStage[], events: readonly TimedEvent[]): StageWindow[] {
-  const windows: StageWindow[] = [];
+/** Each held stage from its 'target-reached' (t = 0) to the next 'stage-advanced', finish or stop (or open-ended); `end`: that event's index. */
+export function stageWindows(stages: readonly PlannedStage[], events: readonly TimedEvent[]): (StageWindow & { start: number; end: number })[] {
+  const windows: (StageWindow & { start: number; end: number })[] = [];
   for (const [i, e] of events.entries()) {
     if (e.kind !== 'target-reached') continue;
     const stage = stages[Number(e.payload.stageIndex)];
     if (!stage) continue;
-    const end = events.slice(i + 1).find((x) => STAGE_ENDS.has(x.kind));
-    windows.push({ stage, fromMs: e.atMs, toMs: end?.atMs ?? Number.POSITIVE_INFINITY });
+    const offset = events.slice(i + 1).findIndex((x) => STAGE_ENDS.has(x.kind));
+    const end = offset < 0 ? events.length : i + 1 + offset;
+    windows.push({ stage, fromMs: e.atMs, toMs: events[end]?.atMs ?? Number.POSITIVE_INFINITY, start: i, end });
   }
   return windows;
 }
@@ -103,19 +82,18 @@ function recordEvent(e: TimedEvent): { kind: (typeof RECORD_EVENT_KINDS)[number]
 }
 
 /**
- * Builds the record of a recorded run while its samples stream past (oldest first), so that a run of
- * millions of samples never sits in memory. Settlement = direction × (reading − zero) + reset offset with the
- * zero and offsets in force at each sample (from the 'gauges-zeroed' and 'gauge-reset' events); plate pressure
- * from the oil pressure through the jack calibration plus the apparatus weight (both by `measure()`).
- * Readings are kept at most one per {@link readingStepMs} of run time per stage, plus each stage's last.
+ * Builds the record of a recorded run while its samples stream past (in sequence order), so that a run of
+ * millions of samples never sits in memory. Every reading is measured by the run's measurement model
+ * (shared/runs/measurement-model) with the run's own set-up snapshot and the events before each sample —
+ * zeros, reset offsets, the jack's branch for the stage and calibrations applied mid-run — exactly as the
+ * console measured it. Readings are kept at most one per {@link readingStepMs} of run time per stage,
+ * plus each stage's t = 0 (when its target was reached) and its last.
  */
 export class RunRecordBuilder {
-  private readonly windows: StageWindow[];
+  private readonly windows: ReturnType<typeof stageWindows>;
   private readonly stepMs: number;
-  private readonly latest = new Map<string, number | null>();
-  private zeros: Record<string, number> = {};
-  private offsets: Record<string, number> = {};
-  private nextEvent = 0;
+  private readonly measurer: RunMeasurer;
+  private eventIndex = -1;
   private window = -1;
   private readonly readings = new Map<number, RecordStage['readings']>();
   private lastKeptMs = Number.NEGATIVE_INFINITY;
@@ -129,23 +107,22 @@ export class RunRecordBuilder {
       lengths.reduce((a, b) => a + b, 0),
       Math.max(0, ...lengths),
     );
+    this.measurer = new RunMeasurer(source.setup, source.events, (e) => this.onEvent(e));
   }
 
   /** Takes the next sample (samples must come in sequence order). */
   add(sample: TimedSample): void {
-    this.advanceTo(sample.tMs);
-    const channel = this.source.setup.channels[sample.channel];
-    if (!channel || sample.value === null) return;
-    this.latest.set(channel.key, fromMicro(sample.value));
-    const w = this.windows[this.window];
-    if (!w || sample.tMs >= w.toMs) return;
+    this.measurer.add(sample);
+    if (sample.value === null || !this.source.setup.channels[sample.channel]) return;
+    if (this.window < 0) return;
     this.lastSeenMs = sample.tMs;
     if (sample.tMs - this.lastKeptMs >= this.stepMs) this.keep(sample.tMs);
   }
 
   /** The record; stages that were never held or have no complete reading are left out. */
   finish(): TestRecord {
-    this.advanceTo(Number.POSITIVE_INFINITY);
+    this.measurer.advance(null);
+    if (this.window >= 0) this.closeStage();
     const { plan, metadata, ground } = this.source;
     const stages = this.windows.flatMap(({ stage }) => {
       const readings = this.readings.get(stage.index);
@@ -168,36 +145,18 @@ export class RunRecordBuilder {
     };
   }
 
-  /** Applies the events up to time `tMs`: zeros, reset offsets, stage openings (t = 0 reading) and closings (last reading). */
-  private advanceTo(tMs: number): void {
-    for (;;) {
-      const w = this.windows[this.window];
-      const event = this.source.events[this.nextEvent];
-      const closeAt = w ? w.toMs : Number.POSITIVE_INFINITY;
-      if (w && closeAt <= tMs && (!event || closeAt <= event.atMs)) {
-        this.closeStage();
-        continue;
-      }
-      if (!event || event.atMs > tMs) return;
-      this.nextEvent++;
-      if (event.kind === 'gauges-zeroed') {
-        this.zeros = { ...(event.payload.readings as Record<string, number>) };
-        this.offsets = {};
-      } else if (event.kind === 'gauge-reset') {
-        this.offsets = { ...this.offsets, [String(event.payload.channel)]: Number(event.payload.offsetMm) };
-      } else if (event.kind === 'target-reached') {
-        const next = this.windows.findIndex((x) => x.fromMs === event.atMs && x.stage.index === Number(event.payload.stageIndex));
-        if (next >= 0) this.openStage(next, event.atMs);
-      }
+  /** Each event as the model applies it (before the samples it precedes): stage openings (t = 0 reading) and closings (last reading). */
+  private onEvent(e: TimedEvent): void {
+    this.eventIndex++;
+    if (this.window >= 0 && this.windows[this.window].end === this.eventIndex) this.closeStage();
+    const opening = this.windows.findIndex((w) => w.start === this.eventIndex);
+    if (opening >= 0) {
+      if (this.window >= 0) this.closeStage();
+      this.window = opening;
+      this.lastKeptMs = Number.NEGATIVE_INFINITY;
+      this.lastSeenMs = null;
+      this.keep(e.atMs); // the t = 0 reading, from the latest values at the moment the target was reached
     }
-  }
-
-  private openStage(index: number, atMs: number): void {
-    if (this.window >= 0 && this.window !== index) this.closeStage();
-    this.window = index;
-    this.lastKeptMs = Number.NEGATIVE_INFINITY;
-    this.lastSeenMs = null;
-    this.keep(atMs); // the t = 0 reading, from the latest values at the moment the target was reached
   }
 
   private closeStage(): void {
@@ -208,7 +167,7 @@ export class RunRecordBuilder {
   /** Keeps a reading at `tMs` from the latest values, when every gauge and the pressure are known. */
   private keep(tMs: number): void {
     const w = this.windows[this.window];
-    const m = measure(this.source.setup, this.latest, this.zeros, this.offsets);
+    const m = this.measurer.measure();
     if (!w || m.pressureKpa === null || m.gauges.length === 0 || m.gauges.some((g) => g.settlementMm === null)) return;
     const tMin = (tMs - w.fromMs) / 60_000;
     if (tMin > RECORD_LIMITS.stageMinutes) return;
@@ -273,7 +232,7 @@ async function feedSamples(sequelize: Sequelize, runId: number, builder: RunReco
       type: QueryTypes.SELECT,
     })) as { seq: number; tMs: number; channel: number; value: number | null }[];
     // A reading marked faulty comes as null: the builder treats it as one with no trusted value.
-    for (const r of rows) builder.add({ tMs: Number(r.tMs), channel: r.channel, value: corrected.has(Number(r.seq)) ? (corrected.get(Number(r.seq)) as number | null) : r.value });
+    for (const r of rows) builder.add({ seq: Number(r.seq), tMs: Number(r.tMs), channel: Number(r.channel), value: corrected.has(Number(r.seq)) ? (corrected.get(Number(r.seq)) as number | null) : r.value === null ? null : Number(r.value) });
     if (rows.length < SAMPLE_PAGE) return;
     after = Number(rows[rows.length - 1].seq);
   }
@@ -287,11 +246,12 @@ async function recordedRunRecord(run: Run): Promise<TestRecord> {
   if (!plan) throw notFound('Test plan of the run');
   if (run.rigId === null) throw recordUnavailable('The run has neither a rig nor a stored record to interpret.');
   const input = plan.toInput();
+  const stages = buildStageSequence(input);
   const events = (await RunEvent.findAll({ where: { runId: run.id }, order: [['id', 'ASC']] })).map((e) => ({ atMs: e.at.getTime(), kind: e.kind, payload: e.payload }));
   const builder = new RunRecordBuilder({
     plan: input,
-    stages: buildStageSequence(input),
-    setup: measurementSetup(input, await loadRigContext(run.rigId)),
+    stages,
+    setup: await runSnapshot(run, input, stages),
     events,
     ...(await runMetadata(run, plan, events)),
   });
@@ -307,13 +267,26 @@ async function recordedRunRecord(run: Run): Promise<TestRecord> {
 const built = new Map<number, { key: string; record: TestRecord }>();
 const BUILT_KEPT = 8;
 
-/** Changes whenever the run's data can have changed: its saved state, its samples, its events. */
+/**
+ * Changes whenever anything the record is built from can have changed: the run row, its samples (count and
+ * highest seq: a late archived batch counts), its events and corrections (count and highest id: an added or
+ * removed row counts), its plan, location and project (metadata), and — for a run without a set-up
+ * snapshot, measured with its rig — the rig and the calibrations.
+ */
 async function dataKey(run: Run): Promise<string> {
-  const [row] = (await Run.sequelize!.query('SELECT (SELECT COALESCE(MAX(seq), 0) FROM samples WHERE run_id = :id) AS seq, (SELECT COUNT(*) FROM run_events WHERE run_id = :id) AS events, (SELECT COUNT(*) FROM sample_corrections WHERE run_id = :id) AS corrections', {
-    replacements: { id: run.id },
-    type: QueryTypes.SELECT,
-  })) as { seq: number; events: number; corrections: number }[];
-  return `${run.status}|${run.updatedAt.getTime()}|${Number(row.seq)}|${Number(row.events)}|${Number(row.corrections)}`;
+  const [row] = (await Run.sequelize!.query(
+    `SELECT
+      (SELECT CONCAT(COUNT(*), ':', COALESCE(MAX(seq), 0)) FROM samples WHERE run_id = :id) AS samples,
+      (SELECT CONCAT(COUNT(*), ':', COALESCE(MAX(id), 0)) FROM run_events WHERE run_id = :id) AS events,
+      (SELECT CONCAT(COUNT(*), ':', COALESCE(MAX(id), 0)) FROM sample_corrections WHERE run_id = :id) AS corrections,
+      (SELECT CONCAT(p.id, ':', p.updated_at, ':', COALESCE(l.updated_at, ''), ':', COALESCE(j.updated_at, ''))
+         FROM test_plans p LEFT JOIN test_locations l ON l.id = p.location_id LEFT JOIN projects j ON j.id = l.project_id WHERE p.id = :plan) AS plan,
+      (SELECT CONCAT(COALESCE(MAX(r.updated_at), ''), ':', (SELECT CONCAT(COUNT(*), ':', COALESCE(MAX(id), 0), ':', COALESCE(MAX(updated_at), '')) FROM calibrations))
+         FROM rigs r WHERE r.id = :rig) AS rig`,
+    { replacements: { id: run.id, plan: run.planId, rig: run.rigId ?? 0 }, type: QueryTypes.SELECT },
+  )) as Record<string, string | null>[];
+  const rig = run.state.setup ? 'snapshot' : row.rig;
+  return [run.status, run.updatedAt.getTime(), row.samples, row.events, row.corrections, row.plan, rig].join('|');
 }
 
 /** The test record of a run: the stored one of an imported run, else rebuilt from the run's data. 404 for an unknown run. */

@@ -70,6 +70,7 @@ export interface DeviceSample {
   deviceId: string;
   channel: string;
   seq: number;
+  /** When it was taken, on the reader clock's monotonic milliseconds (devices/port/clock). */
   t: number;
   raw: string;
   value?: number;

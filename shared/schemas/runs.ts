@@ -4,6 +4,7 @@ import type { NextStepPrompt } from '../hold/next-step';
 import type { ReadingFlag } from '../hold/schedule';
 import type { HoldEvaluation } from '../hold/verdict';
 import type { PlannedStage } from '../plans/stages';
+import type { MeasurementParams } from '../runs/measurement-model';
 import { z } from 'zod';
 import { idSchema, requiredLines } from './common';
 
@@ -123,4 +124,6 @@ export interface RunView {
   watchers: { id: number; name: string; role: string }[];
   lastSeq: number;
   stagePoints: StagePointLive[];
+  /** The measurement model's parameters (set-up snapshot and the events that change what a sample means), so a browser measures samples exactly as the server does. */
+  measurement: MeasurementParams;
 }

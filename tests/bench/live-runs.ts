@@ -84,7 +84,8 @@ function feedEngines(engines: RunEngine[], perChannelHz: number): () => number {
         const pressure = channelIndex === CHANNELS - 1;
         const value = pressure ? 5 : 10 + Math.sqrt(done) * 1e-4;
         const wallMs = now - (due - 1 - done) / perMs;
-        const reading = { channelIndex, key: pressure ? 'p1' : `g${channelIndex + 1}`, role: pressure ? 'pressure' : 'gauge', wallMs, raw: value, value, status: 'ok', deviceSeq: done } as const;
+        const monoMs = performance.now() - (due - 1 - done) / perMs;
+        const reading = { channelIndex, key: pressure ? 'p1' : `g${channelIndex + 1}`, role: pressure ? 'pressure' : 'gauge', monoMs, wallMs, raw: value, value, status: 'ok', deviceSeq: done } as const;
         for (const engine of engines) readingPath(engine).onReading(reading);
       }
     },

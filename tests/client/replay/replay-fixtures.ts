@@ -38,9 +38,9 @@ export const SUMMARY: SampleSummary = {
 
 /** Readings at 25 min: both gauges at 2.00 mm of settlement, 14.5 bar. */
 export const READINGS_AT_25_MIN = [
-  { seq: 4500, tMs: 1_499_000, channel: 0, value: 12_000, status: 0 },
-  { seq: 4501, tMs: 1_499_000, channel: 1, value: 24_450, status: 0 },
-  { seq: 4502, tMs: 1_499_000, channel: 2, value: 14_500, status: 0 },
+  { seq: 450, tMs: 1_499_000, channel: 0, value: 12_000, status: 0 },
+  { seq: 451, tMs: 1_499_000, channel: 1, value: 24_450, status: 0 },
+  { seq: 452, tMs: 1_499_000, channel: 2, value: 14_500, status: 0 },
 ];
 
 export const ENGINEER = aUser('engineer', 'Ines Okafor', 'ines@example.test');

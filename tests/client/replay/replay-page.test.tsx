@@ -51,7 +51,7 @@ describe('replay page', () => {
   });
 
   it('posts a correction with its reason and lists it', async () => {
-    const correction = { id: 1, seq: 4501, channel: 1, tMs: 1_499_000, action: 'mark-faulty', originalValue: 24_450, newValue: null, reason: 'Gauge knocked by the crew', userName: 'Ines Okafor', at: '2026-03-02T10:15:00.000Z' };
+    const correction = { id: 1, seq: 451, channel: 1, tMs: 1_499_000, action: 'mark-faulty', originalValue: 24_450, newValue: null, reason: 'Gauge knocked by the crew', userName: 'Ines Okafor', at: '2026-03-02T10:15:00.000Z' };
     const fetchMock = stubFinishedRun({
       'GET /api/runs/7/corrections': [json(200, { items: [] }), json(200, { items: [correction] })],
       'POST /api/runs/7/corrections': json(201, correction),
@@ -59,12 +59,12 @@ describe('replay page', () => {
     const { user } = renderWithProviders(<ReplayPage runId={7} />);
     await scrubTo(1_500_000);
     const form = await screen.findByRole('form', { name: 'Correct a reading' });
-    await user.selectOptions(within(form).getByLabelText(/Reading at the replay time/), '4501');
+    await user.selectOptions(within(form).getByLabelText(/Reading at the replay time/), '451');
     // An automatic (not typed) run: a reading can only be marked faulty.
     expect((within(form).getByLabelText('Correct a typed gauge reading') as HTMLInputElement).disabled).toBe(true);
     await user.type(within(form).getByLabelText(/Reason/), 'Gauge knocked by the crew');
     await user.click(within(form).getByRole('button', { name: 'Record correction' }));
-    await waitFor(() => expect(requests(fetchMock).find((r) => r.key === 'POST /api/runs/7/corrections')?.body).toEqual({ seq: 4501, action: 'mark-faulty', reason: 'Gauge knocked by the crew' }));
+    await waitFor(() => expect(requests(fetchMock).find((r) => r.key === 'POST /api/runs/7/corrections')?.body).toEqual({ seq: 451, action: 'mark-faulty', reason: 'Gauge knocked by the crew' }));
     const table = await screen.findByRole('table', { name: 'Corrections' });
     expect(within(table).getByText('Gauge knocked by the crew')).toBeTruthy();
     expect(within(table).getByText('faulty (left out)')).toBeTruthy();
@@ -75,13 +75,13 @@ describe('replay page', () => {
     const { user } = renderWithProviders(<ReplayPage runId={7} />);
     await scrubTo(1_500_000);
     const form = await screen.findByRole('form', { name: 'Correct a reading' });
-    await user.selectOptions(within(form).getByLabelText(/Reading at the replay time/), '4500');
+    await user.selectOptions(within(form).getByLabelText(/Reading at the replay time/), '450');
     await user.click(within(form).getByLabelText('Correct a typed gauge reading'));
     await user.type(within(form).getByLabelText(/Reading it should have been/), '12.35');
     await user.type(within(form).getByLabelText(/Reason/), 'Typed 12.00 for 12.35 (field sheet)');
     await user.click(within(form).getByRole('button', { name: 'Record correction' }));
     await waitFor(() =>
-      expect(requests(fetchMock).find((r) => r.key === 'POST /api/runs/7/corrections')?.body).toEqual({ seq: 4500, action: 'correct-value', valueMm: 12.35, reason: 'Typed 12.00 for 12.35 (field sheet)' }),
+      expect(requests(fetchMock).find((r) => r.key === 'POST /api/runs/7/corrections')?.body).toEqual({ seq: 450, action: 'correct-value', valueMm: 12.35, reason: 'Typed 12.00 for 12.35 (field sheet)' }),
     );
   });
 

@@ -1,6 +1,6 @@
 import { act, renderHook } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { envelopeData, eventsUntil, runSpan, settlementOffsets, stageAt, stageSpans, stateFromReadings } from '../../../client/src/features/replay/utils/timeline';
+import { envelopeData, eventsUntil, runSpan, stageAt, stageSpans, stateFromReadings } from '../../../client/src/features/replay/utils/timeline';
 import { usePlayback } from '../../../client/src/features/replay/utils/use-playback';
 import { EVENTS, FINISHED_VIEW, READINGS_AT_25_MIN, SUMMARY } from './replay-fixtures';
 
@@ -24,20 +24,34 @@ describe('replay timeline', () => {
     expect(eventsUntil(EVENTS, 900_000).map((e) => e.kind)).toEqual(['note', 'target-reached', 'stage-advanced', 'target-reached', 'run-started']);
   });
 
-  it('turns readings into settlement with the offsets the live values imply, using corrections and leaving faulty readings out', () => {
-    const offsets = settlementOffsets(FINISHED_VIEW);
-    // Settlement = direction × reading + offset: g1 3.80 = 13.80 − 10.00; g2 3.04 = −23.41 + 26.45.
-    expect(offsets.get('g1')).toBeCloseTo(-10, 9);
-    expect(offsets.get('g2')).toBeCloseTo(26.45, 9);
-    expect(stateFromReadings(FINISHED_VIEW, offsets, READINGS_AT_25_MIN)).toEqual({ pressure: { value: 14.5, unit: 'bar' }, meanSettlementMm: expect.closeTo(2, 9) });
+  it('measures readings with the zeros, offsets and stage in force at them, using corrections and leaving faulty readings out', () => {
+    // g1 (up) zeroed at 10.00 mm, g2 (down) at 26.45 mm: 12.00 and 24.45 mm are both 2.00 mm of settlement.
+    expect(stateFromReadings(FINISHED_VIEW, READINGS_AT_25_MIN)).toEqual({
+      pressure: { value: 14.5, unit: 'bar' },
+      // q = p·A_ram/A_plate (hydraulics, p = F/A): 14.5 bar × 100 kPa/bar × (40 mm / 150 mm)² = 103.11 kPa.
+      pressureKpa: expect.closeTo(1450 * (0.04 / 0.15) ** 2, 9),
+      meanSettlementMm: expect.closeTo(2, 9),
+    });
     const corrected = READINGS_AT_25_MIN.map((r) => (r.channel === 0 ? { ...r, correctedValue: 12_400 } : r));
-    expect(stateFromReadings(FINISHED_VIEW, offsets, corrected).meanSettlementMm).toBeCloseTo((2.4 + 2) / 2, 9);
+    expect(stateFromReadings(FINISHED_VIEW, corrected).meanSettlementMm).toBeCloseTo((2.4 + 2) / 2, 9);
     const faulty = READINGS_AT_25_MIN.map((r) => (r.channel === 1 ? { ...r, correctedValue: null, faulty: true } : r));
-    expect(stateFromReadings(FINISHED_VIEW, offsets, faulty).meanSettlementMm).toBeNull(); // no mean from one gauge of two
+    expect(stateFromReadings(FINISHED_VIEW, faulty).meanSettlementMm).toBeNull(); // no mean from one gauge of two
+  });
+
+  it('applies a gauge reset only to the readings after it, not to the run before it', () => {
+    // g1 reset at 50 min (after seq 900): read 24.00 before, 1.00 after → offset +23.00 mm (sign × (before − after)).
+    const reset = { kind: 'gauge-reset', atMs: 3_000_000, payload: { channel: 'g1', beforeMm: 24, afterMm: 1, offsetMm: 23, afterSeq: 900 } };
+    const view = { ...FINISHED_VIEW, measurement: { ...FINISHED_VIEW.measurement, events: [...FINISHED_VIEW.measurement.events, reset] } };
+    expect(stateFromReadings(view, READINGS_AT_25_MIN).meanSettlementMm).toBeCloseTo(2, 9); // before the reset: as it was
+    const after = [
+      { seq: 950, tMs: 3_100_000, channel: 0, value: 1_500, status: 0 }, // 1.50 − 10.00 + 23.00 = 14.50 mm
+      { seq: 951, tMs: 3_100_000, channel: 1, value: 12_450, status: 0 }, // −(12.45 − 26.45) = 14.00 mm
+    ];
+    expect(stateFromReadings(view, after).meanSettlementMm).toBeCloseTo((14.5 + 14) / 2, 9);
   });
 
   it('makes min/max envelopes of mean settlement (a downward gauge swaps its bounds) and pressure per bucket', () => {
-    const [x, low, high, pLow, pHigh] = envelopeData(FINISHED_VIEW, settlementOffsets(FINISHED_VIEW), SUMMARY);
+    const [x, low, high, pLow, pHigh] = envelopeData(FINISHED_VIEW, SUMMARY);
     expect(x).toEqual([900.0005, 2700.0015]);
     // Bucket 2: g1 12.00–13.80 → 2.00–3.80 mm; g2 23.41–24.45 read downwards → 2.00–3.04 mm.
     expect(low.map((v) => v?.toFixed(4))).toEqual(['0.0000', '2.0000']);

@@ -232,7 +232,7 @@ describe('run console', () => {
 
   it('draws the plots from the live feed without re-rendering the page per sample', async () => {
     serve();
-    const { store } = renderConsole(aRunView());
+    const { store } = renderConsole(aRunView({ lastSeq: 1500 })); // a view that covers the samples: they are measured as they come
     await screen.findByRole('img', { name: 'Mean settlement against time in the current stage' });
     const views = store.getSnapshot();
     act(() =>

@@ -38,11 +38,10 @@ describe('column buffer', () => {
 });
 
 describe('live store', () => {
-  it('turns gauge samples into mean settlement with the offsets the view implies', () => {
+  it('measures gauge samples by the run’s model once a view covers them', () => {
     const store = createLiveStore();
-    store.setView(aRunView());
-    // West gauge (+1): settlement = reading + (3.8 − 13.8) = reading − 10.
-    // East gauge (−1): settlement = −reading + (3.04 + 23.41) = 26.45 − reading.
+    store.setView(aRunView({ lastSeq: 1000 }));
+    // g1 (up) zeroed at 10.00 mm, g2 (down) at 26.45 mm (the view's measurement parameters).
     store.ingest(
       aBatch([
         [1001, 3_600_100, 0, 13_900], // west reads 13.900 mm → 3.900 mm
@@ -50,17 +49,33 @@ describe('live store', () => {
         [1003, 3_600_100, 2, 28_100], // jack pressure: not a settlement
       ]),
     );
+    expect(store.series.length).toBe(0); // no view yet says which events apply to seq 1001–1003
+    expect(store.lastSeq).toBe(1003);
+    store.setView(aRunView({ lastSeq: 1003 }));
     const t = store.series.column(0);
     const mean = store.series.column(1);
     expect(Array.from(t)).toEqual([3_600_100, 3_600_100]);
-    expect(mean[0]).toBeCloseTo((3.9 + 3.04) / 2, 9); // east still at its last view value
+    expect(mean[0]).toBeCloseTo(3.9, 9); // only the west gauge has a value yet
     expect(mean[1]).toBeCloseTo((3.9 + 3.15) / 2, 9);
-    expect(store.lastSeq).toBe(1003);
+  });
+
+  it('applies an event that arrives after its samples only to the samples after it', () => {
+    const store = createLiveStore();
+    store.setView(aRunView({ lastSeq: 1000 }));
+    store.ingest(aBatch([[1001, 3_600_100, 1, 23_300], [1002, 3_600_200, 0, 24_000], [1003, 3_600_300, 0, 1_000]]));
+    // West reset between seq 1002 and 1003: 24.00 before, 1.00 after → offset +23.00 mm; the view telling it comes later.
+    const base = aRunView().measurement;
+    const reset = { kind: 'gauge-reset', atMs: 3_600_250, payload: { channel: 'g1', beforeMm: 24, afterMm: 1, offsetMm: 23, afterSeq: 1002 } };
+    store.setView(aRunView({ lastSeq: 1003, measurement: { ...base, events: [...base.events, reset] } }));
+    const mean = Array.from(store.series.column(1));
+    expect(mean[0]).toBeCloseTo(3.15, 9); // east alone
+    expect(mean[1]).toBeCloseTo((14 + 3.15) / 2, 9); // west 24.00 − 10.00, before the reset
+    expect(mean[2]).toBeCloseTo((1 - 10 + 23 + 3.15) / 2, 9); // after it: continuous, 14.00 mm
   });
 
   it('ignores rows it already has, as a backfill after reconnecting overlaps', () => {
     const store = createLiveStore();
-    store.setView(aRunView());
+    store.setView(aRunView({ lastSeq: 1001 }));
     store.ingest(aBatch([[1001, 3_600_100, 0, 13_900]]));
     const version = store.seriesVersion;
     store.ingest(aBatch([[1001, 3_600_100, 0, 13_900]]));

@@ -71,6 +71,32 @@ export const TRAVEL_ALARM: AlarmRecord = {
   history: [],
 };
 
+/**
+ * The run's measurement model parameters: g1 (read upwards) zeroed at 10.00 mm and g2 (read downwards) at
+ * 26.45 mm before the start, the jack a linear 80 mm ram (kN = bar × 100 kPa/bar × A), stages 0 → 1 → 2.
+ */
+export const MEASUREMENT: RunView['measurement'] = {
+  setup: {
+    channels: [
+      { key: 'g1', role: 'gauge', label: 'West gauge', instrumentId: null, profileId: 'manual', port: '', gauge: { xMm: -100, yMm: 0, direction: 1, travelMm: 25 } },
+      { key: 'g2', role: 'gauge', label: 'East gauge', instrumentId: null, profileId: 'manual', port: '', gauge: { xMm: 100, yMm: 0, direction: -1, travelMm: 25 } },
+      { key: 'p', role: 'pressure', label: 'Jack pressure', instrumentId: 5, profileId: 'manual', port: '', gauge: null },
+    ],
+    plate: PLATE,
+    apparatusWeightKn: 0,
+    stageBranches: STAGES.map((s) => s.branch),
+    jack: { instrumentId: 6, serial: 'J-80', calibrationId: 11, calibration: { inputUnit: 'bar', outputUnit: 'kN', curve: { kind: 'linear', c0: 0, c1: RAM_AREA_M2 * 100 } } },
+    pressureUnit: 'bar',
+    instruments: [],
+  },
+  events: [
+    { kind: 'gauges-zeroed', atMs: -60_000, payload: { readings: { g1: 10, g2: 26.45 }, afterSeq: 10 } },
+    { kind: 'run-started', atMs: 0, payload: { stageIndex: 0, afterSeq: 20 } },
+    { kind: 'stage-advanced', atMs: 600_000, payload: { from: 0, to: 1, afterSeq: 200 } },
+    { kind: 'stage-advanced', atMs: 2_000_000, payload: { from: 1, to: 2, afterSeq: 700 } },
+  ],
+};
+
 /** The run holding stage 2 (200 kPa) with two gauges. Override any field. */
 export function aRunView(fields: Partial<RunView> = {}): RunView {
   return {
@@ -125,6 +151,7 @@ export function aRunView(fields: Partial<RunView> = {}): RunView {
     watchers: [{ id: 9, name: 'Ines Okafor', role: 'engineer' }],
     lastSeq: 1000,
     stagePoints: [],
+    measurement: MEASUREMENT,
     ...fields,
   };
 }

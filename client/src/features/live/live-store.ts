@@ -1,4 +1,5 @@
 import type { SampleBatch } from '@shared/realtime/events';
+import { type ModelSample, RunMeasurer } from '@shared/runs/measurement-model';
 import type { RunView } from '@shared/schemas/runs';
 import { createColumnBuffer } from './utils/column-buffer';
 
@@ -30,14 +31,15 @@ export interface LiveStoreOptions {
   now?: () => number;
 }
 
-const MICRO = 1000;
 /** Phases in which a stage's pressure and settlement count as that stage's point on the curve. */
 const HOLD_PHASES = new Set<RunView['phase']>(['holding', 'hold-met', 'completed', 'stopped']);
 
 /**
  * The live state of one run, outside React: the latest RunView, and the mean settlement over time
- * computed from `run:samples` into preallocated columns (run-clock ms, mm). Samples never cause a
- * React render; charts poll `seriesVersion` once per animation frame.
+ * measured from `run:samples` by the run's measurement model (its parameters come with the view) into
+ * preallocated columns (run-clock ms, mm). A sample is measured once a view covers it (seq ≤ the view's
+ * lastSeq): that view holds every event that applies to it, so the chart shows what the server measured.
+ * Samples never cause a React render; charts poll `seriesVersion` once per animation frame.
  */
 export function createLiveStore({ capacity = 200_000, now = Date.now }: LiveStoreOptions = {}) {
   const listeners = new Set<() => void>();
@@ -45,41 +47,36 @@ export function createLiveStore({ capacity = 200_000, now = Date.now }: LiveStor
   let snapshot: LiveSnapshot = { view: null, link: 'connecting', viewReceivedAtMs: null, linkError: null };
   let lastSeq = 0;
   let seriesVersion = 0;
-  /** Per channel index: settlement offset (mm) so settlement = direction × reading + offset; NaN when unknown. */
-  let offsets: Float64Array = new Float64Array(0);
-  /** Per channel index: latest settlement (mm), NaN when none yet. */
-  let latest: Float64Array = new Float64Array(0);
+  /** The run's measurement model, fed every sample in order; rebuilt when another run's view arrives. */
+  let measurer: { runId: number; m: RunMeasurer } | null = null;
+  /** Samples received but not yet covered by a view. */
+  let waiting: ModelSample[] = [];
 
   function publish(next: Partial<LiveSnapshot>) {
     snapshot = { ...snapshot, ...next };
     for (const listener of listeners) listener();
   }
 
-  /** Offsets are constant between gauge resets, so the latest view gives them for new samples. */
-  function updateOffsets(view: RunView) {
-    if (offsets.length !== view.channels.length) {
-      offsets = new Float64Array(view.channels.length).fill(Number.NaN);
-      latest = new Float64Array(view.channels.length).fill(Number.NaN);
-    }
-    view.channels.forEach((channel, i) => {
-      const gauge = view.live.gauges.find((g) => g.key === channel.key);
-      if (channel.role !== 'gauge' || channel.direction === null || gauge?.readingMm == null || gauge.settlementMm == null) return;
-      offsets[i] = gauge.settlementMm - channel.direction * gauge.readingMm;
-      // Until its first sample, a gauge counts in the mean with the view's figure.
-      if (Number.isNaN(latest[i])) latest[i] = gauge.settlementMm;
-    });
-  }
-
-  function meanOfLatest(): number {
-    let sum = 0;
-    let n = 0;
-    for (let i = 0; i < latest.length; i++) {
-      if (!Number.isNaN(latest[i])) {
-        sum += latest[i];
-        n++;
+  /** Takes the view's model events it has not seen yet (they only grow), then measures the samples the view covers. */
+  function follow(view: RunView) {
+    if (measurer?.runId !== view.id) measurer = { runId: view.id, m: new RunMeasurer(view.measurement.setup) };
+    const { m } = measurer;
+    for (const e of view.measurement.events.slice(m.eventCount)) m.enqueue(e);
+    const upTo = view.lastSeq;
+    let i = 0;
+    let added = false;
+    for (; i < waiting.length && waiting[i].seq <= upTo; i++) {
+      const sample = waiting[i];
+      m.add(sample);
+      if (sample.value === null || view.channels[sample.channel]?.role !== 'gauge') continue;
+      const mean = m.measure().meanSettlementMm;
+      if (mean !== null) {
+        series.push(sample.tMs, mean);
+        added = true;
       }
     }
-    return n === 0 ? Number.NaN : sum / n;
+    waiting = waiting.slice(i);
+    if (added) seriesVersion++;
   }
 
   return {
@@ -92,8 +89,8 @@ export function createLiveStore({ capacity = 200_000, now = Date.now }: LiveStor
     setView(view: RunView): void {
       // A command's answer and a pushed view may arrive out of order: never step back in version.
       if (snapshot.view && snapshot.view.id === view.id && view.version < snapshot.view.version) return;
-      updateOffsets(view);
       publish({ view, viewReceivedAtMs: now() });
+      follow(view);
     },
     setLink(link: LinkState, linkError: string | null = null): void {
       if (link !== snapshot.link || linkError !== snapshot.linkError) publish({ link, linkError });
@@ -101,25 +98,13 @@ export function createLiveStore({ capacity = 200_000, now = Date.now }: LiveStor
 
     /** Takes a batch of samples; rows at or below the last sequence number seen are ignored (backfill overlap). */
     ingest(batch: SampleBatch): void {
-      const channels = snapshot.view?.channels;
-      if (!channels) return;
-      let added = false;
       for (let r = 0; r < batch.seq.length; r++) {
         const seq = batch.seq[r];
         if (seq <= lastSeq) continue;
         lastSeq = seq;
-        const index = batch.channel[r];
-        const channel = channels[index];
-        const value = batch.value[r];
-        if (channel?.role !== 'gauge' || channel.direction === null || value === null || Number.isNaN(offsets[index])) continue;
-        latest[index] = (channel.direction * value) / MICRO + offsets[index];
-        const mean = meanOfLatest();
-        if (!Number.isNaN(mean)) {
-          series.push(batch.t[r], mean);
-          added = true;
-        }
+        waiting.push({ seq, tMs: batch.t[r], channel: batch.channel[r], value: batch.value[r] });
       }
-      if (added) seriesVersion++;
+      if (snapshot.view) follow(snapshot.view);
     },
 
     /** Sequence number to ask the server to continue after, when joining again. */

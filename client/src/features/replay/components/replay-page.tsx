@@ -6,7 +6,7 @@ import { EmptyState, ErrorState, LoadingState } from '../../../components/query-
 import { paths } from '../../../config/paths';
 import { useUser } from '../../../lib/auth';
 import { type ReplayEvent, type SampleSummary, type Span, useCorrections, useReadingsAt, useReplayEvents, useReplayView, useSampleSummary } from '../api/replay-api';
-import { envelopeData, eventsUntil, runSpan, settlementOffsets, stageAt, stageSpans, stateFromReadings, timelineMarks } from '../utils/timeline';
+import { envelopeData, eventsUntil, runSpan, stageAt, stageSpans, stateFromReadings, timelineMarks } from '../utils/timeline';
 import { usePlayback } from '../utils/use-playback';
 import { CorrectionForm, CorrectionsList } from './corrections-panel';
 import { ReplayChart } from './replay-chart';
@@ -84,14 +84,13 @@ function LoadedReplay({ runId, view, events, overview, live, buckets }: LoadedRe
 
   const stages = useMemo(() => stageSpans(events, view.stages, span.toMs), [events, view.stages, span.toMs]);
   const marks = useMemo(() => timelineMarks(events), [events]);
-  const offsets = useMemo(() => settlementOffsets(view), [view]);
-  const chartData = useMemo(() => envelopeData(view, offsets, shown), [view, offsets, shown]);
+  const chartData = useMemo(() => envelopeData(view, shown), [view, shown]);
 
   // Readings are asked for at most once per second of run time, coarser while playing fast.
   const stepMs = 1000 * (playback.playing ? playback.speed : 1);
   const readings = useReadingsAt(runId, overview.channels.length ? Math.floor(playback.tMs / stepMs) * stepMs : null);
   const corrections = useCorrections(runId);
-  const state = stateFromReadings(view, offsets, readings.data ?? []);
+  const state = stateFromReadings(view, readings.data ?? []);
   const role = useUser()?.role;
   // Engineers and admins may correct readings (the server enforces the same).
   const mayCorrect = role === 'admin' || role === 'engineer';
@@ -111,7 +110,7 @@ function LoadedReplay({ runId, view, events, overview, live, buckets }: LoadedRe
         onToggle={playback.toggle}
         onSpeed={playback.setSpeed}
       />
-      <ReplayStatePanel fromMs={span.fromMs} tMs={playback.tMs} stage={stageAt(stages, playback.tMs)} pressure={state.pressure} meanSettlementMm={state.meanSettlementMm} events={eventsUntil(events, playback.tMs)} />
+      <ReplayStatePanel fromMs={span.fromMs} tMs={playback.tMs} stage={stageAt(stages, playback.tMs)} pressure={state.pressure} pressureKpa={state.pressureKpa} meanSettlementMm={state.meanSettlementMm} events={eventsUntil(events, playback.tMs)} />
       {overview.channels.length === 0 ? (
         <EmptyState title="No recorded samples">
           Nothing has been recorded in this run yet.{' '}

@@ -7,20 +7,23 @@ export interface ReplayStatePanelProps {
   tMs: number;
   stage: StageSpan | null;
   pressure: { value: number; unit: string } | null;
+  /** Mean pressure under the plate, kPa, as the console measured it. */
+  pressureKpa: number | null;
   meanSettlementMm: number | null;
   /** Events up to the replay time, newest first. */
   events: readonly ReplayEvent[];
 }
 
 /** The run as it stood at the replay time: stage and target, readings, and what had happened so far. */
-export function ReplayStatePanel({ fromMs, tMs, stage, pressure, meanSettlementMm, events }: ReplayStatePanelProps) {
+export function ReplayStatePanel({ fromMs, tMs, stage, pressure, pressureKpa, meanSettlementMm, events }: ReplayStatePanelProps) {
   const holding = stage?.reachedMs != null && stage.reachedMs <= tMs;
   return (
     <section aria-label="State at the replay time" className="flex flex-col gap-3">
-      <div className="grid grid-cols-2 gap-2 sm:grid-cols-4">
+      <div className="grid grid-cols-2 gap-2 sm:grid-cols-5">
         <Readout label="Stage" value={stage ? String(stage.stageIndex) : '—'} />
         <Readout label={stage ? (holding ? 'Target (holding)' : 'Target (loading)') : 'Target'} value={stage ? String(stage.targetKpa) : '—'} unit="kPa" />
         <Readout label="Oil pressure" value={formatNumber(pressure?.value, 2)} unit={pressure?.unit} />
+        <Readout label="Plate pressure" value={formatNumber(pressureKpa, 1)} unit="kPa" />
         <Readout label="Mean settlement" value={formatNumber(meanSettlementMm, 2)} unit="mm" />
       </div>
       <div>

@@ -1,4 +1,5 @@
 import type { PlannedStage } from '@shared/plans/stages';
+import { RunMeasurer, settlementOf, stateAtTime } from '@shared/runs/measurement-model';
 import type { RunView } from '@shared/schemas/runs';
 import type { ReadingAt, ReplayEvent, SampleSummary } from '../api/replay-api';
 
@@ -85,43 +86,26 @@ export const stageAt = (spans: readonly StageSpan[], tMs: number): StageSpan | n
 /** Events that happened up to `tMs`, newest first. */
 export const eventsUntil = (events: readonly ReplayEvent[], tMs: number): ReplayEvent[] => events.filter((e) => e.atMs <= tMs).reverse();
 
-type Channel = RunView['channels'][number];
-
 /**
- * Offset of each gauge's settlement from its reading, mm: settlement = direction × reading + offset, where the
- * offset (−direction × zero + reset offset) is implied by the run's latest live values. It holds since the
- * last gauge reset; earlier parts of a run with resets are shifted by the reset's offset.
+ * Pressure and mean settlement at the readings of one time, measured by the run's measurement model
+ * (shared/runs/measurement-model) exactly as the console measured them at the newest of those readings:
+ * the zeros, reset offsets, stage and calibrations in force then. Corrected values are used and readings
+ * marked faulty left out.
  */
-export function settlementOffsets(view: RunView): Map<string, number> {
-  const out = new Map<string, number>();
-  for (const c of view.channels) {
-    const g = view.live.gauges.find((x) => x.key === c.key);
-    if (c.role === 'gauge' && c.direction !== null && g?.settlementMm != null && g.readingMm != null) out.set(c.key, g.settlementMm - c.direction * g.readingMm);
-  }
-  return out;
-}
-
-const gaugeSettlement = (c: Channel, offsets: ReadonlyMap<string, number>, readingMm: number): number | null => {
-  const offset = offsets.get(c.key);
-  return offset === undefined || c.direction === null ? null : c.direction * readingMm + offset;
-};
-
-/** Pressure and mean settlement from the readings at one time; corrected values are used and readings marked faulty left out. */
-export function stateFromReadings(view: RunView, offsets: ReadonlyMap<string, number>, readings: readonly ReadingAt[]) {
+export function stateFromReadings(view: RunView, readings: readonly ReadingAt[]) {
   const inForce = (r: ReadingAt) => (r.correctedValue !== undefined ? r.correctedValue : r.value);
-  const settlements: number[] = [];
+  const measurer = new RunMeasurer(view.measurement.setup, view.measurement.events);
   let pressure: { value: number; unit: string } | null = null;
-  for (const r of readings) {
+  for (const r of [...readings].sort((a, b) => a.seq - b.seq)) {
     const c = view.channels[r.channel];
     const v = inForce(r);
-    if (!c || v === null) continue;
-    if (c.role === 'gauge') {
-      const s = gaugeSettlement(c, offsets, v / 1000);
-      if (s !== null) settlements.push(s);
-    } else if (c.role === 'pressure') pressure = { value: v / 1000, unit: c.unit };
+    measurer.add({ seq: r.seq, tMs: r.tMs, channel: r.channel, value: v });
+    if (c?.role === 'pressure' && v !== null) pressure = { value: v / 1000, unit: c.unit };
   }
-  const gauges = view.channels.filter((c) => c.role === 'gauge').length;
-  return { pressure, meanSettlementMm: gauges > 0 && settlements.length === gauges ? settlements.reduce((a, b) => a + b, 0) / gauges : null };
+  const m = measurer.measure();
+  // Readings-at gives one reading per channel: without one of them, the gauge's value in force is unknown here.
+  const complete = m.gauges.length > 0 && m.gauges.every((g) => g.settlementMm !== null);
+  return { pressure, pressureKpa: m.pressureKpa, meanSettlementMm: complete ? m.meanSettlementMm : null };
 }
 
 /** Columns for the overview plot: x (s), mean settlement low/high (mm), pressure low/high (channel unit); null where a bucket lacks data. */
@@ -129,10 +113,12 @@ export type EnvelopeData = [number[], (number | null)[], (number | null)[], (num
 
 /**
  * The summary's min/max per bucket as the plot's envelopes. Mean settlement bounds per bucket are the means of
- * each gauge's lowest and highest settlement (a gauge read downwards swaps its reading's min and max): they
- * bracket the true mean's range in that bucket, so no extreme is hidden.
+ * each gauge's lowest and highest settlement (a gauge read downwards swaps its reading's min and max), each
+ * measured by the run's model with the zeros and reset offsets in force at the bucket's start: they bracket
+ * the true mean's range in that bucket, so no extreme is hidden.
  */
-export function envelopeData(view: RunView, offsets: ReadonlyMap<string, number>, summary: SampleSummary): EnvelopeData {
+export function envelopeData(view: RunView, summary: SampleSummary): EnvelopeData {
+  const { setup, events } = view.measurement;
   const count = Math.max(1, Math.round((summary.toMs - summary.fromMs) / summary.bucketMs));
   const bucketOf = (t: number) => Math.round((t - summary.fromMs) / summary.bucketMs - 0.5);
   const lowSum = new Array<number>(count).fill(0);
@@ -140,7 +126,8 @@ export function envelopeData(view: RunView, offsets: ReadonlyMap<string, number>
   const seen = new Array<number>(count).fill(0);
   const pLow: (number | null)[] = new Array(count).fill(null);
   const pHigh: (number | null)[] = new Array(count).fill(null);
-  const gauges = view.channels.filter((c) => c.role === 'gauge' && offsets.has(c.key)).length;
+  const states = Array.from({ length: count }, (_, b) => stateAtTime(setup, events, summary.fromMs + b * summary.bucketMs));
+  const gauges = view.channels.filter((c) => c.role === 'gauge').length;
   for (const series of summary.channels) {
     const c = view.channels[series.channel];
     if (!c) continue;
@@ -152,8 +139,8 @@ export function envelopeData(view: RunView, offsets: ReadonlyMap<string, number>
         pHigh[b] = series.max[i] / 1000;
         return;
       }
-      const a = c.role === 'gauge' ? gaugeSettlement(c, offsets, series.min[i] / 1000) : null;
-      const z = c.role === 'gauge' ? gaugeSettlement(c, offsets, series.max[i] / 1000) : null;
+      const a = c.role === 'gauge' ? settlementOf(setup, states[b], series.channel, series.min[i] / 1000) : null;
+      const z = c.role === 'gauge' ? settlementOf(setup, states[b], series.channel, series.max[i] / 1000) : null;
       if (a === null || z === null) return;
       lowSum[b] += Math.min(a, z);
       highSum[b] += Math.max(a, z);
