@@ -2,7 +2,7 @@ import { screen, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { InstrumentsTable } from '../../../client/src/features/instruments/components/instruments-table';
 import { renderWithProviders } from '../support/render';
-import { REGISTER } from './fixtures';
+import { anInstrument, REGISTER } from './fixtures';
 
 function rowOf(serial: string): HTMLElement {
   const row = screen.getByRole('link', { name: serial }).closest('tr');
@@ -38,5 +38,15 @@ describe('instrument register table', () => {
     await user.type(screen.getByLabelText('Filter instruments'), 'overdue');
     expect(screen.getAllByRole('row')).toHaveLength(2); // header + the overdue gauge
     expect(screen.getByRole('link', { name: 'BR-0877' })).toBeTruthy();
+  });
+
+  it('shows a 0–25 mm gauge with 0.001 mm resolution and 25 mm travel exactly so, and a jack by its rated pressure', () => {
+    const fine = anInstrument({ id: 9, serialNumber: 'BR-0025', status: 'in-calibration', rangeMin: 0, rangeMax: 25, resolution: 0.001, travelMm: 25 });
+    renderWithProviders(<InstrumentsTable instruments={[...REGISTER, fine]} />);
+    const row = rowOf('BR-0025');
+    expect(within(row).getByText('0 – 25 mm')).toBeTruthy();
+    expect(within(row).getByText('0.001 mm')).toBeTruthy();
+    expect(within(row).getByText('25 mm')).toBeTruthy();
+    expect(within(rowOf('JK-50')).getByText('70 MPa')).toBeTruthy();
   });
 });
