@@ -289,6 +289,13 @@ async function dataKey(run: Run): Promise<string> {
   return [run.status, run.updatedAt.getTime(), row.samples, row.events, row.corrections, row.plan, rig].join('|');
 }
 
+/** A recorded run's record built afresh from its data, past the cache (for checks that must not trust it). */
+export async function rebuildRunRecord(runId: number): Promise<TestRecord> {
+  const run = await Run.findByPk(runId);
+  if (!run) throw notFound('Run');
+  return recordedRunRecord(run);
+}
+
 /** The test record of a run: the stored one of an imported run, else rebuilt from the run's data. 404 for an unknown run. */
 export async function loadRunRecord(runId: number): Promise<TestRecord> {
   const stored = await RunRecord.findByPk(runId);
