@@ -136,6 +136,7 @@ function moduli(a: RecordAnalysis): string[] {
     finding('Ev1 / Ev2 / Ev2÷Ev1', a.deformationModuli, (d) => `${fixed(d.ev1.evMnM2, 1)} / ${fixed(d.ev2?.evMnM2, 1)} MN/m² / ${fixed(d.ratio, 2)}`),
     ...(a.deformationModuli.applies ? [`    ${a.deformationModuli.result.statement}`] : []),
     finding('Elastic modulus E', a.elasticModulus, (e) => `${fixed(e.eMpa, 1)} MPa (ν = ${e.poisson}, secant ${fixed(e.fromKpa, 0)}–${fixed(e.toKpa, 0)} kPa)`),
+    finding('Unload–reload modulus E_ur', a.unloadReloadModulus, (e) => `${fixed(e.eMpa, 1)} MPa (ν = ${e.poisson}, unloading ${fixed(e.toKpa, 0)}→${fixed(e.fromKpa, 0)} kPa)`),
   ];
 }
 

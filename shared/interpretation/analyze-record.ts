@@ -169,6 +169,8 @@ export interface RecordAnalysis {
   subgradeModulus: SubgradeAnalysis;
   deformationModuli: Finding<StatedModuli>;
   elasticModulus: Finding<SecantElasticModulus>;
+  /** E on unloading (bearing tests): the soil's stiffness on reloading. */
+  unloadReloadModulus: Finding<SecantElasticModulus>;
   cycles: Finding<LoadCycle[]>;
   timeSettlement: StageTimeSettlement[];
   scalingWarnings: ScalingWarning[];
@@ -387,6 +389,32 @@ function secantElasticModulus(curve: readonly CurvePoint[], plate: Plate, poisso
   return { ...modulus, formula: `${modulus.formula}; ${secant}`, poisson, fromKpa, toKpa, fromMm, toMm };
 }
 
+/**
+ * Unload–reload modulus (common practice): E from the secant of the first unloading, between the last
+ * loading point before it and its last point, by the rigid-plate formula (EN 1997-2 K.2). It reflects the
+ * soil's stiffness on reloading, not on first loading.
+ */
+export function unloadModulus(points: readonly StagePoint[], plate: Plate, poisson: number): SecantElasticModulus {
+  const first = points.findIndex((p, i) => p.branch === 'unloading' && i > 0 && points[i - 1].branch === 'loading');
+  if (first < 0) throw new InterpretationInputError('stages', 'no unloading follows a loading stage');
+  let last = first;
+  while (points[last + 1]?.branch === 'unloading') last++;
+  const [top, bottom] = [points[first - 1], points[last]];
+  const [dq, ds] = [top.pressureKpa - bottom.pressureKpa, top.settlementMm - bottom.settlementMm];
+  if (!(dq > 0 && ds > 0)) throw new InterpretationInputError('stages', `the first unloading (${+top.pressureKpa.toFixed(1)} to ${+bottom.pressureKpa.toFixed(1)} kPa) shows no rebound`);
+  const modulus = rigidPlateModulus({ plate, deltaPressureKpa: dq, deltaSettlementMm: ds, poisson });
+  return {
+    ...modulus,
+    formula: `${modulus.formula}; Δq, Δs: secant of the first unloading, from the last loading point to the end of the unloading`,
+    source: `${modulus.source}; common practice for the unload–reload modulus`,
+    poisson,
+    fromKpa: bottom.pressureKpa,
+    toKpa: top.pressureKpa,
+    fromMm: bottom.settlementMm,
+    toMm: top.settlementMm,
+  };
+}
+
 /** Creep over [from, to], by default the last log cycle of the hold: t_b = the last reading, t_a = t_b/10 or the first reading after t = 0 if later. */
 function stageCreep(series: ReturnType<typeof stageSettlementSeries>, window: readonly [number, number] | undefined): Finding<CreepCoefficient> {
   const last = series[series.length - 1].tMin;
@@ -550,6 +578,7 @@ export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions 
     },
     deformationModuli: deformation(),
     elasticModulus: run('elasticModulus', () => secantElasticModulus(firstLoading, plate, poisson, options.elasticRange ?? [0.3, 0.7])),
+    unloadReloadModulus: run('ultimate', () => unloadModulus(points, plate, poisson)),
     cycles,
     timeSettlement: stages.filter((s) => s.branch === 'loading' || s.branch === 'reloading').map((s) => stageTimeSettlement(s, options)),
     scalingWarnings:

@@ -103,6 +103,21 @@ describe('analyzeRecord on the sand bearing test (450 mm square plate, footing 1
     expect([e.fromKpa, e.toKpa, e.poisson]).toEqual([from, to, 0.3]);
   });
 
+  it('gives the unload–reload modulus from the first unloading, 600 to 0 kPa (EN 1997-2 K.2 rigid-plate formula)', () => {
+    const points = analysis.reduction.points;
+    const [top, bottom] = [points[6], points[8]];
+    const direct = rigidPlateModulus({
+      plate: record.plate,
+      deltaPressureKpa: top.pressureKpa - bottom.pressureKpa,
+      deltaSettlementMm: top.settlementMm - bottom.settlementMm,
+      poisson: 0.3,
+    });
+    const eur = result(analysis.unloadReloadModulus);
+    expect(eur.eMpa).toBeCloseTo(direct.eMpa, 10);
+    expect([eur.toKpa, eur.fromKpa]).toEqual([top.pressureKpa, bottom.pressureKpa]);
+    expect(eur.eMpa).toBeGreaterThan(result(analysis.elasticModulus).eMpa); // stiffer on unloading than on first loading
+  });
+
   it('says why Ev is not shown on a bearing test, and why not on a square plate', () => {
     expect(reason(analysis.deformationModuli)).toMatch(/: Ev1 and Ev2 need the two-cycle deformation-modulus procedure$/);
     const unnamed = { ...record, plan: undefined };

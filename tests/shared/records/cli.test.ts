@@ -49,6 +49,7 @@ const ANALYSIS_KEYS = [
   'subgradeModulus',
   'deformationModuli',
   'elasticModulus',
+  'unloadReloadModulus',
   'cycles',
   'timeSettlement',
   'scalingWarnings',

@@ -20,7 +20,7 @@ function SubgradeView({ title, k }: { title: string; k: LabelledModulus }) {
 
 /** k labelled with its plate (and the 750/762 mm value only as measured or by a named conversion), Ev1/Ev2 with plate and convention, and E from the first loading. */
 export function ModuliPanel({ analysis }: { analysis: RecordAnalysis }) {
-  const { subgradeModulus: sg, deformationModuli, elasticModulus } = analysis;
+  const { subgradeModulus: sg, deformationModuli, elasticModulus, unloadReloadModulus } = analysis;
   return (
     <div className="grid gap-5 lg:grid-cols-2">
       <div>
@@ -69,6 +69,20 @@ export function ModuliPanel({ analysis }: { analysis: RecordAnalysis }) {
               <p className="font-mono text-lg">E = {figure(e.eMpa, 'MPa')}</p>
               <p className="text-sm">
                 Poisson’s ratio {e.poisson}; secant {figure(e.fromKpa, 'kPa')}–{figure(e.toKpa, 'kPa')}; influence factor {e.influenceFactor}.
+              </p>
+              <Provenance formula={e.formula} source={e.source} />
+            </>
+          )}
+        </FindingView>
+      </div>
+      <div>
+        <h3 className="font-semibold">Unload–reload modulus</h3>
+        <FindingView finding={unloadReloadModulus}>
+          {(e) => (
+            <>
+              <p className="font-mono text-lg">E_ur = {figure(e.eMpa, 'MPa')}</p>
+              <p className="text-sm">
+                Unloading from {figure(e.toKpa, 'kPa')} to {figure(e.fromKpa, 'kPa')}; Poisson’s ratio {e.poisson}.
               </p>
               <Provenance formula={e.formula} source={e.source} />
             </>
