@@ -5,12 +5,14 @@ import { STAFF } from '../auth/permissions';
 import { HttpError, notFound } from '../http/errors';
 import { route } from '../http/route';
 import { assertRunUnlocked } from '../services/signoff';
+import { Interpretation } from '../models/interpretation';
 import { Rig } from '../models/rig';
 import { Run } from '../models/run';
 import { RunEvent } from '../models/run-event';
 import { TestLocation } from '../models/test-location';
 import { TestPlan } from '../models/test-plan';
 import { Project } from '../models/project';
+import { Signoff } from '../models/signoff';
 import { CommandRefused } from '../runs/run-engine';
 import type { RunManager } from '../runs/run-manager';
 import { sampleSpan, samplesAfter, summarizeSamples, toBatch } from '../runs/samples-query';
@@ -22,9 +24,13 @@ export const runRoutes = (runs: RunManager) => [
     method: 'get',
     path: '/api/runs',
     access: STAFF,
-    summary: 'Runs, newest first, with their plan, location and rig',
+    summary: 'Runs, newest first, with their plan, location, rig and where their report stands (interpreted, draft / in review / signed)',
     handler: async () => {
       const all = await Run.findAll({ order: [['id', 'DESC']], limit: 200 });
+      const ids = all.map((r) => r.id);
+      // Where each run's report stands, for the engineer's queues and the staff list of reports.
+      const signoffs = new Map((await Signoff.findAll({ where: { runId: ids }, attributes: ['runId', 'state'] })).map((s) => [s.runId, s.state]));
+      const interpreted = new Set((await Interpretation.findAll({ where: { runId: ids }, attributes: ['runId'], group: ['runId'] })).map((i) => i.runId));
       const plans = new Map((await TestPlan.findAll({ where: { id: [...new Set(all.map((r) => r.planId))] }, include: [{ model: TestLocation, as: 'location', include: [{ model: Project, as: 'project' }] }] })).map((p) => [p.id, p]));
       const rigs = new Map((await Rig.findAll()).map((r) => [r.id, r.name]));
       return {
@@ -46,6 +52,7 @@ export const runRoutes = (runs: RunManager) => [
             activeAlarms: view ? view.alarms.filter((a) => a.state === 'unacknowledged').length : 0,
             startedAt: r.startedAt?.toISOString() ?? null,
             finishedAt: r.finishedAt?.toISOString() ?? null,
+            review: { state: signoffs.get(r.id) ?? 'draft', interpreted: interpreted.has(r.id) },
           };
         }),
       };

@@ -29,6 +29,7 @@ function aSummary(fields: Partial<RunSummary> & Pick<RunSummary, 'id' | 'phase'>
     activeAlarms: 0,
     startedAt: '2026-03-04T08:00:00Z',
     finishedAt: null,
+    review: { state: 'draft', interpreted: false },
     ...fields,
   };
 }

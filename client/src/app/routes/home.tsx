@@ -6,6 +6,7 @@ import { EmptyState, QueryResult } from '../../components/query-states';
 import { paths } from '../../config/paths';
 import { useProjects } from '../../features/projects/api/get-projects';
 import { useRuns } from '../../features/runs/api/get-runs';
+import { ReviewQueues } from '../../features/runs/components/review-queues';
 import { RunBoard } from '../../features/runs/components/run-board';
 import { useCan, useUser } from '../../lib/auth';
 import { formatDate } from '../../lib/format';
@@ -68,13 +69,48 @@ function RunsOnBoard() {
   );
 }
 
+/** The engineer's queues, from the same list of runs as the board. */
+function QueuesOnBoard() {
+  const runs = useRuns();
+  return (
+    <QueryResult query={runs} loadingLabel="Loading your queues…">
+      {(items) => <ReviewQueues runs={items} />}
+    </QueryResult>
+  );
+}
+
+/** Each person's work first: an engineer's queues, an operator's runs; then the projects. */
 export function HomeRoute() {
   const user = useUser();
   const projects = useProjects();
   const canRun = useCan('plans:read');
+  // Engineers and admins interpret, review and sign (the roles that save interpretations).
+  const reviews = useCan('plans:write');
+  const runsSection = canRun && (
+    <section aria-labelledby="runs-board" className="mb-8">
+      <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
+        <h2 id="runs-board" className="text-xl font-bold">
+          {reviews ? 'Runs' : 'Your runs'}
+        </h2>
+        <LinkButton to={paths.newRun.href()} variant="primary">
+          Set up a run
+        </LinkButton>
+      </div>
+      <RunsOnBoard />
+    </section>
+  );
   return (
     <>
       <PageHeader title={user ? `Hello, ${user.name}` : 'Home'} />
+      {reviews && (
+        <section aria-labelledby="my-queues" className="mb-8">
+          <h2 id="my-queues" className="mb-3 text-xl font-bold">
+            Your queues
+          </h2>
+          <QueuesOnBoard />
+        </section>
+      )}
+      {!reviews && runsSection}
       <section aria-labelledby="my-projects" className="mb-8">
         <h2 id="my-projects" className="mb-3 text-xl font-bold">
           My projects
@@ -83,19 +119,7 @@ export function HomeRoute() {
           {(items) => <RecentProjects projects={items} />}
         </QueryResult>
       </section>
-      {canRun && (
-        <section aria-labelledby="runs-board">
-          <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
-            <h2 id="runs-board" className="text-xl font-bold">
-              Runs
-            </h2>
-            <LinkButton to={paths.newRun.href()} variant="primary">
-              Set up a run
-            </LinkButton>
-          </div>
-          <RunsOnBoard />
-        </section>
-      )}
+      {reviews && runsSection}
     </>
   );
 }

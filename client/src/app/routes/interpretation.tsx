@@ -1,9 +1,11 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { lazy, Suspense } from 'react';
 import { type LoaderFunctionArgs, useParams } from 'react-router-dom';
+import { LinkButton } from '../../components/button';
 import { CautionNotice } from '../../components/caution-notice';
 import { PageHeader } from '../../components/page-header';
 import { LoadingState, QueryResult } from '../../components/query-states';
+import { paths } from '../../config/paths';
 import { interpretationQueryOptions, runRecordQueryOptions, useRunRecord } from '../../features/interpretation/api/get-interpretation';
 import { requirePermission, routeId } from '../route-guards';
 
@@ -27,7 +29,18 @@ export function InterpretationRoute() {
   const context = [m?.project, m?.pit && `pit ${m.pit}`, m?.testDate].filter(Boolean).join(' · ');
   return (
     <>
-      <PageHeader title={`Interpretation of run ${runId}`} context={context || undefined} />
+      <PageHeader
+        title={`Interpretation of run ${runId}`}
+        context={context || undefined}
+        actions={
+          <>
+            <LinkButton to={paths.replay.href(runId)}>Replay the run</LinkButton>
+            <LinkButton to={paths.signoff.href(runId)} variant="primary">
+              On to review and sign-off
+            </LinkButton>
+          </>
+        }
+      />
       <QueryResult query={record} loadingLabel="Loading the run’s record…">
         {(r) => (
           <Suspense fallback={<LoadingState label="Loading the interpretation…" />}>

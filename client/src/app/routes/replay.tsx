@@ -1,8 +1,10 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { lazy, Suspense } from 'react';
 import { type LoaderFunctionArgs, useParams } from 'react-router-dom';
+import { LinkButton } from '../../components/button';
 import { PageHeader } from '../../components/page-header';
 import { LoadingState } from '../../components/query-states';
+import { paths } from '../../config/paths';
 import { requirePermission, routeId } from '../route-guards';
 
 // The plot (uPlot) loads with this page only, not with the app.
@@ -21,7 +23,17 @@ export function ReplayRoute() {
   const runId = Number(useParams().runId);
   return (
     <>
-      <PageHeader title={`Replay of run ${runId}`} />
+      <PageHeader
+        title={`Replay of run ${runId}`}
+        actions={
+          <>
+            <LinkButton to={paths.run.href(runId)}>Console</LinkButton>
+            <LinkButton to={paths.interpretation.href(runId)} variant="primary">
+              Interpretation
+            </LinkButton>
+          </>
+        }
+      />
       <Suspense fallback={<LoadingState label="Loading the replay…" />}>
         <ReplayPage runId={runId} />
       </Suspense>

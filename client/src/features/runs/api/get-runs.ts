@@ -1,6 +1,7 @@
 import type { HoldVerdict } from '@shared/hold/verdict';
 import type { ListResponse } from '@shared/schemas/common';
 import type { RunPhase } from '@shared/schemas/runs';
+import type { SignoffState } from '@shared/schemas/signoff';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { runKeys } from '../../../lib/run-keys';
@@ -21,6 +22,8 @@ export interface RunSummary {
   activeAlarms: number;
   startedAt: string | null;
   finishedAt: string | null;
+  /** Where the run's report stands: saved interpretation or not, and its sign-off state. */
+  review: { state: SignoffState; interpreted: boolean };
 }
 
 export async function getRuns(signal?: AbortSignal): Promise<RunSummary[]> {

@@ -85,6 +85,9 @@ export function RunBoard({ runs }: { runs: RunSummary[] }) {
                 <Link to={paths.replay.href(r.id)} className="inline-flex min-h-touch items-center font-bold underline underline-offset-4">
                   Replay
                 </Link>
+                <Link to={paths.signoff.href(r.id)} className="inline-flex min-h-touch items-center font-bold underline underline-offset-4">
+                  Sign-off
+                </Link>
               </li>
             ))}
           </ul>
