@@ -9,7 +9,7 @@ import type { Ags4Problem } from '../../shared/ags4/parse';
 import { analyzeRecord } from '../../shared/interpretation/analyze-record';
 import { readingCount } from '../../shared/records/readings';
 import type { TestRecord } from '../../shared/records/schema';
-import type { Ags4ExportQuery } from '../../shared/schemas/ags4';
+import type { Ags4ExportQuery, Ags4ImportedTest, Ags4ImportResult } from '../../shared/schemas/ags4';
 import { locationInput } from '../../shared/schemas/projects';
 import { transaction } from '../db/transaction';
 import { HttpError, notFound } from '../http/errors';
@@ -144,17 +144,6 @@ export class Ags4Refused extends Error {
   }
 }
 
-export interface Ags4ImportedTest {
-  runId: number;
-  planId: number;
-  planName: string;
-  locationId: number;
-  pitId: string;
-  reference: string;
-  stages: number;
-  readings: number;
-}
-
 /** The location of each LOCA_ID in the project: found by pit id, or described for adding. */
 async function locationsFor(project: Project, tests: readonly ImportedPlateTest[], described: Map<string, { remarks?: string }>) {
   const existing = await TestLocation.findAll({ where: { projectId: project.id, pitId: [...new Set(tests.map((t) => t.locationId))] } });
@@ -177,7 +166,7 @@ async function locationsFor(project: Project, tests: readonly ImportedPlateTest[
 }
 
 /** Reads an AGS4 file and stores every plate loading test in it as an imported run of the project, in one transaction. */
-export async function ags4Import(user: User, project: Project, text: string, fileName: string | null) {
+export async function ags4Import(user: User, project: Project, text: string, fileName: string | null): Promise<Ags4ImportResult> {
   const outcome = importAgs4(text);
   if (!outcome.ok) throw new Ags4Refused(outcome);
   const described = new Map(outcome.locations.map((l) => [l.id, l]));

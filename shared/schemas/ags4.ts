@@ -26,3 +26,25 @@ export const ags4ImportInput = z.object({
   content: z.string().max(RECORD_LIMITS.bytes, `at most ${RECORD_LIMITS.bytes} characters`).optional(),
 });
 export type Ags4ImportInput = z.infer<typeof ags4ImportInput>;
+
+/** One test an AGS4 import stored, as a completed run. */
+export interface Ags4ImportedTest {
+  runId: number;
+  planId: number;
+  planName: string;
+  locationId: number;
+  pitId: string;
+  /** PLTG_TESN of the test in the file. */
+  reference: string;
+  stages: number;
+  readings: number;
+}
+
+/** The answer to a stored AGS4 import. */
+export interface Ags4ImportResult {
+  tests: Ags4ImportedTest[];
+  /** Pit ids of the test locations the import added to the project. */
+  addedLocations: string[];
+  /** AGS4 groups the file holds that Settlescope does not read. */
+  ignoredGroups: string[];
+}

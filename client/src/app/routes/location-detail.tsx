@@ -7,6 +7,7 @@ import { FormError } from '../../components/form-alert';
 import { PageHeader } from '../../components/page-header';
 import { EmptyState, QueryResult } from '../../components/query-states';
 import { paths } from '../../config/paths';
+import { Ags4Download } from '../../features/ags4/components/ags4-download';
 import { useDeleteLocation } from '../../features/locations/api/delete-location';
 import { locationQueryOptions, useLocation } from '../../features/locations/api/get-location';
 import { LocationSummary } from '../../features/locations/components/location-summary';
@@ -87,7 +88,12 @@ export function LocationDetailRoute() {
                 <Link to={paths.project.href(l.projectId)}>{project.data ? `${project.data.code} ${project.data.name}` : 'Project'}</Link> › test location
               </>
             }
-            actions={<LocationActions location={l} />}
+            actions={
+              <>
+                <Ags4Download of="location" id={l.id} />
+                <LocationActions location={l} />
+              </>
+            }
           />
           <LocationSummary location={l} />
           {canEdit && (

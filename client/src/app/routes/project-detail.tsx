@@ -7,6 +7,7 @@ import { FormError } from '../../components/form-alert';
 import { PageHeader } from '../../components/page-header';
 import { EmptyState, QueryResult } from '../../components/query-states';
 import { paths } from '../../config/paths';
+import { Ags4Download } from '../../features/ags4/components/ags4-download';
 import { locationsQueryOptions, useLocations } from '../../features/locations/api/get-locations';
 import { LocationsTable } from '../../features/locations/components/locations-table';
 import { useDeleteProject } from '../../features/projects/api/delete-project';
@@ -79,7 +80,12 @@ export function ProjectDetailRoute() {
                 <Link to={paths.projects.href()}>Projects</Link> › <span className="font-mono">{p.code}</span>
               </>
             }
-            actions={<ProjectActions project={p} />}
+            actions={
+              <>
+                <Ags4Download of="project" id={p.id} />
+                <ProjectActions project={p} />
+              </>
+            }
           />
           <ProjectFacts project={p} />
           <section aria-labelledby="locations-title">

@@ -3,11 +3,15 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { ApiError, api } from '../../../lib/api-client';
 import { runKeys } from '../../../lib/run-keys';
 
-/** One problem the server found in an imported record: the field, or the CSV line and column. */
+/** One problem the server found in an imported record: the field, the CSV line and column, or the AGS4 line, group, heading and rule. */
 export interface ImportIssue {
   field?: string;
   line?: number;
   column?: string;
+  group?: string;
+  heading?: string;
+  /** The AGS4 rule broken ("8", "10c"…), or "settlescope" for what a test record needs beyond AGS4. */
+  rule?: string;
   message: string;
 }
 
@@ -50,15 +54,14 @@ function requestBody(request: ImportRequest): { body: BodyInit; headers: Record<
 }
 
 /**
- * Posts an import. Unlike other calls it reads the error body itself, because a refused record comes with
- * its list of problems (`issues`), which the shared client does not keep.
+ * Posts to an import route. Unlike other calls it reads the error body itself, because a refused file
+ * comes with its list of problems (`issues`), which the shared client does not keep.
  */
-export async function importRecord(request: ImportRequest): Promise<ImportResult> {
+export async function postImport<T>(url: string, body: BodyInit, headers: Record<string, string>): Promise<T> {
   const { csrfToken } = await api.get<{ csrfToken: string }>('/api/auth/csrf');
-  const { body, headers } = requestBody(request);
   let response: Response;
   try {
-    response = await fetch('/api/imports', {
+    response = await fetch(url, {
       method: 'POST',
       credentials: 'same-origin',
       headers: { accept: 'application/json', 'x-csrf-token': csrfToken, ...headers },
@@ -67,14 +70,20 @@ export async function importRecord(request: ImportRequest): Promise<ImportResult
   } catch {
     throw new ApiError(0, 'network', 'Cannot reach the server. Check the connection and try again.');
   }
-  const parsed = (await response.json().catch(() => null)) as (ApiErrorBody & { issues?: ImportIssue[]; omitted?: number }) | ImportResult | null;
-  if (response.ok) return parsed as ImportResult;
+  const parsed = (await response.json().catch(() => null)) as (ApiErrorBody & { issues?: ImportIssue[]; omitted?: number }) | T | null;
+  if (response.ok) return parsed as T;
   const error = (parsed as ApiErrorBody | null)?.error;
   if (error?.code === 'invalid_record') {
     const rejected = parsed as { issues?: ImportIssue[]; omitted?: number };
     throw new ImportRejected(error.message, rejected.issues ?? [], rejected.omitted ?? 0);
   }
   throw new ApiError(response.status, error?.code ?? `http_${response.status}`, error?.message ?? `The server answered ${response.status}`, error?.field);
+}
+
+/** Posts a record import (JSON, CSV). */
+export function importRecord(request: ImportRequest): Promise<ImportResult> {
+  const { body, headers } = requestBody(request);
+  return postImport<ImportResult>('/api/imports', body, headers);
 }
 
 export function useImportRecord() {

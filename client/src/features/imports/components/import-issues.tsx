@@ -1,9 +1,13 @@
 import type { ImportIssue } from '../api/import-record';
 
 const where = (i: ImportIssue) =>
-  [i.line !== undefined ? `line ${i.line}` : null, i.column ? `column ${i.column}` : null, i.field ?? null].filter(Boolean).join(', ');
+  [i.line !== undefined ? `line ${i.line}` : null, i.group ?? null, i.heading ?? null, i.column ? `column ${i.column}` : null, i.field ?? null]
+    .filter(Boolean)
+    .join(', ');
 
-/** Every problem the server found, by line and column (CSV) or field (JSON), so the file can be mended in one go. */
+const withRule = (i: ImportIssue) => (i.rule && i.rule !== 'settlescope' ? `${i.message} (AGS4 rule ${i.rule})` : i.message);
+
+/** Every problem the server found, by line and column (CSV), field (JSON) or line, group and heading (AGS4), so the file can be mended in one go. */
 export function ImportIssues({ message, issues, omitted }: { message: string; issues: readonly ImportIssue[]; omitted: number }) {
   return (
     <section role="alert" aria-labelledby="import-issues" className="rounded-md border-2 border-alarm-700 bg-alarm-50 p-4 text-alarm-900">
@@ -24,7 +28,7 @@ export function ImportIssues({ message, issues, omitted }: { message: string; is
             // biome-ignore lint/suspicious/noArrayIndexKey: the list is replaced whole, never reordered
             <tr key={n} className="border-t border-alarm-300">
               <td className="pr-4 font-mono">{where(issue) || '—'}</td>
-              <td>{issue.message}</td>
+              <td>{withRule(issue)}</td>
             </tr>
           ))}
         </tbody>
