@@ -11,6 +11,7 @@ import { TestPlan } from '../../server/models/test-plan';
 import { loadRunRecord, rebuildRunRecord } from '../../server/services/run-record';
 import { buildStageSequence } from '../../shared/plans/stages';
 import type { TestRecord } from '../../shared/records/schema';
+import type { RunView } from '../../shared/schemas/runs';
 import { type Client, signedIn, startTestApp, type TestApp } from '../support/api';
 import { recordedRun } from '../support/stored-run';
 
@@ -61,6 +62,54 @@ describe('a run measured with its own set-up', () => {
 
     expect(await rebuildRunRecord(runId)).toEqual(before);
     expect(await loadRunRecord(runId)).toEqual(before);
+  });
+
+  it('applies a calibration recorded mid-run from its event on, and names the certificate', async () => {
+    const serial = async (sn: string) => (await Instrument.findOne({ where: { serialNumber: sn } }))!.id;
+    const gauge = (key: string, xMm: number) => ({ key, role: 'gauge', label: key, profileId: 'manual', gauge: { xMm, yMm: 0, direction: 1, travelMm: 50 } });
+    const rig = await engineer.post('/api/rigs', {
+      name: 'Kit for the mid-run calibration',
+      mode: 'manual',
+      channels: [gauge('d1', 140), gauge('d2', -140), { key: 'p1', role: 'pressure', label: 'Pressure gauge', instrumentId: await serial('PT-5520'), profileId: 'manual', gauge: null }],
+      jackInstrumentId: await serial('JK-50-031'),
+    });
+    expect(rig.status).toBe(201);
+    const plan = await engineer.post('/api/locations/1/plans', {
+      name: 'Mid-run calibration plan',
+      procedureId: 'custom',
+      plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
+      seatingPressureKpa: 7,
+      apparatusWeightKn: 0.5,
+      loading: { mode: 'list', pressuresKpa: [100] },
+      unloadReload: { unloadKpa: [], reload: { mode: 'none' }, repetitionsPerLevel: 1 },
+      holdRule: { kind: 'fixed', durationMin: 5 },
+      readingSchedule: { kind: 'interval', everyMin: 1 },
+      termination: { maxSettlementMm: 50, maxSettlementFractionOfWidth: 0, maxHoldMin: 60 },
+      reaction: { kind: 'kentledge', capacityKn: 100, description: '' },
+      footing: null,
+    });
+    expect(plan.status).toBe(201);
+    const created = (await engineer.post('/api/runs', { planId: plan.body.plan.id, rigId: rig.body.id })).body as RunView;
+    const send = async (command: object) => {
+      const v = (await engineer.get(`/api/runs/${created.id}`)).body as RunView;
+      return engineer.post(`/api/runs/${created.id}/commands`, { version: v.version, command });
+    };
+    expect((await send({ type: 'manual-reading', gauges: { d1: 12.5, d2: 10 }, pressureKpa: 50 })).status).toBe(200);
+    const before = ((await engineer.get(`/api/runs/${created.id}`)).body as RunView).live.pressureKpa!;
+
+    await recalibrateJack(); // the jack now gives twice the force for the same oil pressure
+    let view = (await engineer.get(`/api/runs/${created.id}`)).body as RunView;
+    for (let i = 0; i < 50 && !view.measurement.events.some((e) => e.kind === 'calibration-applied'); i++) {
+      await new Promise((r) => setTimeout(r, 100));
+      view = (await engineer.get(`/api/runs/${created.id}`)).body as RunView;
+    }
+    const applied = view.measurement.events.find((e) => e.kind === 'calibration-applied')!;
+    expect(applied.payload).toMatchObject({ instrumentId: await serial('JK-50-031'), serial: 'JK-50-031', calibrationId: expect.any(Number), afterSeq: view.lastSeq });
+    expect(view.measurement.setup.jack!.calibrationId).not.toBe(applied.payload.calibrationId); // the snapshot keeps the one it started with
+    // The same stored oil pressure now means twice the jack force (q = (F_jack + W)/A, W = 0.5 kN).
+    const area = Math.PI * 0.15 ** 2;
+    expect(view.live.pressureKpa!).toBeCloseTo((2 * (before * area - 0.5) + 0.5) / area, 6);
+    expect((await send({ type: 'stop', reason: 'test over' })).status).toBe(200);
   });
 
   it('measures a run kept before snapshots with the calibrations recorded by its creation, not later ones', async () => {
