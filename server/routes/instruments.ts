@@ -1,9 +1,10 @@
 import path from 'node:path';
 import { idParams } from '../../shared/schemas/common';
-import { calibrationRecordInput, instrumentInput } from '../../shared/schemas/instruments';
+import { calibrationRecordInput, instrumentInput, instrumentPatch } from '../../shared/schemas/instruments';
 import { calibrationRecorded } from '../acquisition/calibration-events';
 import { EDITORS, STAFF } from '../auth/permissions';
 import { notFound } from '../http/errors';
+import { patched } from '../http/patch';
 import { route } from '../http/route';
 import { sendStoredFile, singleUpload, storeUpload, uploadDir } from '../http/uploads';
 import { CalibrationRecord } from '../models/calibration-record';
@@ -66,14 +67,15 @@ export const instrumentRoutes = (dataDir: string) => {
       method: 'patch',
       path: '/api/instruments/:id',
       access: EDITORS,
-      summary: 'Change an instrument',
+      summary: 'Change an instrument (the fields sent; the others keep their values)',
       params: idParams,
-      body: instrumentInput,
+      body: instrumentPatch,
       handler: async ({ params, body, user }) => {
         const instrument = await loadInstrument(params.id);
+        const next = patched(instrumentInput, instrument.toDto(), body);
         const before = instrument.get({ plain: true });
         await audited(
-          (transaction) => instrument.update(body, { transaction }),
+          (transaction) => instrument.update(next, { transaction }),
           () => ({ userId: user!.id, entity: 'instrument', entityId: instrument.id, action: 'updated', before, after: instrument.get({ plain: true }) }),
         );
         return (await loadInstrument(instrument.id)).toDto();

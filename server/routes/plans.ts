@@ -1,9 +1,10 @@
 import { idParams } from '../../shared/schemas/common';
-import { planInput } from '../../shared/schemas/plans';
+import { planInput, planPatch } from '../../shared/schemas/plans';
 import { checkPlan } from '../../shared/plans/checks';
 import { findProfile } from '../../shared/procedures/profiles';
 import { EDITORS, STAFF } from '../auth/permissions';
 import { loadLocation, loadPlan } from '../auth/scope';
+import { patched } from '../http/patch';
 import { route } from '../http/route';
 import { TestLocation } from '../models/test-location';
 import { TestPlan, planColumns } from '../models/test-plan';
@@ -55,15 +56,16 @@ export const planRoutes = [
     method: 'patch',
     path: '/api/plans/:id',
     access: EDITORS,
-    summary: 'Replace a test plan',
+    summary: 'Change a test plan (the fields sent; the others keep their values)',
     params: idParams,
-    body: planInput,
+    body: planPatch,
     handler: async ({ params, body, user }) => {
       const plan = await loadPlan(user!, params.id);
       await assertNoSignedRunFrom({ planId: plan.id });
+      const next = patched(planInput, plan.toInput(), body);
       const before = plan.toDto();
       await audited(
-        (transaction) => plan.update(planColumns(body), { transaction }),
+        (transaction) => plan.update(planColumns(next), { transaction }),
         () => ({ userId: user!.id, entity: 'plan', entityId: plan.id, action: 'updated', before, after: plan.toDto() }),
       );
       return present(plan);

@@ -1,8 +1,9 @@
 import { DEFAULT_DEVICE_PROFILES } from '../../shared/devices/default-profiles';
 import { idParams } from '../../shared/schemas/common';
-import { type RigInput, rigInput } from '../../shared/schemas/instruments';
+import { type RigInput, rigInput, rigPatch } from '../../shared/schemas/instruments';
 import { EDITORS, STAFF } from '../auth/permissions';
 import { badRequest, notFound } from '../http/errors';
+import { patched } from '../http/patch';
 import { route } from '../http/route';
 import { Instrument } from '../models/instrument';
 import { Rig } from '../models/rig';
@@ -69,15 +70,16 @@ export const rigRoutes = [
     method: 'patch',
     path: '/api/rigs/:id',
     access: EDITORS,
-    summary: 'Change a rig',
+    summary: 'Change a rig (the fields sent; the others keep their values)',
     params: idParams,
-    body: rigInput,
+    body: rigPatch,
     handler: async ({ params, body, user }) => {
       const rig = await loadRig(params.id);
-      await assertReferences(body);
+      const next = patched(rigInput, rig.toDto(), body);
+      await assertReferences(next);
       const before = rig.toDto();
       await audited(
-        (transaction) => rig.update(body, { transaction }),
+        (transaction) => rig.update(next, { transaction }),
         () => ({ userId: user!.id, entity: 'rig', entityId: rig.id, action: 'updated', before, after: rig.toDto() }),
       );
       return rig.toDto();

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { calibratedRange } from '../calibration/evaluate';
 import { calibrationSchema } from '../calibration/schema';
-import { optionalText, requiredText } from './common';
+import { optionalText, patchOf, requiredText } from './common';
 
 export const INSTRUMENT_KINDS = ['gauge', 'pressure', 'jack', 'load-cell'] as const;
 export type InstrumentKind = (typeof INSTRUMENT_KINDS)[number];
@@ -25,6 +25,8 @@ export const instrumentInput = z
   .refine((i) => i.rangeMin == null || i.rangeMax == null || i.rangeMin < i.rangeMax, { message: 'must be above rangeMin', path: ['rangeMax'] })
   .refine((i) => i.kind !== 'jack' || i.ratedPressureMpa != null, { message: "a jack needs its rated pressure (from its plate or certificate)", path: ['ratedPressureMpa'] });
 export type InstrumentInput = z.infer<typeof instrumentInput>;
+/** PATCH body: the fields to change; the server checks the whole instrument after merging. */
+export const instrumentPatch = patchOf(instrumentInput);
 
 const isoDate = z.iso.date('a date as YYYY-MM-DD');
 
@@ -115,6 +117,8 @@ export const rigInput = z
     if (!rig.channels.some((c) => c.role === 'gauge')) ctx.addIssue({ code: 'custom', message: 'a rig needs at least one gauge', path: ['channels'] });
   });
 export type RigInput = z.infer<typeof rigInput>;
+/** PATCH body: the fields to change; the server checks the whole rig after merging. */
+export const rigPatch = patchOf(rigInput);
 
 export interface Rig extends RigInput {
   id: number;

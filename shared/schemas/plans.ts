@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { PLATE_SHAPES } from '../domain/plate';
-import { optionalText, requiredText } from './common';
+import { optionalText, patchOf, requiredText } from './common';
 
 const kpa = z.number().min(0).max(20000);
 const positiveMinutes = z.number().positive().max(60 * 24 * 14);
@@ -123,6 +123,8 @@ export const planInput = z.object({
   notes: optionalText(2000),
 });
 export type PlanInput = z.infer<typeof planInput>;
+/** PATCH body: the fields to change (a nested part is replaced whole); the server checks the whole plan after merging. */
+export const planPatch = patchOf(planInput);
 export type PlanDraft = z.input<typeof planInput>;
 
 export interface TestPlan extends PlanInput {
