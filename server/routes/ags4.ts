@@ -10,10 +10,9 @@ import { route } from '../http/route';
 import { singleUpload } from '../http/uploads';
 import { Ags4Refused, type Ags4Scope, ags4Export, ags4Import, locationScope, projectTestsScope, runScope } from '../services/ags4';
 
-/** Sends the checked file; the notes of its stated choices go along in a header as well as in TRAN_REM. */
+/** Sends the checked file (the notes of its stated choices are in its TRAN_REM). */
 async function sendAgs4(res: Response, scope: Ags4Scope, query: Parameters<typeof ags4Export>[1]): Promise<void> {
   const file = await ags4Export(scope, query);
-  res.set('x-ags4-notes', String(file.notes.length));
   // attachment() would set the type from the .ags extension (unknown): set it after.
   res.attachment(file.fileName).type('text/plain').send(file.text);
 }

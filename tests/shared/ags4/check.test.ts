@@ -114,6 +114,15 @@ describe('refusing broken AGS4, each problem named by line, group and heading', 
     expect(problemsOf(unknownCode)).toEqual([expect.objectContaining({ line: locaLine, group: 'LOCA', heading: 'LOCA_TYPE', rule: '16' })]);
   });
 
+  it('a group without DATA rows (rule 2), here ABBR, which also leaves LOCA_TYPE "TP" undefined (rule 16)', () => {
+    const abbrData = lineOf(good, (l) => l.startsWith('"DATA","LOCA_TYPE","TP"'));
+    const lines = good.split('\r\n');
+    lines.splice(abbrData - 1, 1);
+    const problems = problemsOf(lines.join('\r\n'));
+    expect(problems).toContainEqual(expect.objectContaining({ group: 'ABBR', rule: '2', message: 'the group has no DATA rows' }));
+    expect(problems).toContainEqual(expect.objectContaining({ group: 'LOCA', heading: 'LOCA_TYPE', rule: '16' }));
+  });
+
   it('headings out of the dictionary order (rule 7)', () => {
     const text = swapColumns(good, 'PLTG', 'PLTG_PDIA', 'PLTG_SEAT');
     expect(problemsOf(text)).toEqual([expect.objectContaining({ group: 'PLTG', heading: 'PLTG_PDIA', rule: '7' })]);
