@@ -135,6 +135,9 @@ function moduli(a: RecordAnalysis): string[] {
     finding('k, 750/762 mm plate', sg.standardPlate, (s) => `${fixed(s.kMnM3, 2)} MN/m³ (${fixed(s.kPci, 0)} pci): ${s.label}${s.caution ? `. ${s.caution}` : ''}`),
     finding('Ev1 / Ev2 / Ev2÷Ev1', a.deformationModuli, (d) => `${fixed(d.ev1.evMnM2, 1)} / ${fixed(d.ev2?.evMnM2, 1)} MN/m² / ${fixed(d.ratio, 2)}`),
     ...(a.deformationModuli.applies ? [`    ${a.deformationModuli.result.statement}`] : []),
+    ...(a.deformationModuli.applies
+      ? [finding('Ev acceptance', a.evAcceptance, (v) => `${v.passed ? 'met' : 'NOT met'} (${v.name}): ${v.checks.map((c) => c.message).join(' ')}`)]
+      : []),
     finding('Elastic modulus E', a.elasticModulus, (e) => `${fixed(e.eMpa, 1)} MPa (ν = ${e.poisson}, secant ${fixed(e.fromKpa, 0)}–${fixed(e.toKpa, 0)} kPa)`),
     finding('Unload–reload modulus E_ur', a.unloadReloadModulus, (e) => `${fixed(e.eMpa, 1)} MPa (ν = ${e.poisson}, unloading ${fixed(e.toKpa, 0)}→${fixed(e.fromKpa, 0)} kPa)`),
   ];

@@ -15,6 +15,9 @@ const DESIGN_FLAGS = {
   'column-load': 'columnLoadKn',
   application: 'kApplication',
   'ev-convention': 'evConvention',
+  'ev2-required': 'evRequiredMnM2',
+  'ev-ratio-max': 'evMaxRatio',
+  'ev-relax': 'evRelaxFraction',
 } as const satisfies Record<string, keyof InterpretationSettings>;
 
 /** The method names the command line takes, for the methods' own keys. */
@@ -42,7 +45,10 @@ export const DESIGN_USAGE = `Design inputs (optional; the record's footing other
   --unit-weight KN_M3      unit weight of the soil above the base, kN/m³
   --column-load KN         column load: the square footing width that keeps the settlement limit
   --application N          repeated loading: which application of each level gives k (default the procedure's)
-  --ev-convention NAME     first-loading or each-branch (σ0max of Ev2)`;
+  --ev-convention NAME     first-loading or each-branch (σ0max of Ev2)
+  --ev2-required MN_M2     the contract's required Ev2: checks Ev2 and Ev2/Ev1 against it
+  --ev-ratio-max R         the contract's largest Ev2/Ev1
+  --ev-relax F             a higher ratio is accepted when Ev1 ≥ F × the required Ev2`;
 
 export const DESIGN_OPTIONS = Object.fromEntries(Object.keys(DESIGN_FLAGS).map((flag) => [flag, { type: 'string' as const }])) as Record<
   keyof typeof DESIGN_FLAGS,

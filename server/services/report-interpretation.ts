@@ -75,6 +75,8 @@ function moduli(w: SectionWriter, a: RecordAnalysis): void {
   if (sg.atSettlement.applies)
     finding(w, 'k, 750/762 mm plate', sg.standardPlate, (s) => `${fmt(s.kMnM3, 1)} MN/m³: ${s.label} (${s.formula}; ${s.source})${s.caution ? `. ${s.caution}` : ''}`);
   finding(w, 'Deformation moduli', a.deformationModuli, (m) => `Ev1 ${fmt(m.ev1.evMnM2, 1)} MN/m², Ev2 ${fmt(m.ev2?.evMnM2, 1)} MN/m², Ev2/Ev1 ${fmt(m.ratio, 2)}; ${m.statement} (${m.source})`);
+  if (a.deformationModuli.applies)
+    finding(w, 'Ev acceptance', a.evAcceptance, (v) => `${v.passed ? 'met' : 'NOT met'} (${v.name}): ${v.checks.map((c) => c.message).join(' ')}`);
   finding(w, 'Elastic modulus', a.elasticModulus, (e) => `${fmt(e.eMpa, 1)} MPa (ν = ${e.poisson}; ${e.source})`);
   finding(w, 'Unload–reload modulus', a.unloadReloadModulus, (e) => `${fmt(e.eMpa, 1)} MPa, unloading ${fmt(e.toKpa, 0)} to ${fmt(e.fromKpa, 0)} kPa (ν = ${e.poisson}; ${e.source})`);
 }

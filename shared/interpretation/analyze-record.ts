@@ -12,7 +12,15 @@ import {
   shearAllowable,
 } from './allowable';
 import { type CurvePoint, checkLoadingCurve, settlementAtPressure } from './curve';
-import { type DeformationModuli, deformationModuli, evBranchesFromStages, type Sigma0MaxConvention } from './deformation-modulus';
+import {
+  checkEvRequirement,
+  type DeformationModuli,
+  deformationModuli,
+  type EvAcceptance,
+  type EvRequirement,
+  evBranchesFromStages,
+  type Sigma0MaxConvention,
+} from './deformation-modulus';
 import { type ElasticModulus, rigidPlateModulus } from './elastic';
 import { InterpretationInputError, requireInRange } from './input-checks';
 import { type MethodGroup, type ProcedureReading, procedureReading } from './procedure-methods';
@@ -66,6 +74,8 @@ export interface AnalyzeRecordOptions {
   kSettlementMm?: number;
   /** Column load on a square footing, kN: when given, the footing width that keeps the settlement within the limit. */
   columnLoadKn?: number;
+  /** The contract's Ev requirement: when given, Ev2 and Ev2/Ev1 are checked against it. */
+  evRequirement?: EvRequirement;
 }
 
 /** The origin of the load–settlement curve: the seating point, where the gauges were zeroed. */
@@ -168,6 +178,8 @@ export interface RecordAnalysis {
   footing: Finding<FootingAnalysis>;
   subgradeModulus: SubgradeAnalysis;
   deformationModuli: Finding<StatedModuli>;
+  /** Ev2 and Ev2/Ev1 against the contract's requirement entered by the engineer. */
+  evAcceptance: Finding<EvAcceptance>;
   elasticModulus: Finding<SecantElasticModulus>;
   /** E on unloading (bearing tests): the soil's stiffness on reloading. */
   unloadReloadModulus: Finding<SecantElasticModulus>;
@@ -537,6 +549,13 @@ export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions 
     });
   };
 
+  const moduli = deformation();
+  const evAcceptance: Finding<EvAcceptance> = !moduli.applies
+    ? notApplicable(moduli.reason)
+    : options.evRequirement === undefined
+      ? notApplicable('no requirement entered: give the contract’s Ev2 (and Ev2/Ev1 limit) to check against')
+      : attempt(() => checkEvRequirement(moduli.result, options.evRequirement as EvRequirement));
+
   const cycles: Finding<LoadCycle[]> = (() => {
     const hidden = shown('cycles');
     if (hidden !== null) return notApplicable(hidden);
@@ -576,7 +595,8 @@ export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions 
       atPressure,
       standardPlate,
     },
-    deformationModuli: deformation(),
+    deformationModuli: moduli,
+    evAcceptance,
     elasticModulus: run('elasticModulus', () => secantElasticModulus(firstLoading, plate, poisson, options.elasticRange ?? [0.3, 0.7])),
     unloadReloadModulus: run('ultimate', () => unloadModulus(points, plate, poisson)),
     cycles,

@@ -32,6 +32,16 @@ export function applyDesignInputs(record: TestRecord, o: InterpretationSettings)
       ...(o.evConvention ? { evConvention: o.evConvention } : {}),
       ...(o.columnLoadKn !== undefined ? { columnLoadKn: o.columnLoadKn } : {}),
       ...(o.kApplication !== undefined ? { kApplication: o.kApplication } : {}),
+      ...(o.evRequiredMnM2 !== undefined
+        ? {
+            evRequirement: {
+              name: 'the contract’s requirement as entered',
+              minEv2MnM2: o.evRequiredMnM2,
+              ...(o.evMaxRatio !== undefined ? { maxRatio: o.evMaxRatio } : {}),
+              ...(o.evRelaxFraction !== undefined ? { relaxWhenEv1AtLeastFractionOfRequiredEv2: o.evRelaxFraction } : {}),
+            },
+          }
+        : {}),
     },
   };
 }

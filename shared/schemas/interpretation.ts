@@ -49,6 +49,12 @@ export const interpretationSettings = z.strictObject({
   ultimateMethod: z.enum(ULTIMATE_METHODS).optional(),
   /** σ0max convention of Ev2 (DIN 18134). */
   evConvention: z.enum(['firstLoadingMax', 'branchMax']).optional(),
+  /** The contract's required Ev2, MN/m²: gives the Ev acceptance check. */
+  evRequiredMnM2: numeric(z.number().positive().max(1000)).optional(),
+  /** The contract's largest Ev2/Ev1; absent = no ratio requirement. */
+  evMaxRatio: numeric(z.number().min(1).max(10)).optional(),
+  /** A higher ratio is accepted when Ev1 ≥ this fraction × the required Ev2 (as some contracts allow). */
+  evRelaxFraction: numeric(z.number().positive().max(1)).optional(),
   /** Which application of each load level gives the loading curve and k (repeated loading). */
   kApplication: numeric(z.number().int().min(1).max(20)).optional(),
 });

@@ -1,7 +1,7 @@
 import { allowableBearingPressure, settlementAllowable, shearAllowable } from '@shared/interpretation/allowable';
 import { analyzeRecord, cautionsFor, type RecordAnalysis, STANDING_CAUTIONS } from '@shared/interpretation/analyze-record';
 import { settlementAtPressure } from '@shared/interpretation/curve';
-import { deformationModuli, evBranchesFromStages } from '@shared/interpretation/deformation-modulus';
+import { checkEvRequirement, deformationModuli, evBranchesFromStages } from '@shared/interpretation/deformation-modulus';
 import { rigidPlateModulus } from '@shared/interpretation/elastic';
 import { reduceStages, stageSettlementSeries } from '@shared/interpretation/reduction';
 import { footingUltimatePressure, scalingWarnings } from '@shared/interpretation/scaling';
@@ -184,6 +184,13 @@ describe('analyzeRecord on the two-cycle modulus test (300 mm circular plate)', 
     expect(moduli.statement).toBe('300 mm circular plate; σ0max of the first loading for Ev1 and Ev2 (σ0max = 500 kPa); stages read 2 min after each target was reached.');
     expect(moduli.ev1.evMnM2).toBeGreaterThan(0);
     expect(moduli.ratio).toBeGreaterThan(1);
+  });
+
+  it('checks Ev2 and Ev2/Ev1 against the requirement the engineer enters, and asks for one otherwise', () => {
+    const requirement = { name: 'contract', minEv2MnM2: 45, maxRatio: 2.2 }; // invented contract values
+    const checked = analyzeRecord(record, { evRequirement: requirement });
+    expect(result(checked.evAcceptance)).toEqual(checkEvRequirement(result(checked.deformationModuli), requirement));
+    expect(reason(analysis.evAcceptance)).toMatch(/^no requirement entered/);
   });
 
   it('shows no bearing methods on a modulus test, and says why', () => {

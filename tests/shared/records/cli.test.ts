@@ -48,6 +48,7 @@ const ANALYSIS_KEYS = [
   'footing',
   'subgradeModulus',
   'deformationModuli',
+  'evAcceptance',
   'elasticModulus',
   'unloadReloadModulus',
   'cycles',
@@ -97,7 +98,9 @@ describe('npm run analyze', { timeout: 30_000 }, () => {
     expect(sand.stdout).toContain('  Procedure                             Bearing test — maintained load, granular soil');
     expect(sand.stdout).toContain('    q_ult/q_max: over the largest pressure tested (600.0 kPa); above 1 lies beyond the test');
     expect(sand.stdout).toMatch(/Carried to the footing checks {9}Failure not reached: q_ult ≥ 600\.0 kPa/);
-    const modulus = await analyze(`${FIXTURES}/modulus-two-cycle-300.json`);
+    const modulus = await analyze(`${FIXTURES}/modulus-two-cycle-300.json`, '--ev2-required', '45', '--ev-ratio-max', '2.2');
+    const acceptance = result(analyzeRecord(fixtureRecord('modulus-two-cycle-300.json'), { evRequirement: { name: 'the contract’s requirement as entered', minEv2MnM2: 45, maxRatio: 2.2 } }).evAcceptance);
+    expect(modulus.stdout).toContain(acceptance.checks.map((c) => c.message).join(' '));
     expect(modulus.stdout).toContain('    300 mm circular plate; σ0max of the first loading for Ev1 and Ev2 (σ0max = 500 kPa); stages read 2 min after each target was reached.');
     expect(modulus.stdout).toMatch(/Ultimate pressure of the plate\n {2}All methods {27}not shown for this procedure/);
   });

@@ -20,7 +20,7 @@ function SubgradeView({ title, k }: { title: string; k: LabelledModulus }) {
 
 /** k labelled with its plate (and the 750/762 mm value only as measured or by a named conversion), Ev1/Ev2 with plate and convention, and E from the first loading. */
 export function ModuliPanel({ analysis }: { analysis: RecordAnalysis }) {
-  const { subgradeModulus: sg, deformationModuli, elasticModulus, unloadReloadModulus } = analysis;
+  const { subgradeModulus: sg, deformationModuli, evAcceptance, elasticModulus, unloadReloadModulus } = analysis;
   return (
     <div className="grid gap-5 lg:grid-cols-2">
       <div>
@@ -57,6 +57,13 @@ export function ModuliPanel({ analysis }: { analysis: RecordAnalysis }) {
               </p>
               <p className="text-sm">{d.statement}</p>
               <Provenance formula={d.formula} source={d.source} />
+              <FindingView finding={evAcceptance}>
+                {(v) => (
+                  <p className={v.passed ? '' : 'font-semibold'}>
+                    Requirement {v.passed ? 'met' : 'NOT met'} ({v.name}): {v.checks.map((c) => c.message).join(' ')}
+                  </p>
+                )}
+              </FindingView>
             </>
           )}
         </FindingView>

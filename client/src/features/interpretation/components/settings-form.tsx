@@ -49,6 +49,9 @@ export function SettingsForm({ settings, onApply, busy }: { settings: Interpreta
         {...field('ultimateMethod')}
       />
       <SelectField label="Ev2 σ0max convention" options={EV} placeholder="First loading (default)" {...field('evConvention')} />
+      <NumberField label="Required Ev2" unit="MN/m²" hint="The contract’s value: checks Ev2 and Ev2/Ev1" {...field('evRequiredMnM2')} />
+      <NumberField label="Largest Ev2/Ev1" hint="The contract’s limit; empty: none" {...field('evMaxRatio')} />
+      <NumberField label="Ratio relaxed when Ev1 ≥" hint="Fraction of the required Ev2, if the contract allows" {...field('evRelaxFraction')} />
       <div className="flex items-end">
         <Button type="submit" busy={busy} busyLabel="Working…" disabled={Object.keys(errors).length > 0}>
           Apply settings

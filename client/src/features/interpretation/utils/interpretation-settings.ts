@@ -32,6 +32,9 @@ export const EMPTY_DRAFT: SettingsDraft = {
   ultimateMethod: '',
   evConvention: '',
   kApplication: '',
+  evRequiredMnM2: '',
+  evMaxRatio: '',
+  evRelaxFraction: '',
 };
 
 /** [lowest, highest, whether the lowest itself is allowed, whole numbers only], as the server's schema checks them. */
@@ -44,6 +47,9 @@ const NUMBER_FIELDS: Partial<Record<keyof InterpretationSettings, readonly [numb
   unitWeightKnM3: [0, 30, true],
   columnLoadKn: [0, 100_000, false],
   kApplication: [1, 20, true, true],
+  evRequiredMnM2: [0, 1000, false],
+  evMaxRatio: [1, 10, true],
+  evRelaxFraction: [0, 1, false],
 };
 
 /** Settings from the form, or the problem of each field that is not a usable number (ranges as the server checks them). */
