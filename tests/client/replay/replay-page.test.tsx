@@ -17,9 +17,9 @@ describe('replay page', () => {
     renderWithProviders(<ReplayPage runId={7} />);
     const stages = await screen.findByRole('list', { name: 'Stages' });
     expect(within(stages).getAllByRole('listitem').map((li) => li.getAttribute('aria-label'))).toEqual([
-      'Stage 0, target 7 kPa, from 0:00:00',
-      'Stage 1, target 100 kPa, from 0:10:00',
-      'Stage 2, target 200 kPa, from 0:33:20',
+      'Stage 1, target 7 kPa, from 0:00:00',
+      'Stage 2, target 100 kPa, from 0:10:00',
+      'Stage 3, target 200 kPa, from 0:33:20',
     ]);
     const marks = screen.getByRole('list', { name: 'Events and alarms' });
     expect(within(marks).getByRole('button', { name: 'Note: Kentledge settled at 0:15:00' })).toBeTruthy();
@@ -39,7 +39,7 @@ describe('replay page', () => {
     expect(within(state).getByText('Oil pressure').nextSibling?.textContent).toBe('14.50bar');
     const log = within(state).getByRole('list', { name: 'Events so far' });
     expect(within(log).getByText('Note: Kentledge settled')).toBeTruthy();
-    expect(within(log).getByText('Alarm raise: Gauge travel low')).toBeTruthy();
+    expect(within(log).getByText('Alarm raised: Gauge travel low')).toBeTruthy();
     expect(within(log).queryByText('Run completed')).toBeNull();
   });
 

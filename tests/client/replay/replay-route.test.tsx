@@ -11,7 +11,7 @@ describe('replay address', () => {
   it('is linked from each finished run on the run board', () => {
     renderWithProviders(
       <RunBoard
-        runs={[{ id: 7, phase: 'completed', planId: 31, planName: 'TP-4 bearing test', pitId: 'TP-4', projectCode: 'LD-22', rigName: 'Larkfield rig B', stageIndex: 3, stageCount: 4, verdict: null, activeAlarms: 0, startedAt: '2026-03-04T08:00:00Z', finishedAt: '2026-03-04T09:00:00Z' }]}
+        runs={[{ id: 7, phase: 'completed', planId: 31, planName: 'TP-4 bearing test', pitId: 'TP-4', projectCode: 'LD-22', rigName: 'Larkfield rig B', stageIndex: 3, stageCount: 4, verdict: null, activeAlarms: 0, startedAt: '2026-03-04T08:00:00Z', finishedAt: '2026-03-04T09:00:00Z', review: { state: 'draft', interpreted: true } }]}
       />,
     );
     const finished = screen.getByRole('list', { name: 'Finished runs' });

@@ -1,6 +1,7 @@
 import { useRef } from 'react';
 import type uPlot from 'uplot';
 import { LiveChart } from '../../../components/live-chart';
+import { formatTimeOfDay } from '../../../lib/format';
 import type { EnvelopeData } from '../utils/timeline';
 
 export interface ReplayChartProps {
@@ -21,7 +22,8 @@ export function ReplayChart({ data, dataVersion, cursorMs, pressureUnit, onZoom 
   const options = useRef<Omit<uPlot.Options, 'width' | 'height'>>({
     scales: { x: { time: true }, mm: { dir: -1 } },
     series: [
-      {},
+      // The legend's time on the 24-hour clock (uPlot's own is am/pm).
+      { label: 'Time', value: (_u, v) => (v == null ? '—' : formatTimeOfDay(v * 1000, true)) },
       { label: 'Mean settlement, low (mm)', scale: 'mm', stroke: '#171717', width: 1 },
       { label: 'Mean settlement, high (mm)', scale: 'mm', stroke: '#171717', width: 1 },
       { label: `Oil pressure, low (${pressureUnit})`, scale: 'p', stroke: '#525252', width: 1, dash: [4, 4] },
@@ -31,7 +33,12 @@ export function ReplayChart({ data, dataVersion, cursorMs, pressureUnit, onZoom 
       { series: [2, 1], fill: 'rgba(23,23,23,0.25)' },
       { series: [4, 3], fill: 'rgba(82,82,82,0.12)' },
     ],
-    axes: [{}, { scale: 'mm', label: 'Mean settlement (mm)' }, { scale: 'p', side: 1, label: `Oil pressure (${pressureUnit})`, grid: { show: false } }],
+    // Times of day on the 24-hour clock, with seconds once ticks are closer than a minute.
+    axes: [
+      { values: (_u, splits, _axis, _space, incr) => splits.map((v) => formatTimeOfDay(v * 1000, incr < 60)) },
+      { scale: 'mm', label: 'Mean settlement (mm)' },
+      { scale: 'p', side: 1, label: `Oil pressure (${pressureUnit})`, grid: { show: false } },
+    ],
     // Dragging selects a span to fetch in detail, rather than stretching the coarse overview.
     cursor: { drag: { x: true, y: false, setScale: false } },
     hooks: {

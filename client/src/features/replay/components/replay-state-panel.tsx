@@ -1,6 +1,14 @@
+import { describeRunEvent } from '@shared/runs/event-text';
+import { formatPlanned } from '@shared/units/format';
 import { formatNumber, Readout } from '../../../components/readout';
 import type { ReplayEvent } from '../api/replay-api';
-import { eventLabel, formatElapsed, type StageSpan } from '../utils/timeline';
+import { formatElapsed, type StageSpan } from '../utils/timeline';
+
+/** An event in words, as the console's log writes it. */
+function eventWords(e: ReplayEvent): string {
+  const { title, detail } = describeRunEvent(e);
+  return detail ? `${title}: ${detail}` : title;
+}
 
 export interface ReplayStatePanelProps {
   fromMs: number;
@@ -20,8 +28,13 @@ export function ReplayStatePanel({ fromMs, tMs, stage, pressure, pressureKpa, me
   return (
     <section aria-label="State at the replay time" className="flex flex-col gap-3">
       <div className="grid grid-cols-2 gap-2 sm:grid-cols-5">
-        <Readout label="Stage" value={stage ? String(stage.stageIndex) : '—'} />
-        <Readout label={stage ? (holding ? 'Target (holding)' : 'Target (loading)') : 'Target'} value={stage ? String(stage.targetKpa) : '—'} unit="kPa" />
+        {/* Counted from 1, as the console counts them. */}
+        <Readout label="Stage" value={stage ? String(stage.stageIndex + 1) : '—'} />
+        <Readout
+          label={stage ? (holding ? 'Target (holding)' : 'Target (loading)') : 'Target'}
+          value={stage ? formatPlanned(stage.targetKpa, 'kPa') : '—'}
+          unit="kPa"
+        />
         <Readout label="Oil pressure" value={formatNumber(pressure?.value, 2)} unit={pressure?.unit} />
         <Readout label="Plate pressure" value={formatNumber(pressureKpa, 1)} unit="kPa" />
         <Readout label="Mean settlement" value={formatNumber(meanSettlementMm, 2)} unit="mm" />
@@ -35,7 +48,7 @@ export function ReplayStatePanel({ fromMs, tMs, stage, pressure, pressureKpa, me
             {events.map((e) => (
               <li key={e.id} className={`flex gap-3 px-3 py-1 ${e.kind.startsWith('alarm-') ? 'font-semibold text-alarm-900' : ''}`}>
                 <span className="font-mono">{formatElapsed(e.atMs - fromMs)}</span>
-                <span>{eventLabel(e)}</span>
+                <span>{eventWords(e)}</span>
               </li>
             ))}
           </ol>

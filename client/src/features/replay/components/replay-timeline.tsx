@@ -1,3 +1,4 @@
+import { formatPlanned } from '@shared/units/format';
 import { Button } from '../../../components/button';
 import { REPLAY_SPEEDS, type ReplaySpeed } from '../utils/use-playback';
 import { formatElapsed, type StageSpan, type TimelineMark } from '../utils/timeline';
@@ -27,12 +28,12 @@ export function ReplayTimeline({ fromMs, toMs, tMs, stages, marks, playing, spee
         {stages.map((s) => (
           <li
             key={`${s.stageIndex}-${s.fromMs}`}
-            aria-label={`Stage ${s.stageIndex}, target ${s.targetKpa} kPa, from ${formatElapsed(s.fromMs - fromMs)}`}
-            title={`Stage ${s.stageIndex} · ${s.targetKpa} kPa`}
+            aria-label={`Stage ${s.stageIndex + 1}, target ${formatPlanned(s.targetKpa, 'kPa')} kPa, from ${formatElapsed(s.fromMs - fromMs)}`}
+            title={`Stage ${s.stageIndex + 1} · ${formatPlanned(s.targetKpa, 'kPa')} kPa`}
             className="absolute inset-y-0 overflow-hidden border-l-2 border-neutral-700 bg-neutral-200 px-1 text-xs leading-7"
             style={{ left: pct(s.fromMs, fromMs, toMs), width: `calc(${pct(s.toMs, fromMs, toMs)} - ${pct(s.fromMs, fromMs, toMs)})` }}
           >
-            {s.targetKpa}
+            {formatPlanned(s.targetKpa, 'kPa')}
           </li>
         ))}
       </ol>
@@ -53,7 +54,15 @@ export function ReplayTimeline({ fromMs, toMs, tMs, stages, marks, playing, spee
         <span className="font-semibold">
           Run time <span className="font-mono">{formatElapsed(tMs - fromMs)}</span>
         </span>
-        <input type="range" aria-label="Replay time" min={0} max={toMs - fromMs} step={1000} value={tMs - fromMs} onChange={(e) => onSeek(fromMs + Number(e.target.value))} />
+        <input
+          type="range"
+          aria-label="Replay time"
+          min={0}
+          max={toMs - fromMs}
+          step={1000}
+          value={tMs - fromMs}
+          onChange={(e) => onSeek(fromMs + Number(e.target.value))}
+        />
       </label>
       <div className="flex flex-wrap items-center gap-2">
         <Button variant="secondary" onClick={() => onSeek(fromMs)}>
