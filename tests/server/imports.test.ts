@@ -61,7 +61,7 @@ describe('importing the fixture records', () => {
 describe('bad imports leave nothing behind', () => {
   it('names the line of a bad CSV row and creates nothing', async () => {
     const lines = sandCsv.split('\n');
-    const header = lines.findIndex((l) => l.startsWith('stage,'));
+    const header = lines.findIndex((l) => l.startsWith('"stage",'));
     const bad = header + 3; // 0-based index of the third reading row
     lines[bad] = lines[bad].replace(/,[^,]*$/, ',abc');
     const before = await counts();

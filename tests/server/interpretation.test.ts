@@ -56,12 +56,13 @@ describe('an imported run', () => {
     const res = await operator.get(`/api/runs/${importedRunId}/stage-points.csv`);
     expect(res.status).toBe(200);
     const lines = res.text.trim().split('\n');
-    expect(lines[0]).toBe('stage,branch,t_min,pressure_kpa,settlement_mm,cut_short,g1,g2,g3,g4');
+    // Text cells are quoted, numbers bare (spreadsheet-safe export).
+    expect(lines[0]).toBe('"stage","branch","t_min","pressure_kpa","settlement_mm","cut_short","g1","g2","g3","g4"');
     expect(lines).toHaveLength(1 + sand.stages.length);
     const points = analyzeRecord(sand).reduction.points;
     lines.slice(1).forEach((line, i) => {
       const [stage, branch, , pressure, settlement] = line.split(',');
-      expect([Number(stage), branch]).toEqual([points[i].index, points[i].branch]);
+      expect([Number(stage), JSON.parse(branch)]).toEqual([points[i].index, points[i].branch]);
       expect(Number(pressure)).toBeCloseTo(points[i].pressureKpa, 9);
       expect(Number(settlement)).toBeCloseTo(points[i].settlementMm, 9);
     });
