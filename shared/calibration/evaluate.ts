@@ -59,6 +59,28 @@ export function inCalibratedRange(calibration: Calibration, x: number): boolean 
   return x >= lo && x <= hi;
 }
 
+/** Where a reading lies outside the calibrated span: the side and the end it passed. */
+export interface OutsideSpan {
+  side: 'below' | 'above';
+  limit: number;
+  range: [number, number];
+}
+
+/**
+ * Whether a reading lies outside the calibrated span, allowing `marginFraction` of the span beyond
+ * either end (an instrument at rest reads a little either side of its zero); null when inside, or when
+ * the calibration has no finite span.
+ */
+export function outsideCalibratedSpan(calibration: Calibration, x: number, marginFraction = 0.01): OutsideSpan | null {
+  const range = calibratedRange(calibration);
+  const [lo, hi] = range;
+  if (!Number.isFinite(hi - lo)) return null;
+  const margin = marginFraction * (hi - lo);
+  if (x < lo - margin) return { side: 'below', limit: lo, range };
+  if (x > hi + margin) return { side: 'above', limit: hi, range };
+  return null;
+}
+
 /** Branch state of one input: the current branch and the extreme reached on it. */
 export interface BranchState {
   branch: Branch;

@@ -1,4 +1,4 @@
-import { calibratedRange } from '../calibration/evaluate';
+import { calibratedRange, outsideCalibratedSpan } from '../calibration/evaluate';
 import type { Calibration } from '../calibration/schema';
 import { InterpretationInputError, requireFinite, requireInRange, requireNonNegative, requirePositive } from '../interpretation/input-checks';
 import { type GaugeAtPosition, meanSettlement, planeFitTilt, type Tilt, tiltBetweenGauges } from '../interpretation/reduction';
@@ -328,12 +328,12 @@ export interface CalibratedRangeInput {
  */
 export function calibratedRangeAlarm(input: CalibratedRangeInput): Alarm | null {
   const [lo, hi] = calibratedRange(input.calibration);
-  if (!Number.isFinite(lo) && !Number.isFinite(hi)) return null;
+  if (!Number.isFinite(hi - lo)) return null;
   const reading = requireFinite(input.reading, 'reading');
   const unit = input.calibration.inputUnit;
-  const margin = Number.isFinite(hi - lo) ? requireNonNegative(input.marginFraction ?? 0.01, 'marginFraction') * (hi - lo) : 0;
-  const below = reading < lo - margin;
-  const active = below || reading > hi + margin;
+  const outside = outsideCalibratedSpan(input.calibration, reading, requireNonNegative(input.marginFraction ?? 0.01, 'marginFraction'));
+  const below = outside?.side === 'below';
+  const active = outside !== null;
   const span = `${lo}–${hi} ${unit}`;
   return {
     code: 'outside-calibration',

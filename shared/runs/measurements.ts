@@ -3,7 +3,7 @@
  * direction and reset offsets applied), their mean and tilt, and the mean pressure under the plate
  * from the jack's oil pressure through its calibration plus the apparatus weight (DOMAIN §B.1).
  */
-import { type Branch, applyCalibration } from '../calibration/evaluate';
+import { type Branch, applyCalibration, outsideCalibratedSpan } from '../calibration/evaluate';
 import { inverseCalibration, OutsideCalibratedRange } from '../calibration/inverse';
 import type { Calibration } from '../calibration/schema';
 import { convertPressure, isPressureUnit } from '../calibration/units';
@@ -70,7 +70,12 @@ export function measure(setup: MeasurementSetup, latest: ReadonlyMap<string, num
   } else if (oilPressure !== null) {
     const oil = oilToJackUnit(setup, oilPressure);
     if (typeof oil === 'string') pressureProblem = oil;
-    else jackForceKn = Math.max(0, applyCalibration(setup.jack!, oil, branch));
+    else {
+      jackForceKn = Math.max(0, applyCalibration(setup.jack!, oil, branch));
+      // Beyond the jack's certificate the force is the curve extended: shown, never silently.
+      const outside = outsideCalibratedSpan(setup.jack!, oil);
+      if (outside) pressureProblem = `Oil pressure ${Number(oil.toPrecision(4))} ${setup.jack!.inputUnit} is ${outside.side} the jack calibration (${outside.range[0]}–${outside.range[1]} ${setup.jack!.inputUnit}): the plate pressure is extrapolated.`;
+    }
   } else if (!pressureChannel) {
     pressureProblem = 'The rig has no pressure or load channel.';
   }

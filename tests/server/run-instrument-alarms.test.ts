@@ -75,6 +75,7 @@ describe('calibration limits and instrument alarms in a run', () => {
     expect((await send(runId, { type: 'manual-reading', pressureKpa: 10, gauges: { d1: 2.05, d2: 2.05 } })).status).toBe(200);
     expect((await send(runId, { type: 'stage-reached' })).status).toBe(200);
     expect((await alarmsAfterTicks(runId)).filter((a) => INSTRUMENT_CODES.test(a))).toEqual([]);
+    expect((await view(runId)).live.pressureProblem).toBeNull();
 
     let v = await view(runId);
     for (let i = 0; i < 80 && v.phase !== 'hold-met'; i++) {
@@ -90,6 +91,8 @@ describe('calibration limits and instrument alarms in a run', () => {
     // A pressure that reads beyond the calibration (55.3 MPa): alarmed, and the alarm is in the run's record.
     expect((await send(runId, { type: 'manual-reading', pressureKpa: 960, gauges: { d1: 2.4, d2: 2.4 } })).status).toBe(200);
     expect(await alarmsAfterTicks(runId)).toContain('outside-calibration:jack');
+    // The plate pressure is still shown, but flagged as the curve extended, never silently.
+    expect((await view(runId)).live.pressureProblem).toMatch(/^Oil pressure 55\.\d+ MPa is above the jack calibration \(0–50 MPa\): the plate pressure is extrapolated\.$/);
     const raised = (await t.sequelize.query("SELECT payload FROM run_events WHERE run_id = ? AND kind = 'alarm-raise'", { replacements: [runId], type: QueryTypes.SELECT })) as { payload: unknown }[];
     const messages = raised.map((r) => (typeof r.payload === 'string' ? JSON.parse(r.payload) : r.payload) as { key: string; message: string });
     expect(messages.find((m) => m.key === 'outside-calibration:jack')?.message).toMatch(/Oil pressure on jack JK-T50 reads 55\.\d+ MPa, beyond its calibration \(0–50 MPa\)/);

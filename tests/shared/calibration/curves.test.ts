@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { PolynomialRegression } from 'ml-regression-polynomial';
 import { linearRegression } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
-import { applyCalibration, type BranchState, inCalibratedRange, trackBranch } from '@shared/calibration/evaluate';
+import { applyCalibration, type BranchState, inCalibratedRange, outsideCalibratedSpan, trackBranch } from '@shared/calibration/evaluate';
 import { fitCurve, fitPolynomial } from '@shared/calibration/fit';
 import { inverseCalibration, OutsideCalibratedRange } from '@shared/calibration/inverse';
 import { type Calibration, calibrationSchema } from '@shared/calibration/schema';
@@ -262,5 +262,19 @@ describe('inverseCalibration stays inside the calibrated range, whatever the cur
 
   it('a linear curve without a range is not bounded (an ideal ram has no certificate)', () => {
     expect(inverseCalibration(jack({ kind: 'linear', c0: 0, c1: 5 }))(500)).toBe(100);
+  });
+});
+
+describe('outsideCalibratedSpan', () => {
+  const line = jack({ kind: 'linear', c0: 0, c1: 5 }, { range: [0, 50] });
+  it('names the side and the end passed, with 1 % of the span as slack by default', () => {
+    expect(outsideCalibratedSpan(line, 25)).toBeNull();
+    expect(outsideCalibratedSpan(line, 50.4)).toBeNull();
+    expect(outsideCalibratedSpan(line, 50.6)).toEqual({ side: 'above', limit: 50, range: [0, 50] });
+    expect(outsideCalibratedSpan(line, -0.6)).toEqual({ side: 'below', limit: 0, range: [0, 50] });
+    expect(outsideCalibratedSpan(line, 50.1, 0)).toMatchObject({ side: 'above' });
+  });
+  it('has nothing to say of a calibration without a span', () => {
+    expect(outsideCalibratedSpan(jack({ kind: 'linear', c0: 0, c1: 5 }), 1e6)).toBeNull();
   });
 });
