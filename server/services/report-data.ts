@@ -9,6 +9,7 @@ import sharp from 'sharp';
 import { analyzeRecord, type RecordAnalysis } from '../../shared/interpretation/analyze-record';
 import { findProfile, type SettingSource } from '../../shared/procedures/profiles';
 import type { TestRecord } from '../../shared/records/schema';
+import type { RunSetupSnapshot } from '../../shared/runs/measurement-model';
 import type { PlanInput } from '../../shared/schemas/plans';
 import type { PhotoKind } from '../../shared/schemas/photos';
 import type { SignoffView } from '../../shared/schemas/signoff';
@@ -126,15 +127,25 @@ async function reportPhotos(dataDir: string, runId: number, locationId: number):
   );
 }
 
-async function instrumentsOf(rig: Rig | null): Promise<ReportInstrument[]> {
+/**
+ * The instruments a run used: its set-up snapshot's channels and calibration versions when it has one
+ * (a later calibration or rig change is not what the test was measured with), else the rig as it stands.
+ */
+async function instrumentsOf(rig: Rig | null, setup: RunSetupSnapshot | undefined): Promise<ReportInstrument[]> {
   if (!rig) return [];
-  const ids = [...new Set([...rig.channels.map((c) => c.instrumentId), rig.jackInstrumentId].filter((x): x is number => x != null))];
+  const channels = setup?.channels ?? rig.channels;
+  const jackId = setup ? (setup.jack?.instrumentId ?? null) : rig.jackInstrumentId;
+  const ids = [...new Set([...channels.map((c) => c.instrumentId), jackId].filter((x): x is number => x != null))];
   const instruments = new Map((ids.length ? await Instrument.findAll({ where: { id: ids } }) : []).map((i) => [i.id, i]));
   const calibrations = ids.length ? await CalibrationRecord.findAll({ where: { instrumentId: ids }, order: [['calibratedOn', 'DESC']] }) : [];
-  const latest = (id: number) => calibrations.find((c) => c.instrumentId === id) ?? null;
+  const used = (id: number) => {
+    if (!setup) return calibrations.find((c) => c.instrumentId === id) ?? null;
+    const version = setup.instruments.find((v) => v.instrumentId === id)?.calibrationId;
+    return calibrations.find((c) => c.id === version) ?? null;
+  };
   const line = (channel: string, role: string, id: number | null): ReportInstrument => {
     const i = id == null ? undefined : instruments.get(id);
-    const c = id == null ? null : latest(id);
+    const c = id == null ? null : used(id);
     return {
       channel,
       role,
@@ -145,8 +156,8 @@ async function instrumentsOf(rig: Rig | null): Promise<ReportInstrument[]> {
       dueOn: c?.dueOn ?? null,
     };
   };
-  const lines = rig.channels.map((c) => line(c.label, c.role, c.instrumentId));
-  if (rig.jackInstrumentId != null) lines.push(line('Jack', 'jack', rig.jackInstrumentId));
+  const lines = channels.map((c) => line(c.label, c.role, c.instrumentId));
+  if (jackId != null) lines.push(line('Jack', 'jack', jackId));
   return lines;
 }
 
@@ -199,7 +210,7 @@ export async function loadReportData(runId: number, dataDir: string): Promise<Re
     crew,
     plan: { name: plan.name, input, profileName: profile?.name ?? null, profileFamily: profile?.family ?? null, sources: profile?.sources ?? [] },
     rigName: rig?.name ?? null,
-    instruments: await instrumentsOf(rig),
+    instruments: await instrumentsOf(rig, run.state.setup),
     record,
     analysis: saved ? (saved.result as unknown as RecordAnalysis) : analyzeRecord(record),
     interpretation: saved

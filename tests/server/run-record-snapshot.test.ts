@@ -8,6 +8,7 @@ import { loadRigContext, setupSnapshot } from '../../server/acquisition/rig-cont
 import { Instrument } from '../../server/models/instrument';
 import { Run } from '../../server/models/run';
 import { TestPlan } from '../../server/models/test-plan';
+import { loadReportData } from '../../server/services/report-data';
 import { loadRunRecord, rebuildRunRecord } from '../../server/services/run-record';
 import { buildStageSequence } from '../../shared/plans/stages';
 import type { TestRecord } from '../../shared/records/schema';
@@ -56,12 +57,16 @@ describe('a run measured with its own set-up', () => {
     await run.update({ state: { ...run.state, setup: setupSnapshot(plan, buildStageSequence(plan), await loadRigContext(run.rigId!)) } });
     const before = await loadRunRecord(runId);
     expect(before.stages.length).toBe(2);
+    const instrumentsBefore = (await loadReportData(runId, t.config.dataDir)).instruments;
+    expect(instrumentsBefore.find((i) => i.role === 'jack')?.calibrationId).toEqual(expect.any(Number));
 
     await recalibrateJack();
     await flipGauge(runId);
 
     expect(await rebuildRunRecord(runId)).toEqual(before);
     expect(await loadRunRecord(runId)).toEqual(before);
+    // The report (what a signature seals) names the calibration versions the run was measured with.
+    expect((await loadReportData(runId, t.config.dataDir)).instruments).toEqual(instrumentsBefore);
   });
 
   it('applies a calibration recorded mid-run from its event on, and names the certificate', async () => {
