@@ -304,13 +304,16 @@ export function readingsCsvToRecord(text: string, base: RecordBase = {}): Record
   return record === null || issues.size > 0 ? issues.failed() : { ok: true, record };
 }
 
-/** A text cell a spreadsheet would run as a formula (OWASP CSV injection guidance). */
-const FORMULA_START = /^[=+\-@\t\r]/;
+/**
+ * A text cell a spreadsheet would run as a formula (OWASP CSV injection guidance), or one that already
+ * begins with the apostrophe, which is led by another so that one apostrophe off always gives the text back.
+ */
+const FORMULA_START = /^[=+\-@\t\r']/;
 
 /**
  * One cell of an exported CSV, safe to open in a spreadsheet: a finite number is written bare (so it stays
  * a number, negative ones included); anything else is text, always quoted with `"` doubled, and led by an
- * apostrophe when it begins with `=`, `+`, `-`, `@`, tab or CR.
+ * apostrophe when it begins with `=`, `+`, `-`, `@`, tab, CR or an apostrophe.
  */
 export function csvCell(value: string | number | boolean): string {
   if (typeof value === 'number' && Number.isFinite(value)) return String(value);
