@@ -11,9 +11,14 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkAgs4 } from '../../shared/ags4/check';
+import { plateResults } from '../../shared/ags4/plate-export';
+import { timeSlot } from '../../shared/ags4/plate-map';
+import { formatDecimals } from '../../shared/ags4/values';
+import { analyzeRecord } from '../../shared/interpretation/analyze-record';
 import { plateForceKn } from '../../shared/domain/plate';
 import type { TestRecord } from '../../shared/records/schema';
 import { type Client, signedIn, startTestApp, type TestApp } from '../support/api';
+import { recordedRun } from '../support/stored-run';
 import { tableCounts } from '../support/table-counts';
 
 const FIXTURES = path.join(import.meta.dirname, '../fixtures/records');
@@ -75,6 +80,24 @@ describe('exporting the demo tests', () => {
     const empty = await engineer.get(`/api/locations/${locationIds[2]}/ags4`);
     expect(empty.status).toBe(404);
     expect(empty.body.error.code).toBe('no_tests');
+  });
+
+  it('takes PLTG results from the saved interpretation, not a fresh default one', async () => {
+    // Ev2 with σ0max of each branch (DIN 18134's other convention) differs from the default for this test.
+    const record = JSON.parse(fixtures[0]) as TestRecord;
+    const byDefault = plateResults(analyzeRecord(record)).ev2Mpa!;
+    const saved = plateResults(analyzeRecord(record, { evConvention: 'branchMax' })).ev2Mpa!;
+    expect(formatDecimals(saved, 1)).not.toBe(formatDecimals(byDefault, 1));
+    const res = await engineer.post(`/api/runs/${runIds[0]}/interpretations`, {
+      options: { evConvention: 'branchMax' },
+      chosenMethod: 'hyperbolic',
+      reason: 'Ev2 read with each branch’s own σ0max',
+    });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const text = (await engineer.get(`/api/runs/${runIds[0]}/ags4`)).text;
+    // The PLTG row of cycle 2: keys, then PLTG_PDIA 300 mm.
+    const cycle2 = text.split('\r\n').find((l) => l.includes(`"R${runIds[0]}","2","300",`));
+    expect(cycle2).toContain(`"${formatDecimals(saved, 1)}","${formatDecimals(saved, 1)}"`); // PLTG_SMOD, PLTG_EV2
   });
 
   it('is for staff: a client answers 403', async () => {
@@ -200,4 +223,30 @@ describe('the command line', () => {
     expect(refused.stderr).toMatch(/holds 2 plate loading tests/);
     expect((await tsx('server/cli/ags4.ts', ['--location', '99999'])).code).toBe(2);
   }, 120_000);
+});
+
+describe('a recorded run', () => {
+  it('exports a checked file; the import gives back every reading PLTT_TIME can key, and the file counts the others', async () => {
+    const id = await recordedRun(t.sequelize, engineer, 'Recorded run for AGS4');
+    const record = (await engineer.get(`/api/runs/${id}/record`)).body as TestRecord;
+    const res = await engineer.get(`/api/runs/${id}/ags4`);
+    expect(res.status).toBe(200);
+    expect(checkAgs4(res.text).problems).toEqual([]);
+    // Of each stage's readings in the same 0.1 min (PLTT_TIME, 1DP) the last is kept.
+    const kept = record.stages.map((s) => [...new Map(s.readings.map((r) => [timeSlot(r.tMin), r])).values()]);
+    const dropped = record.stages.reduce((n, s, i) => n + s.readings.length - kept[i].length, 0);
+    if (dropped > 0) expect(res.text).toMatch(new RegExp(`R${id} cycle 1: ${dropped} readings? left out`));
+    const imported = await uploadAgs(res.text, thirdProjectId);
+    expect(imported.status, JSON.stringify(imported.body)).toBe(201);
+    const back = (await engineer.get(`/api/runs/${imported.body.tests[0].runId}/record`)).body as TestRecord;
+    expect(back.stages.map((s) => s.readings.length)).toEqual(kept.map((k) => k.length));
+    back.stages.forEach((stage, s) => {
+      stage.readings.forEach((r, k) => {
+        const from = kept[s][k];
+        expect(Math.abs(r.tMin - from.tMin)).toBeLessThanOrEqual(0.0005);
+        expect(Math.abs(r.pressureKpa - from.pressureKpa)).toBeLessThanOrEqual(0.05);
+        for (const key of Object.keys(from.gauges)) expect(Math.abs(r.gauges[key] - from.gauges[key])).toBeLessThanOrEqual(0.005);
+      });
+    });
+  });
 });
