@@ -62,6 +62,13 @@ export function calibrationVersion(rig: RigContext, instrumentId: number): Calib
   return { instrumentId, serial: rig.serials.get(instrumentId) ?? `#${instrumentId}`, calibrationId: rig.calibrationIds.get(instrumentId) ?? null, calibration: rig.calibrations.get(instrumentId) ?? null };
 }
 
+/** The calibration in force for one instrument now, wherever it is fitted; null for an unknown or uncalibrated one. */
+export async function currentCalibrationVersion(instrumentId: number): Promise<CalibrationVersion | null> {
+  const instrument = await Instrument.findByPk(instrumentId, { include: [{ model: CalibrationRecord, as: 'calibrations' }] });
+  const current = instrument?.currentCalibration();
+  return instrument && current ? { instrumentId, serial: instrument.serialNumber, calibrationId: current.id, calibration: current.method } : null;
+}
+
 /** What a run on this rig measures with: taken once, when the run is created, and kept with the run. */
 export function setupSnapshot(plan: PlanInput, stages: readonly PlannedStage[], rig: RigContext): RunSetupSnapshot {
   const pressureChannel = rig.rig.channels.find((c) => c.role === 'pressure');

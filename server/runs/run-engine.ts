@@ -451,7 +451,7 @@ export class RunEngine {
    * run records which certificate, so every view applies it from the same sample on).
    */
   async applyCalibration(version: CalibrationVersion): Promise<void> {
-    if (this.closed || !this.isActive || !this.calibrationIds.has(version.instrumentId)) return;
+    if (this.closed || !this.isActive || !version.calibration || !this.calibrationIds.has(version.instrumentId)) return;
     if (this.calibrationIds.get(version.instrumentId) === version.calibrationId) return;
     const events = this.record([{ kind: 'calibration-applied', atMs: this.nowMs(), userId: null, payload: { ...version } }]);
     this.measurements = this.measure();

@@ -12,7 +12,7 @@ import type { ModelEvent, ModelSample } from '../../shared/runs/measurement-mode
 import type { SampleRow } from '../../shared/runs/samples';
 import { ACTIVE_PHASES, type RunView } from '../../shared/schemas/runs';
 import { onCalibrationRecorded } from '../acquisition/calibration-events';
-import { type RigContext, calibrationVersion, loadRigContext, setupSnapshot } from '../acquisition/rig-context';
+import { type RigContext, currentCalibrationVersion, loadRigContext, setupSnapshot } from '../acquisition/rig-context';
 import { transaction } from '../db/transaction';
 import { badRequest, conflict, notFound } from '../http/errors';
 import { type PersistedRun, Run } from '../models/run';
@@ -52,10 +52,12 @@ export class RunManager {
 
   /** A new calibration of an instrument: every active run using it applies it from now. */
   private async calibrationRecorded(instrumentId: number): Promise<void> {
+    const version = await currentCalibrationVersion(instrumentId);
+    if (!version) return;
     for (const engine of this.engines.values()) {
       if (!engine.isActive) continue;
       try {
-        await engine.applyCalibration(calibrationVersion(await loadRigContext(engine.rigId), instrumentId));
+        await engine.applyCalibration(version);
       } catch (err) {
         debug('calibration of instrument %d for run %d: %s', instrumentId, engine.runId, (err as Error).message);
       }
