@@ -93,6 +93,7 @@ function ultimate(a: RecordAnalysis): string[] {
     ]),
     `  ${STANDING_LEGEND}`,
     line('Carried to the footing checks', a.chosenUltimate.applies ? a.chosenUltimate.result.statement : notApplicable(a.chosenUltimate.reason)),
+    finding('Undrained shear strength', a.undrainedStrength, (c) => c.statement),
   ];
 }
 

@@ -47,6 +47,7 @@ function ultimate(w: SectionWriter, a: RecordAnalysis): void {
   );
   w.para(STANDING_LEGEND, 8);
   finding(w, 'Ultimate pressure carried forward', a.chosenUltimate, (c) => c.statement);
+  if (a.undrainedStrength.applies) w.field('Undrained shear strength', `${a.undrainedStrength.result.statement} (${a.undrainedStrength.result.formula}; ${a.undrainedStrength.result.source})`);
 }
 
 function footing(w: SectionWriter, a: RecordAnalysis): void {

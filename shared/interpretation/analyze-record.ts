@@ -22,6 +22,7 @@ import {
   type Sigma0MaxConvention,
 } from './deformation-modulus';
 import { type ElasticModulus, rigidPlateModulus } from './elastic';
+import { type ClayStrengthResult, undrainedShearStrength } from './clay-strength';
 import { InterpretationInputError, requireInRange } from './input-checks';
 import { type MethodGroup, type ProcedureReading, procedureReading } from './procedure-methods';
 import { type ReductionRule, reduceStages, type StagePoint, type StageReadings, stageSettlementSeries } from './reduction';
@@ -181,6 +182,8 @@ export interface RecordAnalysis {
   /** Ev2 and Ev2/Ev1 against the contract's requirement entered by the engineer. */
   evAcceptance: Finding<EvAcceptance>;
   elasticModulus: Finding<SecantElasticModulus>;
+  /** Undrained shear strength of a clay from the ultimate carried forward (circular plate at the surface); a lower bound when q_ult ≥ q_max is carried. */
+  undrainedStrength: Finding<ClayStrengthResult & { lowerBound: boolean; statement: string }>;
   /** E on unloading (bearing tests): the soil's stiffness on reloading. */
   unloadReloadModulus: Finding<SecantElasticModulus>;
   cycles: Finding<LoadCycle[]>;
@@ -549,6 +552,24 @@ export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions 
     });
   };
 
+  const clayTest = record.plan?.procedureId === 'bearing-cohesive' || footing?.soilBehaviour === 'cohesive';
+  const undrainedStrength: RecordAnalysis['undrainedStrength'] = !chosenUltimate.applies
+    ? notApplicable(chosenUltimate.reason)
+    : !clayTest
+      ? notApplicable('a clay strength needs a clay: a cohesive-soil procedure or footing')
+      : plate.shape !== 'circular'
+        ? notApplicable('N_c = 6 (EN 1997-2 K.1) is given for a circular plate; this plate is square')
+        : attempt(() => {
+            const c = chosenUltimate.result;
+            const cu = undrainedShearStrength({ ultimatePressureKpa: c.qUltKpa, plateDiameterMm: plate.sizeMm, setting: 'surface' });
+            const lowerBound = c.basis === 'lowerBound';
+            return {
+              ...cu,
+              lowerBound,
+              statement: `c_u ${lowerBound ? '≥' : '='} ${f1(cu.cuKpa)} kPa from q_ult ${lowerBound ? '≥' : '='} ${f1(c.qUltKpa)} kPa with N_c = ${cu.nc} (plate at the surface or in a pit wider than its influence).`,
+            };
+          });
+
   const moduli = deformation();
   const evAcceptance: Finding<EvAcceptance> = !moduli.applies
     ? notApplicable(moduli.reason)
@@ -598,6 +619,7 @@ export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions 
     deformationModuli: moduli,
     evAcceptance,
     elasticModulus: run('elasticModulus', () => secantElasticModulus(firstLoading, plate, poisson, options.elasticRange ?? [0.3, 0.7])),
+    undrainedStrength,
     unloadReloadModulus: run('ultimate', () => unloadModulus(points, plate, poisson)),
     cycles,
     timeSettlement: stages.filter((s) => s.branch === 'loading' || s.branch === 'reloading').map((s) => stageTimeSettlement(s, options)),

@@ -282,3 +282,26 @@ describe('reference values behind the limits', () => {
     expectRel(terzaghiPeckSandRatio(0.3, 1000), 4, 0.01);
   });
 });
+
+describe('undrained shear strength of a clay from the ultimate carried forward (EN 1997-2 K.1: c_u = p_u/6 for a circular plate at the surface)', () => {
+  const clayTest = (f: (q: number) => number) =>
+    record('bearing-cohesive', { shape: 'circular', sizeMm: 300 }, [['seating', 0, 0], ...steps(50, 350, 50).map((q) => ['loading', q, f(q)] as [Branch, number, number])]);
+
+  it('c_u = q_ult/6 when the test failed, and a lower bound c_u ≥ q_max/6 when it did not', () => {
+    const failed = analyzeRecord(clayTest((q) => (q <= 250 ? q / 50 : 5 + (q - 250) / 2)));
+    const chosen = result(failed.chosenUltimate);
+    expect(chosen.basis).toBe('lowest');
+    const cu = result(failed.undrainedStrength);
+    expectRel(cu.cuKpa, chosen.qUltKpa / 6);
+    expect(cu.lowerBound).toBe(false);
+    const carried = result(analyzeRecord(clayTest((q) => q / 50)).undrainedStrength);
+    expect(carried.lowerBound).toBe(true);
+    expect(carried.statement).toMatch(/^c_u ≥ 58\.3 kPa from q_ult ≥ 350\.0 kPa with N_c = 6/); // 350/6 [calc]
+  });
+
+  it('is not given on sand or for a square plate, and says why', () => {
+    expect(reason(analyzeRecord(straightLineTo600()).undrainedStrength)).toMatch(/^a clay strength needs a clay/);
+    const square = record('bearing-cohesive', { shape: 'square', sizeMm: 300 }, [['seating', 0, 0], ...steps(50, 300, 50).map((q) => ['loading', q, q / 50] as [Branch, number, number])]);
+    expect(reason(analyzeRecord(square).undrainedStrength)).toMatch(/circular plate; this plate is square$/);
+  });
+});

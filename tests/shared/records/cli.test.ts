@@ -50,6 +50,7 @@ const ANALYSIS_KEYS = [
   'deformationModuli',
   'evAcceptance',
   'elasticModulus',
+  'undrainedStrength',
   'unloadReloadModulus',
   'cycles',
   'timeSettlement',

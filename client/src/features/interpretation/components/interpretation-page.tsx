@@ -65,7 +65,7 @@ export function AnalysisView({ analysis, record }: { analysis: RecordAnalysis; r
         <Provenance formula={analysis.reduction.formula} source={analysis.reduction.source} />
       </Section>
       <Section id="interp-ultimate" title="Ultimate pressure, by method">
-        <UltimateMethodsTable ultimate={analysis.ultimate} chosen={analysis.chosenUltimate} />
+        <UltimateMethodsTable ultimate={analysis.ultimate} chosen={analysis.chosenUltimate} strength={analysis.undrainedStrength} />
       </Section>
       <Section id="interp-footing" title="Footing and allowable bearing pressure">
         <FootingPanel footing={analysis.footing} />

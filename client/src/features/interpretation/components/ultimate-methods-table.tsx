@@ -1,4 +1,4 @@
-import type { ChosenUltimate, Finding } from '@shared/interpretation/analyze-record';
+import type { ChosenUltimate, Finding, RecordAnalysis } from '@shared/interpretation/analyze-record';
 import { type AssessedUltimate, STANDING_LEGEND, STANDING_WORDS } from '@shared/interpretation/ultimate-standing';
 import { DataTable, type DataTableColumns, MonoCell, tableColumns } from '../../../components/data-table';
 import { figure } from './finding';
@@ -27,7 +27,15 @@ const columns: DataTableColumns<Row> = [
 ];
 
 /** Every ultimate-pressure method side by side with its standing against the test, and the value carried to the footing. */
-export function UltimateMethodsTable({ ultimate, chosen }: { ultimate: Finding<AssessedUltimate[]>; chosen: Finding<ChosenUltimate> }) {
+export function UltimateMethodsTable({
+  ultimate,
+  chosen,
+  strength,
+}: {
+  ultimate: Finding<AssessedUltimate[]>;
+  chosen: Finding<ChosenUltimate>;
+  strength?: RecordAnalysis['undrainedStrength'];
+}) {
   if (!ultimate.applies) return <p className="text-neutral-800">No ultimate pressure: {ultimate.reason}</p>;
   return (
     <div className="flex flex-col gap-3">
@@ -42,6 +50,14 @@ export function UltimateMethodsTable({ ultimate, chosen }: { ultimate: Finding<A
           <>No ultimate pressure carried to the footing: {chosen.reason}</>
         )}
       </p>
+      {strength?.applies && (
+        <p>
+          Undrained shear strength: <strong>{strength.result.statement}</strong>{' '}
+          <span className="text-sm text-neutral-700">
+            ({strength.result.formula}; {strength.result.source})
+          </span>
+        </p>
+      )}
     </div>
   );
 }
