@@ -1,5 +1,6 @@
 import { useRef } from 'react';
 import type uPlot from 'uplot';
+import { axisSize, ChartLegend, signedValues, spanAtLeast } from '../../../components/chart-kit';
 import { LiveChart } from '../../../components/live-chart';
 import { formatTimeOfDay } from '../../../lib/format';
 import type { EnvelopeData } from '../utils/timeline';
@@ -20,7 +21,8 @@ export function ReplayChart({ data, dataVersion, cursorMs, pressureUnit, onZoom 
   const latest = useRef({ data, cursorMs, onZoom });
   latest.current = { data, cursorMs, onZoom };
   const options = useRef<Omit<uPlot.Options, 'width' | 'height'>>({
-    scales: { x: { time: true }, mm: { dir: -1 } },
+    // Settlement downwards, at least 0.5 mm tall so noise stays flat (as on the live plots).
+    scales: { x: { time: true }, mm: { dir: -1, range: spanAtLeast(0.5) } },
     series: [
       // The legend's time on the 24-hour clock (uPlot's own is am/pm).
       { label: 'Time', value: (_u, v) => (v == null ? '—' : formatTimeOfDay(v * 1000, true)) },
@@ -36,9 +38,11 @@ export function ReplayChart({ data, dataVersion, cursorMs, pressureUnit, onZoom 
     // Times of day on the 24-hour clock, with seconds once ticks are closer than a minute.
     axes: [
       { values: (_u, splits, _axis, _space, incr) => splits.map((v) => formatTimeOfDay(v * 1000, incr < 60)) },
-      { scale: 'mm', label: 'Mean settlement (mm)' },
-      { scale: 'p', side: 1, label: `Oil pressure (${pressureUnit})`, grid: { show: false } },
+      { scale: 'mm', label: 'Mean settlement (mm)', values: signedValues, size: axisSize },
+      { scale: 'p', side: 1, label: `Oil pressure (${pressureUnit})`, grid: { show: false }, values: signedValues, size: axisSize },
     ],
+    // Our own legend below the plot says what each line is.
+    legend: { show: false },
     // Dragging selects a span to fetch in detail, rather than stretching the coarse overview.
     cursor: { drag: { x: true, y: false, setScale: false } },
     hooks: {
@@ -69,11 +73,20 @@ export function ReplayChart({ data, dataVersion, cursorMs, pressureUnit, onZoom 
     },
   });
   return (
-    <LiveChart
-      label="Mean settlement and oil pressure over the run, with the replay time marked"
-      options={options.current}
-      version={() => `${dataVersion}|${latest.current.cursorMs}`}
-      read={() => latest.current.data as uPlot.AlignedData}
-    />
+    <div className="flex flex-col gap-1">
+      <LiveChart
+        label="Mean settlement and oil pressure over the run, with the replay time marked"
+        options={options.current}
+        version={() => `${dataVersion}|${latest.current.cursorMs}`}
+        read={() => latest.current.data as uPlot.AlignedData}
+      />
+      <ChartLegend
+        items={[
+          { label: 'Mean settlement, mm (downwards): lowest to highest in each column', color: '#171717', band: true },
+          { label: `Oil pressure, ${pressureUnit}: lowest to highest in each column`, color: '#525252', dashed: true, band: true },
+          { label: 'Replay time', color: '#b91c1c' },
+        ]}
+      />
+    </div>
   );
 }
