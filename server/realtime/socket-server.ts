@@ -53,7 +53,10 @@ export function createSocketServer(httpServer: http.Server, sessionMiddleware: R
   const io = new Server<ClientToServerEvents, ServerToClientEvents>(httpServer, {
     serveClient: false,
     maxHttpBufferSize: 64 * 1024,
-    allowRequest: (req, callback) => callback(sameOrigin(req) ? null : 'origin_not_allowed', sameOrigin(req)),
+    allowRequest: (req, callback) => {
+      const ok = sameOrigin(req);
+      callback(ok ? null : 'origin_not_allowed', ok);
+    },
   });
   for (const mw of sessionMiddleware) io.engine.use(onlyForHandshake(mw));
   io.use((socket, next) => {
