@@ -1,7 +1,6 @@
 import type { Response } from 'express';
 import { formatAgs4Problem } from '../../shared/ags4/check';
-import { RECORD_LIMITS } from '../../shared/records/schema';
-import { ags4ExportQuery, ags4ImportInput } from '../../shared/schemas/ags4';
+import { AGS4_MAX_BYTES, ags4ExportQuery, ags4ImportInput } from '../../shared/schemas/ags4';
 import { idParams } from '../../shared/schemas/common';
 import { EDITORS, STAFF } from '../auth/permissions';
 import { loadLocation, loadProject } from '../auth/scope';
@@ -54,7 +53,7 @@ export const ags4Routes = [
     path: '/api/imports/ags4',
     access: EDITORS,
     summary: 'Import the plate loading tests (PLTG/PLTT) of an AGS4 file into a project, all or none',
-    before: [singleUpload('file', RECORD_LIMITS.bytes)],
+    before: [singleUpload('file', AGS4_MAX_BYTES)],
     body: ags4ImportInput,
     handler: async ({ body, user, req, res }) => {
       const text = req.file ? req.file.buffer.toString('utf8') : body.content;

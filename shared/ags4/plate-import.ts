@@ -125,8 +125,12 @@ function readTest(
     const byStage = new Map<string, Ags4Row[]>();
     for (const r of rows) {
       const stage = cell(pltt, r, 'PLTT_STG') ?? '';
-      if (!byStage.has(stage)) order.push(stage);
-      byStage.set(stage, [...(byStage.get(stage) ?? []), r]);
+      const list = byStage.get(stage);
+      if (list) list.push(r);
+      else {
+        order.push(stage);
+        byStage.set(stage, [r]);
+      }
     }
     for (const name of order) {
       const stageRows = byStage.get(name)!;
@@ -271,7 +275,9 @@ export function importAgs4(text: string): Ags4Import {
     const test = tests.get(testKey(pltt, row));
     if (!test) continue; // the AGS4 parent check has named it
     const cycle = cell(pltt, row, 'PLTG_CYC') ?? '';
-    test.readings.set(cycle, [...(test.readings.get(cycle) ?? []), row]);
+    const list = test.readings.get(cycle);
+    if (list) list.push(row);
+    else test.readings.set(cycle, [row]);
   }
   const out: ImportedPlateTest[] = [];
   if (problems.size === 0) {

@@ -8,6 +8,12 @@ const asciiLine = (max: number) =>
     .max(max)
     .regex(/^[ -~]*$/, 'printable ASCII only (AGS4 files hold no other characters)');
 
+/**
+ * Largest AGS4 file taken, bytes: 32 MB. AGS4 spends about 120 bytes on a reading, so a test at the
+ * record's limit of readings (RECORD_LIMITS) needs more than the record's own 8 MB.
+ */
+export const AGS4_MAX_BYTES = 4 * RECORD_LIMITS.bytes;
+
 /** Options of an AGS4 export (query string): the TRAN issue sequence and status, and who carried out the tests. */
 export const ags4ExportQuery = z.strictObject({
   /** TRAN_ISNO: the issue sequence of this transmission; default 1. */
@@ -23,7 +29,7 @@ export type Ags4ExportQuery = z.infer<typeof ags4ExportQuery>;
 export const ags4ImportInput = z.object({
   /** The project the tests go to; a LOCA_ID names a test location of it by pit id (a missing one is added). */
   projectId: z.coerce.number().int().positive(),
-  content: z.string().max(RECORD_LIMITS.bytes, `at most ${RECORD_LIMITS.bytes} characters`).optional(),
+  content: z.string().max(AGS4_MAX_BYTES, `at most ${AGS4_MAX_BYTES} characters`).optional(),
 });
 export type Ags4ImportInput = z.infer<typeof ags4ImportInput>;
 

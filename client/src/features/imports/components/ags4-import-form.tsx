@@ -1,3 +1,4 @@
+import { AGS4_MAX_BYTES } from '@shared/schemas/ags4';
 import type { Project } from '@shared/schemas/projects';
 import type { UseQueryResult } from '@tanstack/react-query';
 import { type FormEvent, useState } from 'react';
@@ -8,13 +9,13 @@ import { FieldShell, SelectField } from '../../../components/form-field';
 import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
 import { useImportAgs4 } from '../api/import-ags4';
-import { IMPORT_MAX_BYTES, ImportRejected } from '../api/import-record';
+import { ImportRejected } from '../api/import-record';
 import { ImportIssues } from './import-issues';
 
 /** Why a chosen file cannot be sent as AGS4, or null. */
 export function ags4FileProblem(file: Pick<File, 'name' | 'size'>): string | null {
   if (!/\.ags$/i.test(file.name)) return 'Choose an AGS4 file (.ags).';
-  if (file.size > IMPORT_MAX_BYTES) return 'The file is larger than 8 MB.';
+  if (file.size > AGS4_MAX_BYTES) return 'The file is larger than 32 MB.';
   return null;
 }
 
@@ -55,7 +56,7 @@ export function Ags4ImportForm({ projects }: { projects: UseQueryResult<Project[
         <FieldShell
           label="AGS4 file"
           error={fieldError('file')}
-          hint="An AGS4 file (.ags, at most 8 MB) with PLTG and PLTT groups. Each LOCA_ID goes to the project's test location with that pit id; a missing one is added."
+          hint="An AGS4 file (.ags, at most 32 MB) with PLTG and PLTT groups. Each LOCA_ID goes to the project's test location with that pit id; a missing one is added."
         >
           {({ id, describedBy, invalid }) => (
             <input
