@@ -134,6 +134,8 @@ function moduli(a: RecordAnalysis): string[] {
     ...(sg.atSettlement.applies ? [`    settlement basis ${sg.settlementBasis}; loading curve from application ${sg.application} of each load level`] : []),
     finding(`${name(sg.atPressure, plate)}, 10 psi`, sg.atPressure, k),
     finding('k, 750/762 mm plate', sg.standardPlate, (s) => `${fixed(s.kMnM3, 2)} MN/m³ (${fixed(s.kPci, 0)} pci): ${s.label}${s.caution ? `. ${s.caution}` : ''}`),
+    ...(sg.standardPlate.applies ? [finding('CBR estimate from that k', sg.cbrEstimate, (c) => `${fixed(c.cbrPercent, 1)} % (${c.source})`)] : []),
+    ...(sg.soaked ? [finding(`k, ${sg.plateMm} mm plate, soaked`, sg.soaked, (c) => `${fixed(c.kMnM3, 2)} MN/m³ (× ${fixed(c.factor, 3)}; ${c.source})`)] : []),
     finding('Ev1 / Ev2 / Ev2÷Ev1', a.deformationModuli, (d) => `${fixed(d.ev1.evMnM2, 1)} / ${fixed(d.ev2?.evMnM2, 1)} MN/m² / ${fixed(d.ratio, 2)}`),
     ...(a.deformationModuli.applies ? [`    ${a.deformationModuli.result.statement}`] : []),
     ...(a.deformationModuli.applies

@@ -18,6 +18,8 @@ const DESIGN_FLAGS = {
   'ev2-required': 'evRequiredMnM2',
   'ev-ratio-max': 'evMaxRatio',
   'ev-relax': 'evRelaxFraction',
+  'unsoaked-mm': 'unsoakedDeformationMm',
+  'soaked-mm': 'soakedDeformationMm',
 } as const satisfies Record<string, keyof InterpretationSettings>;
 
 /** The method names the command line takes, for the methods' own keys. */
@@ -48,7 +50,9 @@ export const DESIGN_USAGE = `Design inputs (optional; the record's footing other
   --ev-convention NAME     first-loading or each-branch (σ0max of Ev2)
   --ev2-required MN_M2     the contract's required Ev2: checks Ev2 and Ev2/Ev1 against it
   --ev-ratio-max R         the contract's largest Ev2/Ev1
-  --ev-relax F             a higher ratio is accepted when Ev1 ≥ F × the required Ev2`;
+  --ev-relax F             a higher ratio is accepted when Ev1 ≥ F × the required Ev2
+  --unsoaked-mm MM, --soaked-mm MM
+                           consolidometer deformations under the test pressure: k corrected to soaked conditions`;
 
 export const DESIGN_OPTIONS = Object.fromEntries(Object.keys(DESIGN_FLAGS).map((flag) => [flag, { type: 'string' as const }])) as Record<
   keyof typeof DESIGN_FLAGS,

@@ -75,6 +75,8 @@ function moduli(w: SectionWriter, a: RecordAnalysis): void {
   finding(w, `k, ${sg.plateMm} mm plate, 10 psi`, sg.atPressure, k);
   if (sg.atSettlement.applies)
     finding(w, 'k, 750/762 mm plate', sg.standardPlate, (s) => `${fmt(s.kMnM3, 1)} MN/m³: ${s.label} (${s.formula}; ${s.source})${s.caution ? `. ${s.caution}` : ''}`);
+  if (sg.standardPlate.applies) finding(w, 'CBR estimate from that k', sg.cbrEstimate, (c) => `${fmt(c.cbrPercent, 1)} % (${c.formula}; ${c.source})`);
+  if (sg.soaked) finding(w, `k, ${sg.plateMm} mm plate, soaked`, sg.soaked, (c) => `${fmt(c.kMnM3, 1)} MN/m³ (× ${fmt(c.factor, 3)}; ${c.formula}; ${c.source})`);
   finding(w, 'Deformation moduli', a.deformationModuli, (m) => `Ev1 ${fmt(m.ev1.evMnM2, 1)} MN/m², Ev2 ${fmt(m.ev2?.evMnM2, 1)} MN/m², Ev2/Ev1 ${fmt(m.ratio, 2)}; ${m.statement} (${m.source})`);
   if (a.deformationModuli.applies)
     finding(w, 'Ev acceptance', a.evAcceptance, (v) => `${v.passed ? 'met' : 'NOT met'} (${v.name}): ${v.checks.map((c) => c.message).join(' ')}`);

@@ -35,7 +35,7 @@ import {
   scalingName,
   scalingWarnings,
 } from './scaling';
-import { FIXED_PRESSURE_KPA, kForStandardPlate, kLabel, type StandardPlateK, type SubgradeModulus, subgradeModulusAtPressure, subgradeModulusAtSettlement } from './subgrade';
+import { type CbrEstimate, type CorrectedModulus, cbrFromK762, FIXED_PRESSURE_KPA, kForStandardPlate, saturationCorrection, kLabel, type StandardPlateK, type SubgradeModulus, subgradeModulusAtPressure, subgradeModulusAtSettlement } from './subgrade';
 import { type CreepCoefficient, type CycleSplit, creepPerLogCycle, cyclicSplit, type HyperbolicTimeFit, hyperbolicTimeFit } from './time-settlement';
 import { type CompareUltimateOptions, compareUltimateMethods, criterionSettlementMm, type UltimateMethod } from './ultimate';
 import { type AssessedUltimate, assessUltimate, type ChosenUltimate, chooseUltimate, type TestExtent, testExtent, type UltimateChoice } from './ultimate-standing';
@@ -75,6 +75,8 @@ export interface AnalyzeRecordOptions {
   kSettlementMm?: number;
   /** Column load on a square footing, kN: when given, the footing width that keeps the settlement within the limit. */
   columnLoadKn?: number;
+  /** Deformations of unsoaked and soaked consolidometer specimens under the test pressure, mm: k corrected to soaked conditions (US Army Corps CRD-C 655). */
+  soakedSpecimens?: { unsoakedMm: number; soakedMm: number };
   /** The contract's Ev requirement: when given, Ev2 and Ev2/Ev1 are checked against it. */
   evRequirement?: EvRequirement;
 }
@@ -127,6 +129,10 @@ export interface SubgradeAnalysis {
   atSettlement: Finding<LabelledModulus>;
   atPressure: Finding<LabelledModulus>;
   standardPlate: Finding<Exclude<StandardPlateK, { kind: 'none' }>>;
+  /** CBR estimated from the 750/762 mm plate's k (a correlation, information only). */
+  cbrEstimate: Finding<CbrEstimate>;
+  /** k of the plate used corrected to soaked conditions from consolidometer deformations, when they are given. */
+  soaked: Finding<CorrectedModulus> | null;
 }
 
 /** Deformation moduli with what they depend on stated. */
@@ -615,6 +621,13 @@ export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions 
       atSettlement,
       atPressure,
       standardPlate,
+      cbrEstimate: standardPlate.applies ? attempt(() => cbrFromK762(standardPlate.result.kMnM3)) : notApplicable(standardPlate.reason),
+      soaked:
+        options.soakedSpecimens === undefined
+          ? null
+          : !atSettlement.applies || atSettlement.result.kMnM3 === null
+            ? notApplicable(atSettlement.applies ? (atSettlement.result.reason ?? 'k is not determined') : atSettlement.reason)
+            : attempt(() => saturationCorrection(atSettlement.result.kMnM3 as number, options.soakedSpecimens!.unsoakedMm, options.soakedSpecimens!.soakedMm)),
     },
     deformationModuli: moduli,
     evAcceptance,

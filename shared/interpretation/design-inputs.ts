@@ -32,6 +32,9 @@ export function applyDesignInputs(record: TestRecord, o: InterpretationSettings)
       ...(o.evConvention ? { evConvention: o.evConvention } : {}),
       ...(o.columnLoadKn !== undefined ? { columnLoadKn: o.columnLoadKn } : {}),
       ...(o.kApplication !== undefined ? { kApplication: o.kApplication } : {}),
+      ...(o.unsoakedDeformationMm !== undefined && o.soakedDeformationMm !== undefined
+        ? { soakedSpecimens: { unsoakedMm: o.unsoakedDeformationMm, soakedMm: o.soakedDeformationMm } }
+        : {}),
       ...(o.evRequiredMnM2 !== undefined
         ? {
             evRequirement: {

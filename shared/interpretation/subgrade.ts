@@ -208,3 +208,22 @@ export function kForStandardPlate(kMnM3: number, plateMm: number): StandardPlate
   }
   return { kind: 'none', reason: `no standard conversion from a ${plateMm} mm plate to the 750/762 mm plate: test with the large plate for a design k` };
 }
+
+/** A CBR estimated from a measured k (information beside the test, not a CBR test). */
+export interface CbrEstimate {
+  cbrPercent: number;
+  formula: string;
+  source: string;
+}
+
+/**
+ * CBR from k of the 762 mm plate by the UK DMRB IAN 73/06 correlation CBR = 6.1×10⁻⁸·k762^1.733 (k in kPa/m),
+ * the inverse of the DMRB entry of {@link subgradeModulusFromCbr}; information only.
+ */
+export function cbrFromK762(k762MnM3: number): CbrEstimate {
+  return {
+    cbrPercent: 6.1e-8 * (requirePositive(k762MnM3, 'k762MnM3') * 1000) ** 1.733,
+    formula: 'CBR = 6.1×10⁻⁸·k762^1.733 (k762 in kPa/m)',
+    source: 'UK DMRB IAN 73/06 correlation (information only, not a CBR test)',
+  };
+}

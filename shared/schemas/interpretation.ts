@@ -55,6 +55,10 @@ export const interpretationSettings = z.strictObject({
   evMaxRatio: numeric(z.number().min(1).max(10)).optional(),
   /** A higher ratio is accepted when Ev1 ≥ this fraction × the required Ev2 (as some contracts allow). */
   evRelaxFraction: numeric(z.number().positive().max(1)).optional(),
+  /** Deformation of the unsoaked consolidometer specimen under the test pressure, mm (soaked-k correction, with the soaked one). */
+  unsoakedDeformationMm: numeric(z.number().positive().max(100)).optional(),
+  /** Deformation of the soaked consolidometer specimen under the test pressure, mm. */
+  soakedDeformationMm: numeric(z.number().positive().max(100)).optional(),
   /** Which application of each load level gives the loading curve and k (repeated loading). */
   kApplication: numeric(z.number().int().min(1).max(20)).optional(),
 });

@@ -6,7 +6,7 @@
 import { analyzeRecord } from '@shared/interpretation/analyze-record';
 import { clayLinearRatio, footingSettlement, footingUltimatePressure, plateSettlementForFooting, shapeCorrection, terzaghiPeckSandRatio } from '@shared/interpretation/scaling';
 import { breakSignificance } from '@shared/interpretation/significance';
-import { mnPerM3ToPci, pciToMnPerM3 } from '@shared/interpretation/subgrade';
+import { mnPerM3ToPci, pciToMnPerM3, subgradeModulusFromCbr } from '@shared/interpretation/subgrade';
 import { hyperbolicUltimate, logLogIntersection, tangentIntersection } from '@shared/interpretation/ultimate';
 import type { Branch } from '@shared/plans/stages';
 import type { TestRecord } from '@shared/records/schema';
@@ -169,6 +169,17 @@ describe('methods by procedure, k for the plate used', () => {
     expect(reason(analyzeRecord(pavement(450)).subgradeModulus.standardPlate)).toBe(
       'no standard conversion from a 450 mm plate to the 750/762 mm plate: test with the large plate for a design k',
     );
+  });
+
+  it('a CBR estimate from the 762 mm k round-trips the DMRB correlation, and the soaked k follows the consolidometer ratio (CRD-C 655)', () => {
+    const a = analyzeRecord(pavementTest(762), { soakedSpecimens: { unsoakedMm: 0.5, soakedMm: 0.8 } });
+    const k = result(a.subgradeModulus.atSettlement).kMnM3 as number;
+    const cbr = result(a.subgradeModulus.cbrEstimate).cbrPercent;
+    const back = subgradeModulusFromCbr(cbr).find((c) => c.name === 'DMRB')?.kMnM3;
+    expectRel(back, k, 1e-9); // CBR ↔ k both ways (UK DMRB IAN 73/06)
+    expectRel(result(a.subgradeModulus.soaked ?? { applies: false, reason: 'none' }).kMnM3, k * (0.5 / 0.8)); // k_s = k_u·d/d_s
+    expect(analyzeRecord(pavementTest(762)).subgradeModulus.soaked).toBeNull();
+    expect(reason(analyzeRecord(pavementTest(450)).subgradeModulus.cbrEstimate)).toMatch(/^no standard conversion from a 450 mm plate/);
   });
 
   it('a record naming no procedure shows every method with a note', () => {

@@ -42,9 +42,29 @@ export function ModuliPanel({ analysis }: { analysis: RecordAnalysis }) {
                 <p className="text-sm">{s.label}.</p>
                 {s.caution && <p className="text-sm font-semibold">{s.caution}</p>}
                 <Provenance formula={s.formula} source={s.source} />
+                <FindingView finding={sg.cbrEstimate}>
+                  {(c) => (
+                    <>
+                      <p>CBR estimate from that k: {figure(c.cbrPercent, '%')}</p>
+                      <Provenance formula={c.formula} source={c.source} />
+                    </>
+                  )}
+                </FindingView>
               </>
             )}
           </FindingView>
+          {sg.soaked && (
+            <FindingView finding={sg.soaked}>
+              {(c) => (
+                <>
+                  <p className="font-mono">
+                    k, {sg.plateMm} mm plate, soaked = {figure(c.kMnM3, 'MN/m³')} (× {c.factor.toFixed(3)})
+                  </p>
+                  <Provenance formula={c.formula} source={c.source} />
+                </>
+              )}
+            </FindingView>
+          )}
         </div>
       )}
       <div>

@@ -41,6 +41,8 @@ export function SettingsForm({ settings, onApply, busy }: { settings: Interpreta
       <NumberField label="Footing depth" unit="m" hint="Base below ground, for the net pressure; empty: 0" {...field('foundationDepthM')} />
       <NumberField label="Unit weight of the soil" unit="kN/m³" hint="Above the footing base; empty: 0" {...field('unitWeightKnM3')} />
       <NumberField label="Column load" unit="kN" hint="Gives the square footing width for the settlement limit" {...field('columnLoadKn')} />
+      <NumberField label="Unsoaked specimen deformation" unit="mm" hint="Consolidometer, under the test pressure: for the soaked k" {...field('unsoakedDeformationMm')} />
+      <NumberField label="Soaked specimen deformation" unit="mm" hint="Consolidometer, under the test pressure" {...field('soakedDeformationMm')} />
       <NumberField label="Application for k" hint="Repeated loading: which application of each level; empty: the procedure’s" {...field('kApplication')} />
       <SelectField
         label="Ultimate method carried to the footing"

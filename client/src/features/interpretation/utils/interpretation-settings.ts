@@ -35,6 +35,8 @@ export const EMPTY_DRAFT: SettingsDraft = {
   evRequiredMnM2: '',
   evMaxRatio: '',
   evRelaxFraction: '',
+  unsoakedDeformationMm: '',
+  soakedDeformationMm: '',
 };
 
 /** [lowest, highest, whether the lowest itself is allowed, whole numbers only], as the server's schema checks them. */
@@ -50,6 +52,8 @@ const NUMBER_FIELDS: Partial<Record<keyof InterpretationSettings, readonly [numb
   evRequiredMnM2: [0, 1000, false],
   evMaxRatio: [1, 10, true],
   evRelaxFraction: [0, 1, false],
+  unsoakedDeformationMm: [0, 100, false],
+  soakedDeformationMm: [0, 100, false],
 };
 
 /** Settings from the form, or the problem of each field that is not a usable number (ranges as the server checks them). */
