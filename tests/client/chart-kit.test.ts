@@ -1,6 +1,6 @@
 import type uPlot from 'uplot';
 import { describe, expect, it } from 'vitest';
-import { placesFor, spanAtLeast, tickLabel } from '../../client/src/components/chart-kit';
+import { placesFor, signedValues, spanAtLeast, tickLabel } from '../../client/src/components/chart-kit';
 
 const range = (minSpan: number, min: number, max: number) => spanAtLeast(minSpan)({} as uPlot, min, max, 'y');
 
@@ -17,6 +17,12 @@ describe('plot axes', () => {
     expect(placesFor(0.1)).toBe(1);
     expect(placesFor(0.05)).toBe(2);
     expect(placesFor(0.002)).toBe(3);
+  });
+
+  it('labels a log axis tick by tick (0.1, 1, 10), a linear one by its step', () => {
+    const chart = (distr: number) => ({ axes: [{ scale: 'x' }], scales: { x: { distr } } }) as unknown as uPlot;
+    expect(signedValues(chart(3), [0.1, 1, 10], 0, 0, 1)).toEqual(['0.1', '1', '10']);
+    expect(signedValues(chart(1), [-0.5, 0, 0.5], 0, 0, 0.5)).toEqual(['\u22120.5', '0.0', '0.5']);
   });
 
   it('opens a span of gauge noise to the minimum, and leaves a real settlement span alone', () => {

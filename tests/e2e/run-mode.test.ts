@@ -176,6 +176,12 @@ describe('run mode at three screen sizes', () => {
     );
     await page.setViewportSize({ width: 1024, height: 768 });
     await page.screenshot({ path: path.join(shotDir, '4-acknowledged-full.png'), fullPage: true });
+    // The plots, in linear and log time, for a look.
+    const plots = page.getByRole('region', { name: 'Plots' });
+    await plots.screenshot({ path: path.join(shotDir, '5-plots-linear.png') });
+    await plots.getByLabel('Log time').check();
+    await page.waitForTimeout(500);
+    await plots.screenshot({ path: path.join(shotDir, '6-plots-log-time.png') });
     expect(errors.filter((e) => !e.includes('401'))).toEqual([]);
   }, 300_000);
 });

@@ -12,8 +12,12 @@ export function tickLabel(value: number, places: number): string {
   return formatFixed(value, places).replace(/^-/, '\u2212');
 }
 
-/** Tick labels for an axis, signed, with the places its step needs. */
-export const signedValues: uPlot.Axis.Values = (_u, splits, _axis, _space, incr) => splits.map((v) => (v == null ? '' : tickLabel(v, placesFor(incr))));
+/** Tick labels for an axis, signed, with the places its step needs (on a log axis, the places each tick needs: 0.1, 1, 10). */
+export const signedValues = (u: uPlot, splits: number[], axisIdx: number, _space: number, incr: number): string[] => {
+  const scale = u.axes?.[axisIdx]?.scale ?? (axisIdx === 0 ? 'x' : 'y');
+  const log = u.scales?.[scale]?.distr === 3;
+  return splits.map((v) => (v == null ? '' : tickLabel(v, placesFor(log ? Math.abs(v) : incr))));
+};
 
 /** Axis width from its longest label, so a minus sign or a fourth digit is never cut off (px; ~9 px a character at 12 px). */
 export const axisSize: uPlot.Axis.Size = (u, values, axisIdx) => {
