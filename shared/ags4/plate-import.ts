@@ -110,7 +110,7 @@ function readTest(
   const allRows = test.cycles.flatMap((c) => test.readings.get(c.cycle) ?? []);
   const used = gaugeColumns.filter((hd) => allRows.some((r) => (cell(pltt, r, hd) ?? '') !== ''));
   const named = textOr(g('PLTG_GAUG'))?.split('|');
-  const keys = named && named.length === used.length ? named : used.map((hd) => `g${hd.replace(/^PLTT_SE?T?|^PLTT_S/, '')}`);
+  const keys = named && named.length === used.length ? named : used.map((hd) => `g${hd.replace(/^PLTT_(SET|S)/, '')}`);
   if (used.length === 0) at(first.line, 'PLTG', 'PLTT_SET1', 'the test has no settlement readings');
 
   const seatKn = numberOr(g('PLTG_SEAT'));
