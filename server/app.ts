@@ -21,6 +21,7 @@ import { interpretationRoutes } from './routes/interpretation';
 import { planRoutes } from './routes/plans';
 import { photoRoutes } from './routes/photos';
 import { projectRoutes } from './routes/projects';
+import { deviceProfileRoutes } from './routes/device-profiles';
 import { rigRoutes } from './routes/rigs';
 import { reportRoutes } from './routes/reports';
 import { runRoutes } from './routes/runs';
@@ -96,6 +97,7 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, deps: AppD
     ...photoRoutes(config.dataDir),
     ...planRoutes,
     ...instrumentRoutes(config.dataDir),
+    ...deviceProfileRoutes,
     ...rigRoutes,
     ...runRoutes(deps.runs),
     ...correctionRoutes,

@@ -1,3 +1,4 @@
+import { type DeviceProblem, MODBUS_EXCEPTION_NAMES } from '@shared/devices/problems';
 import { hasValidCrc, withCrc } from './crc16';
 
 /*
@@ -18,20 +19,14 @@ export interface ReadRequest {
   quantity: number;
 }
 
-export type FrameCheck<T> = ({ ok: true } & T) | { ok: false; reason: string; exceptionCode?: number };
+/** A failure names its cause as data (`problem`) besides the short `reason` kept in logs and stats. */
+export type FrameCheck<T> = ({ ok: true } & T) | { ok: false; reason: string; problem: DeviceProblem; exceptionCode?: number };
 
 /** Exception codes, Application Protocol Specification §7. */
-export const EXCEPTION_NAMES: Record<number, string> = {
-  1: 'illegal function',
-  2: 'illegal data address',
-  3: 'illegal data value',
-  4: 'server device failure',
-  5: 'acknowledge',
-  6: 'server device busy',
-  8: 'memory parity error',
-  10: 'gateway path unavailable',
-  11: 'gateway target device failed to respond',
-};
+export const EXCEPTION_NAMES = MODBUS_EXCEPTION_NAMES;
+
+const framing = (reason: string) => ({ ok: false as const, reason, problem: { kind: 'framing' as const, detail: reason } });
+const CRC_MISMATCH = { ok: false as const, reason: 'CRC mismatch', problem: { kind: 'crc' as const } };
 
 const EXCEPTION_FRAME_LENGTH = 5;
 const MAX_QUANTITY = 125;
@@ -54,11 +49,11 @@ export function encodeReadRequest(request: ReadRequest): Uint8Array {
 
 /** Server side: reads a request frame (what a simulated transducer receives). */
 export function decodeReadRequest(frame: Uint8Array): FrameCheck<{ request: ReadRequest }> {
-  if (frame.length !== 8) return { ok: false, reason: `request is ${frame.length} bytes, not 8` };
-  if (!hasValidCrc(frame)) return { ok: false, reason: 'CRC mismatch' };
+  if (frame.length !== 8) return framing(`request is ${frame.length} bytes, not 8`);
+  if (!hasValidCrc(frame)) return CRC_MISMATCH;
   const request = { unitId: frame[0], functionCode: frame[1] as ReadFunctionCode, address: (frame[2] << 8) | frame[3], quantity: (frame[4] << 8) | frame[5] };
   const problem = checkRequest(request);
-  return problem ? { ok: false, reason: problem } : { ok: true, request };
+  return problem ? framing(problem) : { ok: true, request };
 }
 
 /** Server side: the normal reply carrying `registers` (each 0–65535). */
@@ -93,17 +88,17 @@ export function expectedResponseLength(received: Uint8Array, request: ReadReques
  * count, length) and returns its registers. Exception replies are failures with `exceptionCode`.
  */
 export function decodeReadResponse(frame: Uint8Array, request: ReadRequest): FrameCheck<{ registers: number[] }> {
-  if (frame.length < EXCEPTION_FRAME_LENGTH) return { ok: false, reason: `reply is only ${frame.length} bytes` };
-  if (!hasValidCrc(frame)) return { ok: false, reason: 'CRC mismatch' };
-  if (frame[0] !== request.unitId) return { ok: false, reason: `reply from unit ${frame[0]}, expected ${request.unitId}` };
+  if (frame.length < EXCEPTION_FRAME_LENGTH) return framing(`reply is only ${frame.length} bytes`);
+  if (!hasValidCrc(frame)) return CRC_MISMATCH;
+  if (frame[0] !== request.unitId) return framing(`reply from unit ${frame[0]}, expected ${request.unitId}`);
   if (frame[1] === (request.functionCode | 0x80) && frame.length === EXCEPTION_FRAME_LENGTH) {
     const code = frame[2];
-    return { ok: false, reason: `exception ${code} (${EXCEPTION_NAMES[code] ?? 'unknown'})`, exceptionCode: code };
+    return { ok: false, reason: `exception ${code} (${EXCEPTION_NAMES[code] ?? 'unknown'})`, problem: { kind: 'exception', code }, exceptionCode: code };
   }
-  if (frame[1] !== request.functionCode) return { ok: false, reason: `function ${frame[1]} in reply, expected ${request.functionCode}` };
+  if (frame[1] !== request.functionCode) return framing(`function ${frame[1]} in reply, expected ${request.functionCode}`);
   const byteCount = frame[2];
-  if (byteCount !== 2 * request.quantity) return { ok: false, reason: `byte count ${byteCount}, expected ${2 * request.quantity}` };
-  if (frame.length !== 5 + byteCount) return { ok: false, reason: `reply is ${frame.length} bytes, expected ${5 + byteCount}` };
+  if (byteCount !== 2 * request.quantity) return framing(`byte count ${byteCount}, expected ${2 * request.quantity}`);
+  if (frame.length !== 5 + byteCount) return framing(`reply is ${frame.length} bytes, expected ${5 + byteCount}`);
   const registers: number[] = [];
   for (let i = 0; i < request.quantity; i++) registers.push((frame[3 + i * 2] << 8) | frame[4 + i * 2]);
   return { ok: true, registers };

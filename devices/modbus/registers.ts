@@ -8,6 +8,10 @@ import type { FrameCheck, ReadRequest } from './frames';
 
 export type RegisterFormat = ModbusProfile['format'];
 export type WordOrder = ModbusProfile['wordOrder'];
+export type ByteOrder = ModbusProfile['byteOrder'];
+
+/** A register with its two bytes exchanged (for devices that send the low byte first). */
+const swapBytes = (word: number) => ((word & 0xff) << 8) | (word >> 8);
 
 /** Registers a value of this format occupies. */
 export function registerCount(format: RegisterFormat): 1 | 2 {
@@ -20,11 +24,12 @@ export function profileReadRequest(profile: ModbusProfile): ReadRequest {
 }
 
 /** Decodes `registers` (16-bit words in wire order) as one value. */
-export function registersToValue(registers: readonly number[], format: RegisterFormat, wordOrder: WordOrder = 'high-first'): number {
+export function registersToValue(registers: readonly number[], format: RegisterFormat, wordOrder: WordOrder = 'high-first', byteOrder: ByteOrder = 'big'): number {
   const count = registerCount(format);
   if (registers.length !== count) throw new RangeError(`${format} needs ${count} register(s), got ${registers.length}`);
   const view = new DataView(new ArrayBuffer(4));
-  const words = count === 2 && wordOrder === 'low-first' ? [registers[1], registers[0]] : registers;
+  const ordered = count === 2 && wordOrder === 'low-first' ? [registers[1], registers[0]] : registers;
+  const words = byteOrder === 'swapped' ? ordered.map(swapBytes) : ordered;
   words.forEach((word, i) => {
     view.setUint16(i * 2, word);
   });
@@ -50,7 +55,7 @@ const INTEGER_RANGE: Partial<Record<RegisterFormat, [number, number]>> = {
 };
 
 /** Encodes one value as registers in wire order (the server side of {@link registersToValue}). */
-export function valueToRegisters(value: number, format: RegisterFormat, wordOrder: WordOrder = 'high-first'): number[] {
+export function valueToRegisters(value: number, format: RegisterFormat, wordOrder: WordOrder = 'high-first', byteOrder: ByteOrder = 'big'): number[] {
   const range = INTEGER_RANGE[format];
   if (range && (!Number.isInteger(value) || value < range[0] || value > range[1])) {
     throw new RangeError(`${value} is not a ${format} (${range[0]}…${range[1]})`);
@@ -61,9 +66,10 @@ export function valueToRegisters(value: number, format: RegisterFormat, wordOrde
   else if (format === 'int32') view.setInt32(0, value);
   else if (format === 'uint32') view.setUint32(0, value);
   else view.setFloat32(0, value);
-  if (registerCount(format) === 1) return [view.getUint16(0)];
+  const swap = (words: number[]) => (byteOrder === 'swapped' ? words.map(swapBytes) : words);
+  if (registerCount(format) === 1) return swap([view.getUint16(0)]);
   const words = [view.getUint16(0), view.getUint16(2)];
-  return wordOrder === 'low-first' ? [words[1], words[0]] : words;
+  return swap(wordOrder === 'low-first' ? [words[1], words[0]] : words);
 }
 
 /**
@@ -71,8 +77,11 @@ export function valueToRegisters(value: number, format: RegisterFormat, wordOrde
  * that is NaN or infinite (a device's "no reading") is a failure, never a number.
  */
 export function modbusReading(profile: ModbusProfile, registers: readonly number[]): FrameCheck<{ raw: number; value: number }> {
-  const raw = registersToValue(registers, profile.format, profile.wordOrder);
-  if (!Number.isFinite(raw)) return { ok: false, reason: `register value ${raw} is not a finite number` };
+  const raw = registersToValue(registers, profile.format, profile.wordOrder, profile.byteOrder);
+  if (!Number.isFinite(raw)) {
+    const reason = `register value ${raw} is not a finite number`;
+    return { ok: false, reason, problem: { kind: 'value', detail: reason } };
+  }
   return { ok: true, raw, value: raw * profile.scale + profile.offset };
 }
 

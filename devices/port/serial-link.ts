@@ -46,7 +46,8 @@ export class SerialLink {
   private port?: SerialStream;
   private cancelRetry?: () => void;
   private retryDelayMs?: number;
-  private everOpened = false;
+  /** False until the port has opened once. */
+  everOpened = false;
   private readonly clock: Clock;
   private readonly createPort: (options: PortOpenOptions) => SerialStream;
 

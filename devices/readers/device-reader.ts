@@ -45,7 +45,7 @@ export abstract class DeviceReader {
       backoff: options.backoff,
       createPort: options.createPort,
       onData: (chunk) => this.onData(chunk),
-      onStatus: (status) => this.onStatus(status),
+      onStatus: (status, reason) => this.onStatus(status, reason),
     });
   }
 
@@ -60,9 +60,9 @@ export abstract class DeviceReader {
   }
 
   stats(): DeviceStats {
-    const { framesOk, rejected, timeouts, lastRejectReason } = this.samples;
-    const { status, reconnects, lastError } = this.link;
-    return { status, framesOk, rejected, timeouts, reconnects, droppedBytes: this.droppedBytes, lastError, lastRejectReason };
+    const { framesOk, rejected, timeouts, lastRejectReason, lastProblem } = this.samples;
+    const { status, reconnects, lastError, everOpened } = this.link;
+    return { status, framesOk, rejected, timeouts, reconnects, droppedBytes: this.droppedBytes, lastError, lastRejectReason, lastProblem, everOpened };
   }
 
   /** Writes a request and waits for what settles `waiter` first: reply, timeout or cancellation. */
@@ -84,14 +84,14 @@ export abstract class DeviceReader {
   /** The port is lost or being closed: cancel pending work. */
   protected abstract onLinkDown(): void;
 
-  private onStatus(status: LinkStatus): void {
+  private onStatus(status: LinkStatus, reason?: string): void {
     if (status === 'open') {
       this.up = true;
       this.onLinkUp();
     } else if (status === 'error' && this.up) {
       this.up = false;
       this.onLinkDown();
-      this.samples.disconnected();
+      this.samples.disconnected(reason);
     }
   }
 }

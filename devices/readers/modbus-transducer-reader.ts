@@ -67,12 +67,12 @@ export class ModbusTransducerReader extends DeviceReader {
     const raw = hexBytes(frame);
     const check = decodeReadResponse(frame, this.request);
     if (!check.ok) {
-      this.samples.reject(raw, check.reason);
+      this.samples.reject(raw, check.reason, check.problem);
       return;
     }
     const reading = modbusReading(this.profile, check.registers);
     if (reading.ok) this.samples.ok(raw, reading.value);
-    else this.samples.reject(raw, reading.reason);
+    else this.samples.reject(raw, reading.reason, reading.problem);
   }
 
   /** Silence is a timeout; bytes that never formed a valid reply are a rejected frame. */
@@ -83,7 +83,8 @@ export class ModbusTransducerReader extends DeviceReader {
     } else {
       const head = bytes.subarray(0, expectedResponseLength(bytes, this.request));
       const check = decodeReadResponse(head, this.request);
-      this.samples.reject(hexBytes(bytes), check.ok ? 'reply incomplete' : check.reason);
+      if (check.ok) this.samples.reject(hexBytes(bytes), 'reply incomplete');
+      else this.samples.reject(hexBytes(bytes), check.reason, check.problem);
     }
   }
 }

@@ -1,3 +1,4 @@
+import type { DeviceProblem } from '@shared/devices/problems';
 import type { DeviceSample, SampleStatus } from '@shared/devices/schema';
 import type { Clock } from '../port/clock';
 import type { LinkStatus } from '../port/serial-link';
@@ -13,6 +14,10 @@ export interface DeviceStats {
   droppedBytes: number;
   lastError?: string;
   lastRejectReason?: string;
+  /** Cause of the latest sample without a value (rejection, timeout, lost port). */
+  lastProblem?: DeviceProblem;
+  /** False until the port has opened once: a port that never opened is not a device that went quiet. */
+  everOpened: boolean;
 }
 
 /** Options of {@link SampleChannel}. */
@@ -34,6 +39,7 @@ export class SampleChannel {
   rejected = 0;
   timeouts = 0;
   lastRejectReason?: string;
+  lastProblem?: DeviceProblem;
   private seq: number;
 
   constructor(private readonly options: SampleChannelOptions) {
@@ -46,28 +52,32 @@ export class SampleChannel {
     this.emit('ok', raw, value);
   }
 
-  /** A frame that arrived but cannot be trusted: kept raw, never given a value. */
-  reject(raw: string, reason: string): void {
+  /** A frame that arrived but cannot be trusted: kept raw, never given a value. Without a problem, its shape was wrong. */
+  reject(raw: string, reason: string, problem: DeviceProblem = { kind: 'framing', detail: reason }): void {
     this.rejected++;
     this.lastRejectReason = reason;
-    this.emit('rejected', raw);
+    this.emit('rejected', raw, undefined, problem);
   }
 
   /** No reply (polled) or no line (streaming) within the profile's timeout. */
   timeout(raw = ''): void {
     this.timeouts++;
-    this.emit('timeout', raw);
+    this.emit('timeout', raw, undefined, { kind: 'timeout' });
   }
 
   /** The port vanished: marks the start of a gap in the record. */
-  disconnected(): void {
-    this.emit('disconnected', '');
+  disconnected(reason = 'port closed'): void {
+    this.emit('disconnected', '', undefined, { kind: 'port-lost', detail: reason });
   }
 
-  private emit(status: SampleStatus, raw: string, value?: number): void {
+  private emit(status: SampleStatus, raw: string, value?: number, problem?: DeviceProblem): void {
     const { deviceId, channel, clock, onSample } = this.options;
     const sample: DeviceSample = { deviceId, channel, seq: this.seq++, t: clock.now(), raw, status };
     if (value !== undefined) sample.value = value;
+    if (problem) {
+      sample.problem = problem;
+      this.lastProblem = problem;
+    }
     onSample(sample);
   }
 }

@@ -11,10 +11,14 @@ import type { DeviceReader } from '../../devices/readers/device-reader';
 import type { DeviceStats } from '../../devices/readers/sample-channel';
 import { applyCalibration } from '../../shared/calibration/evaluate';
 import type { Calibration } from '../../shared/calibration/schema';
-import { DEFAULT_DEVICE_PROFILES } from '../../shared/devices/default-profiles';
-import type { DeviceProfile, DeviceSample, SampleStatus } from '../../shared/devices/schema';
+import type { DeviceProblem } from '../../shared/devices/problems';
+import { type InstrumentRange, outsideInstrumentRange } from '../../shared/devices/range';
+import type { DeviceSample, SampleStatus } from '../../shared/devices/schema';
 import type { RigChannelInput } from '../../shared/schemas/instruments';
 import { ROOT_DIR } from '../config';
+import { findDeviceProfile } from './device-profiles';
+
+export { findDeviceProfile };
 
 const debug = createDebug('sscope:acquisition');
 
@@ -32,16 +36,14 @@ export interface ChannelReading {
   /** Calibrated value (mm for gauges, the transducer's pressure unit, kN for load cells); null when none. */
   value: number | null;
   status: SampleStatus;
+  /** Why no value was trusted (absent when status is 'ok'). */
+  problem?: DeviceProblem;
   deviceSeq: number;
 }
 
 export interface ChannelHealth extends DeviceStats {
   key: string;
   port: string;
-}
-
-export function findDeviceProfile(id: string): DeviceProfile | undefined {
-  return DEFAULT_DEVICE_PROFILES.find((p) => p.id === id);
 }
 
 /** The engineering unit a channel's calibrated value is in. */
@@ -59,6 +61,8 @@ export interface RigConnectionOptions {
   channels: RigChannelInput[];
   /** Calibration in force per instrument id (absent: the device's value is taken as it is); read at every sample, so a calibration applied mid-run takes effect at once. */
   calibrations: ReadonlyMap<number, Calibration>;
+  /** The register's range per instrument id: a calibrated value outside it is rejected, not passed as good. */
+  ranges?: ReadonlyMap<number, InstrumentRange>;
   onReading: (reading: ChannelReading) => void;
   /** Time source of the readers and of the readings' stamps. Default: the system clock. */
   clock?: WallClock;
@@ -82,7 +86,8 @@ export class RigConnection {
         clock,
         onSample: (s) => {
           const calibration = channel.instrumentId != null ? this.options.calibrations.get(channel.instrumentId) : undefined;
-          this.options.onReading(toReading(s, channelIndex, channel, calibration, wallAt(clock, s.t)));
+          const range = channel.instrumentId != null ? this.options.ranges?.get(channel.instrumentId) : undefined;
+          this.options.onReading(withinRange(toReading(s, channelIndex, channel, calibration, wallAt(clock, s.t)), channel, calibration, range));
         },
       });
       this.readers.push({ key: channel.key, port, reader });
@@ -111,5 +116,15 @@ function toReading(s: DeviceSample, channelIndex: number, channel: RigChannelInp
       value = null; // outside what the calibration can say: never a guessed number
     }
   }
-  return { channelIndex, key: channel.key, role: channel.role, monoMs: s.t, wallMs, raw, value: value !== null && Number.isFinite(value) ? value : null, status: raw !== null && value === null ? 'rejected' : s.status, deviceSeq: s.seq };
+  const reading: ChannelReading = { channelIndex, key: channel.key, role: channel.role, monoMs: s.t, wallMs, raw, value: value !== null && Number.isFinite(value) ? value : null, status: raw !== null && value === null ? 'rejected' : s.status, deviceSeq: s.seq };
+  if (s.problem) reading.problem = s.problem;
+  else if (raw !== null && reading.value === null) reading.problem = { kind: 'value', detail: `${raw} is outside what the calibration can convert` };
+  return reading;
+}
+
+/** A good reading outside the instrument's range becomes a rejected one, its device value kept and the reason named. */
+function withinRange(r: ChannelReading, channel: RigChannelInput, calibration: Calibration | undefined, range: InstrumentRange | undefined): ChannelReading {
+  if (!range || r.status !== 'ok' || r.value === null) return r;
+  const outside = outsideInstrumentRange(r.value, channelUnit(channel, calibration), range);
+  return outside ? { ...r, value: null, status: 'rejected', problem: { kind: 'outside-range', detail: outside } } : r;
 }

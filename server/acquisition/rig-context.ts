@@ -9,6 +9,8 @@ import { notFound } from '../http/errors';
 import { CalibrationRecord } from '../models/calibration-record';
 import { Instrument } from '../models/instrument';
 import { Rig } from '../models/rig';
+import type { InstrumentRange } from '../../shared/devices/range';
+import { refreshLabProfiles } from './device-profiles';
 import { channelUnit } from './rig-connection';
 
 /** A rig with what reading it needs: the calibration in force and its status, per instrument. */
@@ -19,6 +21,8 @@ export interface RigContext {
   calibrationIds: Map<number, number>;
   status: Map<number, CalibrationStatus>;
   serials: Map<number, string>;
+  /** The register's range of each instrument (readings outside it are rejected). */
+  ranges?: Map<number, InstrumentRange>;
   /** What the register says of each instrument: resolution, travel, calibration and its due date. */
   kit?: Map<number, KitInstrument>;
   jack: { calibration: Calibration | null; serial: string; status: CalibrationStatus; ratedPressureMpa?: number | null } | null;
@@ -32,6 +36,7 @@ export interface RigContext {
 export async function loadRigContext(rigId: number, asOf?: Date): Promise<RigContext> {
   const rig = await Rig.findByPk(rigId);
   if (!rig) throw notFound('Rig');
+  await refreshLabProfiles(); // the channels may name profiles the lab defined or changed since
   const ids = [...rig.channels.map((c) => c.instrumentId).filter((id): id is number => id != null), ...(rig.jackInstrumentId ? [rig.jackInstrumentId] : [])];
   const instruments = ids.length ? await Instrument.findAll({ where: { id: ids }, include: [{ model: CalibrationRecord, as: 'calibrations' }] }) : [];
   const today = todayUtc();
@@ -40,7 +45,9 @@ export async function loadRigContext(rigId: number, asOf?: Date): Promise<RigCon
   const status = new Map<number, CalibrationStatus>();
   const serials = new Map<number, string>();
   const kit = new Map<number, KitInstrument>();
+  const ranges = new Map<number, InstrumentRange>();
   for (const i of instruments) {
+    ranges.set(i.id, { min: i.rangeMin, max: i.rangeMax, unit: i.unit });
     if (asOf) i.calibrations = (i.calibrations ?? []).filter((c) => c.createdAt.getTime() <= asOf.getTime());
     const current = i.currentCalibration();
     if (current) {
@@ -54,7 +61,7 @@ export async function loadRigContext(rigId: number, asOf?: Date): Promise<RigCon
   const jackId = rig.jackInstrumentId;
   const ratedPressureMpa = instruments.find((i) => i.id === jackId)?.ratedPressureMpa ?? null;
   const jack = jackId ? { calibration: calibrations.get(jackId) ?? null, serial: serials.get(jackId) ?? '?', status: status.get(jackId) ?? 'uncalibrated', ratedPressureMpa } : null;
-  return { rig: rig.toDto(), calibrations, calibrationIds, status, serials, kit, jack };
+  return { rig: rig.toDto(), calibrations, calibrationIds, status, serials, kit, ranges, jack };
 }
 
 /** The version of an instrument's calibration the rig context holds. */

@@ -4,14 +4,17 @@
  * after the last one leaves.
  */
 import type { Server } from 'socket.io';
+import { describeDeviceProblem } from '../../shared/devices/problems';
 import type { ChannelLive, ClientToServerEvents, RigLive, ServerToClientEvents } from '../../shared/realtime/events';
-import { type ChannelReading, RigConnection, channelUnit, resolvePort } from './rig-connection';
+import { type ChannelHealth, type ChannelReading, RigConnection, channelUnit, resolvePort } from './rig-connection';
 import { type RigContext, loadRigContext } from './rig-context';
 
 interface Monitored {
   context: RigContext;
   connection: RigConnection;
   latest: Map<string, ChannelReading>;
+  /** The latest rejected reading per channel, kept while later readings are good. */
+  lastRejected: Map<string, ChannelReading>;
   timer: NodeJS.Timeout;
   idleSince: number | null;
 }
@@ -38,10 +41,15 @@ export class RigMonitor {
     }
     const context = await loadRigContext(rigId);
     const latest = new Map<string, ChannelReading>();
-    const connection = new RigConnection({ channels: context.rig.channels, calibrations: context.calibrations, onReading: (r) => latest.set(r.key, r) });
+    const lastRejected = new Map<string, ChannelReading>();
+    const onReading = (r: ChannelReading) => {
+      latest.set(r.key, r);
+      if (r.status === 'rejected') lastRejected.set(r.key, r);
+    };
+    const connection = new RigConnection({ channels: context.rig.channels, calibrations: context.calibrations, ranges: context.ranges, onReading });
     const problem = this.busy(rigId);
     if (!problem) connection.start();
-    const monitored: Monitored = { context, connection, latest, idleSince: null, timer: setInterval(() => this.tick(rigId), EMIT_EVERY_MS) };
+    const monitored: Monitored = { context, connection, latest, lastRejected, idleSince: null, timer: setInterval(() => this.tick(rigId), EMIT_EVERY_MS) };
     this.rigs.set(rigId, monitored);
   }
 
@@ -69,6 +77,8 @@ export class RigMonitor {
         timeouts: h?.timeouts ?? 0,
         reconnects: h?.reconnects ?? 0,
         calibration,
+        problem: currentProblem(r, h),
+        lastRejection: describeReading(m.lastRejected.get(c.key)),
       };
     });
     return { rigId, channels, problem: this.busy(rigId) };
@@ -99,4 +109,18 @@ export class RigMonitor {
     clearInterval(m.timer);
     await m.connection.stop();
   }
+}
+
+/**
+ * Why a channel reads nothing good now: a port that never opened is said as such (not as a silent
+ * device); otherwise the latest sample's own cause.
+ */
+function currentProblem(r: ChannelReading | undefined, h: ChannelHealth | undefined): string | null {
+  if (h && !h.everOpened && h.status !== 'open') return describeDeviceProblem({ kind: 'port-never-opened', detail: h.lastError ?? 'still trying to open it' });
+  if (h && h.status === 'error') return describeDeviceProblem({ kind: 'port-lost', detail: h.lastError ?? 'port closed' });
+  return r?.status === 'ok' ? null : describeReading(r);
+}
+
+function describeReading(r: ChannelReading | undefined): string | null {
+  return r?.problem ? describeDeviceProblem(r.problem) : null;
 }

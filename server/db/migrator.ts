@@ -9,8 +9,9 @@ import * as corrections from './migrations/0006-corrections';
 import * as rollups from './migrations/0007-sample-rollups';
 import * as photos from './migrations/0008-photos';
 import * as instrumentFields from './migrations/0009-instrument-fields';
-import * as jackRatedPressure from './migrations/0011-jack-rated-pressure';
 import * as signedReports from './migrations/0010-signed-reports';
+import * as jackRatedPressure from './migrations/0011-jack-rated-pressure';
+import * as deviceProfiles from './migrations/0012-device-profiles';
 
 export interface Migration {
   up(qi: QueryInterface, S: typeof Sequelize): Promise<void>;
@@ -28,8 +29,9 @@ const MIGRATIONS: [string, Migration][] = [
   ['0007-sample-rollups', rollups],
   ['0008-photos', photos],
   ['0009-instrument-fields', instrumentFields],
-  ['0011-jack-rated-pressure', jackRatedPressure],
   ['0010-signed-reports', signedReports],
+  ['0011-jack-rated-pressure', jackRatedPressure],
+  ['0012-device-profiles', deviceProfiles],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

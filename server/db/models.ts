@@ -1,6 +1,7 @@
 import type { Sequelize } from 'sequelize';
 import { AuditEntry } from '../models/audit-entry';
 import { CalibrationRecord } from '../models/calibration-record';
+import { DeviceProfileRecord } from '../models/device-profile';
 import { SampleCorrection } from '../models/correction';
 import { Instrument } from '../models/instrument';
 import { MailMessage } from '../models/mail-message';
@@ -19,7 +20,7 @@ import { User } from '../models/user';
 
 /** Initialises every model on one Sequelize instance, then wires the associations. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry, Instrument, CalibrationRecord, Rig, Run, RunEvent, RunRecord, Interpretation, Signoff, Signature, SignedReport, MailMessage, SampleCorrection, Photo]) model.initModel(sequelize);
+  for (const model of [Organization, User, Project, TestLocation, TestPlan, AuditEntry, Instrument, CalibrationRecord, Rig, Run, RunEvent, RunRecord, Interpretation, Signoff, Signature, SignedReport, MailMessage, SampleCorrection, Photo, DeviceProfileRecord]) model.initModel(sequelize);
   defineSessionModel(sequelize);
   Organization.hasMany(User, { foreignKey: 'organizationId' });
   User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });

@@ -1,4 +1,4 @@
-import { DEFAULT_DEVICE_PROFILES } from '../../shared/devices/default-profiles';
+import { findDeviceProfile, refreshLabProfiles } from '../acquisition/device-profiles';
 import { idParams } from '../../shared/schemas/common';
 import { type RigInput, rigInput, rigPatch } from '../../shared/schemas/instruments';
 import { EDITORS, STAFF } from '../auth/permissions';
@@ -9,11 +9,11 @@ import { Instrument } from '../models/instrument';
 import { Rig } from '../models/rig';
 import { audited } from '../services/audit';
 
-/** Every instrument a rig names must exist, and each channel's profile must be known. */
+/** Every instrument a rig names must exist, and each channel's profile must be known (built-in or the lab's). */
 async function assertReferences(rig: RigInput) {
-  const profiles = new Set(DEFAULT_DEVICE_PROFILES.map((p) => p.id));
+  await refreshLabProfiles();
   for (const [i, c] of rig.channels.entries()) {
-    if (rig.mode === 'serial' && !profiles.has(c.profileId)) throw badRequest(`channels.${i}.profileId: unknown device profile "${c.profileId}"`, `channels.${i}.profileId`);
+    if (rig.mode === 'serial' && !findDeviceProfile(c.profileId)) throw badRequest(`channels.${i}.profileId: unknown device profile "${c.profileId}"`, `channels.${i}.profileId`);
     if (c.instrumentId != null && !(await Instrument.findByPk(c.instrumentId))) throw badRequest(`channels.${i}.instrumentId: no such instrument`, `channels.${i}.instrumentId`);
   }
   if (rig.jackInstrumentId != null) {
@@ -29,13 +29,6 @@ async function loadRig(id: number): Promise<Rig> {
 }
 
 export const rigRoutes = [
-  route({
-    method: 'get',
-    path: '/api/device-profiles',
-    access: STAFF,
-    summary: 'Device profiles a rig channel can speak',
-    handler: () => ({ items: DEFAULT_DEVICE_PROFILES }),
-  }),
   route({
     method: 'get',
     path: '/api/rigs',

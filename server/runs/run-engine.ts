@@ -145,7 +145,7 @@ export class RunEngine {
     this.measurer.advance(null);
     this.measurements = this.measure();
     const connect = io.connect ?? ((o: RigConnectionOptions) => new RigConnection(o));
-    this.connection = setup.rig.rig.mode === 'serial' ? connect({ channels: this.channels, calibrations: this.calibrations, clock: this.clock, onReading: (r) => this.onReading(r) }) : null;
+    this.connection = setup.rig.rig.mode === 'serial' ? connect({ channels: this.channels, calibrations: this.calibrations, ranges: setup.rig.ranges, clock: this.clock, onReading: (r) => this.onReading(r) }) : null;
   }
 
   /** The run's channels as its snapshot has them (sample order). */

@@ -2,8 +2,9 @@ import { type AsciiProfile, asciiProfileSchema, type DeviceProfile, type ModbusP
 
 /*
  * Built-in device profiles. They describe generic protocol shapes of our own making, not any
- * particular product; the lab adds its own models through the same schema. Parsing here checks
- * them once at start-up and fills the schema defaults.
+ * particular product; the lab adds its own models through the same schema (the device profile
+ * editor, stored in the database). Parsing here checks them once at start-up and fills the
+ * schema defaults.
  */
 
 /** Polled digital indicator: "?\r" → "+012.345 mm\r\n", 0.001 mm resolution. */
@@ -68,20 +69,36 @@ export const holdingInt16Transducer: ModbusProfile = modbusProfileSchema.parse({
   timeoutMs: 300,
 });
 
-/** ADC front-end: IEEE-754 float32 in MPa on input registers 2–3, low word first. */
-export const inputFloat32Transducer: ModbusProfile = modbusProfileSchema.parse({
+/**
+ * Pressure transducer: IEEE-754 float32 in MPa on input registers 2–3, high word first ("big-endian"
+ * word order, the common convention for 32-bit Modbus values).
+ */
+export const inputFloat32HighFirstTransducer: ModbusProfile = modbusProfileSchema.parse({
   protocol: 'modbus-rtu',
-  id: 'modbus-ir2-float32',
-  name: 'Pressure ADC, input registers 2–3, float32 MPa (low word first)',
+  id: 'modbus-ir2-float32-hw',
+  name: 'Pressure transducer, input registers 2–3, float32 MPa (high word first)',
   serial: { baudRate: 9600, dataBits: 8, parity: 'none', stopBits: 2 },
   unitId: 2,
   functionCode: 4,
   register: 2,
   format: 'float32',
-  wordOrder: 'low-first',
+  wordOrder: 'high-first',
+  byteOrder: 'big',
   unit: 'MPa',
   pollIntervalMs: 250,
   timeoutMs: 400,
+});
+
+/**
+ * ADC front-end: IEEE-754 float32 in MPa on input registers 2–3, low word first. Kept under its id
+ * for the rigs that use it; a device sending the high word first needs the profile above, or it
+ * reads nonsense (12.5 MPa as about 2e-41).
+ */
+export const inputFloat32Transducer: ModbusProfile = modbusProfileSchema.parse({
+  ...inputFloat32HighFirstTransducer,
+  id: 'modbus-ir2-float32',
+  name: 'Pressure ADC, input registers 2–3, float32 MPa (low word first)',
+  wordOrder: 'low-first',
 });
 
 export const DEFAULT_DEVICE_PROFILES: readonly DeviceProfile[] = [
@@ -89,5 +106,6 @@ export const DEFAULT_DEVICE_PROFILES: readonly DeviceProfile[] = [
   streamingInchIndicator,
   statusCountsIndicator,
   holdingInt16Transducer,
+  inputFloat32HighFirstTransducer,
   inputFloat32Transducer,
 ];

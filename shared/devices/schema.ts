@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { DeviceProblem } from './problems';
 
 /** Serial line settings of one instrument. */
 export const serialSettingsSchema = z.object({
@@ -44,8 +45,13 @@ export const modbusProfileSchema = z.object({
   functionCode: z.union([z.literal(3), z.literal(4)]),
   register: z.number().int().min(0).max(65535),
   format: z.enum(['int16', 'uint16', 'int32', 'uint32', 'float32']),
-  /** For 32-bit values: which 16-bit register comes first. */
+  /**
+   * For 32-bit values: which 16-bit register comes first. High word first ("big-endian" word order) is
+   * the common convention and the default; some devices send the low word first.
+   */
   wordOrder: z.enum(['high-first', 'low-first']).default('high-first'),
+  /** Bytes within each register: 'big' as the Modbus specification sends them (high byte first), or 'swapped'. */
+  byteOrder: z.enum(['big', 'swapped']).default('big'),
   /** value = raw × scale + offset, in `unit`. */
   scale: z.number().default(1),
   offset: z.number().default(0),
@@ -57,6 +63,22 @@ export type ModbusProfile = z.infer<typeof modbusProfileSchema>;
 
 export const deviceProfileSchema = z.discriminatedUnion('protocol', [asciiProfileSchema, modbusProfileSchema]);
 export type DeviceProfile = z.infer<typeof deviceProfileSchema>;
+
+/** Ids of lab-defined profiles: lower case, digits and dashes, so they read well in a rig's channel list. */
+export const labProfileId = z.string().regex(/^[a-z][a-z0-9-]{1,59}$/, 'lower-case letters, digits and dashes, starting with a letter (2–60)');
+
+/** A device profile the lab defines (POST /api/device-profiles): the same shape as the built-ins. */
+export const labProfileInput = z.discriminatedUnion('protocol', [asciiProfileSchema.extend({ id: labProfileId }), modbusProfileSchema.extend({ id: labProfileId })]);
+export type LabProfileInput = z.infer<typeof labProfileInput>;
+
+/** PUT /api/device-profiles/:id: the whole profile but its id, which rigs refer to and never changes. */
+export const labProfileReplace = z.discriminatedUnion('protocol', [asciiProfileSchema.omit({ id: true }), modbusProfileSchema.omit({ id: true })]);
+export type LabProfileReplace = z.infer<typeof labProfileReplace>;
+
+export const profileIdParams = z.object({ id: labProfileId });
+
+/** A profile as the API lists it: where it comes from, and for the lab's own, when it last changed. */
+export type ListedDeviceProfile = DeviceProfile & { source: 'built-in' | 'lab'; updatedAt: string | null };
 
 export const SAMPLE_STATUSES = ['ok', 'timeout', 'rejected', 'disconnected'] as const;
 export type SampleStatus = (typeof SAMPLE_STATUSES)[number];
@@ -75,4 +97,6 @@ export interface DeviceSample {
   raw: string;
   value?: number;
   status: SampleStatus;
+  /** Why no value was trusted (every status but 'ok'). */
+  problem?: DeviceProblem;
 }

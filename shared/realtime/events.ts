@@ -33,6 +33,10 @@ export interface ChannelLive {
   timeouts: number;
   reconnects: number;
   calibration: 'in-calibration' | 'due-soon' | 'overdue' | 'uncalibrated' | 'no-instrument';
+  /** Why the channel gives no good reading now, in words (describeDeviceProblem); null while it reads well. */
+  problem: string | null;
+  /** The cause of the latest rejected frame, in words, even when readings are good again; null if none. */
+  lastRejection: string | null;
 }
 
 export interface RigLive {

@@ -35,7 +35,7 @@ export function registersFor(profile: ModbusProfile, value: number): number[] {
   const raw = rawForReading(profile, value);
   const range = SATURATION[profile.format];
   const held = range ? Math.min(Math.max(raw, range[0]), range[1]) : raw;
-  return valueToRegisters(held, profile.format, profile.wordOrder);
+  return valueToRegisters(held, profile.format, profile.wordOrder, profile.byteOrder);
 }
 
 /**

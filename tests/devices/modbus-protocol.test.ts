@@ -1,5 +1,6 @@
 import fc from 'fast-check';
 import { createRequire } from 'node:module';
+import { describeDeviceProblem } from '@shared/devices/problems';
 import { describe, expect, it } from 'vitest';
 import { crc16, hasValidCrc, withCrc } from '../../devices/modbus/crc16';
 import {
@@ -119,7 +120,19 @@ describe('response frames', () => {
     // §7 example shape: function code + 0x80, then exception code 02 (illegal data address).
     const frame = encodeExceptionResponse(0x11, 3, 2);
     expect(hexBytes(frame.subarray(0, 3))).toBe('11 83 02');
-    expect(decodeReadResponse(frame, FC03)).toEqual({ ok: false, reason: 'exception 2 (illegal data address)', exceptionCode: 2 });
+    expect(decodeReadResponse(frame, FC03)).toEqual({ ok: false, reason: 'exception 2 (illegal data address)', problem: { kind: 'exception', code: 2 }, exceptionCode: 2 });
+  });
+
+  it('names each failure by its kind: exception, CRC or framing, never one word for all', () => {
+    const exception = decodeReadResponse(encodeExceptionResponse(0x11, 3, 2), FC03);
+    expect(!exception.ok && describeDeviceProblem(exception.problem)).toMatch(/^Modbus exception 02 \(illegal data address\)/);
+    const crc = decodeReadResponse(Uint8Array.from(REPLY, (b, i) => (i === 4 ? b ^ 0x10 : b)), FC03);
+    expect(!crc.ok && crc.problem).toEqual({ kind: 'crc' });
+    const framing = decodeReadResponse(encodeReadResponse(0x11, 3, [555, 0]), FC03);
+    expect(!framing.ok && framing.problem).toEqual({ kind: 'framing', detail: 'byte count 4, expected 6' });
+    // An exception of a code the specification does not list is still an exception, not noise.
+    const unknown = decodeReadResponse(encodeExceptionResponse(0x11, 3, 0x20), FC03);
+    expect(!unknown.ok && describeDeviceProblem(unknown.problem)).toBe('Modbus exception 20 (unknown exception)');
   });
 
   it('finds a reply behind leading noise and ignores noise that is not a valid frame', () => {

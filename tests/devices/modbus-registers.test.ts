@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { modbusProfileSchema } from '@shared/devices/schema';
-import { holdingInt16Transducer, inputFloat32Transducer } from '@shared/devices/default-profiles';
+import { holdingInt16Transducer, inputFloat32HighFirstTransducer, inputFloat32Transducer } from '@shared/devices/default-profiles';
 import { modbusReading, profileReadRequest, rawForReading, registersToValue, valueToRegisters } from '../../devices/modbus/registers';
 
 describe('registersToValue', () => {
@@ -37,6 +37,23 @@ describe('registersToValue', () => {
     );
   });
 
+  it('reads a high-word-first float with the high-first profile, and shows what the low-first one makes of it', () => {
+    // 12.5 = 0x41480000 in IEEE 754 binary32 (sign 0, exponent 130, fraction 0.5625; from memory).
+    expect(registersToValue([0x4148, 0x0000], 'float32', 'high-first')).toBe(12.5);
+    expect(modbusReading(inputFloat32HighFirstTransducer, [0x4148, 0x0000])).toMatchObject({ ok: true, value: 12.5 });
+    // The same registers read low word first: 0x00004148, a subnormal near 2.34e-41, what a wrong convention shows.
+    const misread = Buffer.from([0x00, 0x00, 0x41, 0x48]).readFloatBE(0);
+    expect(misread).toBeLessThan(1e-40);
+    expect(modbusReading(inputFloat32Transducer, [0x4148, 0x0000])).toMatchObject({ ok: true, value: misread });
+  });
+
+  it('swaps the bytes within each register when the profile says so', () => {
+    expect(registersToValue([0x4841, 0x0000], 'float32', 'high-first', 'swapped')).toBe(12.5);
+    expect(registersToValue([0x0000, 0x4841], 'float32', 'low-first', 'swapped')).toBe(12.5);
+    expect(registersToValue([0x2b02], 'uint16', 'high-first', 'swapped')).toBe(555);
+    expect(valueToRegisters(12.5, 'float32', 'low-first', 'swapped')).toEqual([0x0000, 0x4841]);
+  });
+
   it('refuses the wrong number of registers', () => {
     expect(() => registersToValue([1], 'float32')).toThrow(/2 register/);
   });
@@ -53,8 +70,8 @@ describe('valueToRegisters', () => {
     ] as const;
     for (const [format, values] of formats) {
       fc.assert(
-        fc.property(values, fc.constantFrom('high-first', 'low-first' as const), (value, order) => {
-          expect(registersToValue(valueToRegisters(value, format, order), format, order)).toBe(value);
+        fc.property(values, fc.constantFrom('high-first', 'low-first' as const), fc.constantFrom('big', 'swapped' as const), (value, order, bytes) => {
+          expect(registersToValue(valueToRegisters(value, format, order, bytes), format, order, bytes)).toBe(value);
         }),
       );
     }

@@ -176,17 +176,19 @@ describe('ModbusTransducerReader', () => {
   });
 
   it.each([
-    ['a bad CRC', () => Buffer.from(frameFor(5).map((b, i, a) => (i === a.length - 1 ? b ^ 0xff : b))), /CRC/],
-    ['a reply from another unit', () => encodeReadResponse(9, 3, [50]), /unit 9, expected 1/],
-    ['an exception reply', () => encodeExceptionResponse(1, 3, 2), /exception 2 \(illegal data address\)/],
-    ['a short reply', () => frameFor(5).subarray(0, 5), /CRC|bytes/],
-  ])('rejects %s without a value', async (_, reply, reason) => {
+    ['a bad CRC', () => Buffer.from(frameFor(5).map((b, i, a) => (i === a.length - 1 ? b ^ 0xff : b))), /CRC/, 'crc'],
+    ['a reply from another unit', () => encodeReadResponse(9, 3, [50]), /unit 9, expected 1/, 'framing'],
+    ['an exception reply', () => encodeExceptionResponse(1, 3, 2), /exception 2 \(illegal data address\)/, 'exception'],
+    ['a short reply', () => frameFor(5).subarray(0, 5), /CRC|bytes/, 'crc'],
+  ])('rejects %s without a value, naming the cause', async (_, reply, reason, kind) => {
     const device = new MockDevice('/dev/mb-bad');
     device.respond = () => Buffer.from(reply());
     const { reader: r, samples } = start((onSample) => new ModbusTransducerReader({ ...common(device), profile: transducer, onSample }));
     await vi.waitFor(() => expect(samples.length).toBeGreaterThanOrEqual(2));
     expect(samples.every((s) => s.status === 'rejected' && !('value' in s))).toBe(true);
-    expect(r.stats()).toMatchObject({ framesOk: 0, timeouts: 0, lastRejectReason: expect.stringMatching(reason) });
+    expect(samples.every((s) => s.problem?.kind === kind)).toBe(true);
+    expect(r.stats()).toMatchObject({ framesOk: 0, timeouts: 0, lastRejectReason: expect.stringMatching(reason), lastProblem: { kind }, everOpened: true });
+    if (kind === 'exception') expect(samples[0].problem).toEqual({ kind: 'exception', code: 2 });
   });
 
   it('counts silence as timeouts and reconnects after the port vanishes', async () => {

@@ -1,3 +1,4 @@
+import { describeDeviceProblem } from '@shared/devices/problems';
 import type { RigLive } from '@shared/realtime/events';
 import type { CalibrationRecord, Instrument } from '@shared/schemas/instruments';
 
@@ -85,6 +86,8 @@ export function aRigLive(nowMs: number, gaugeOneMm: number, problem: string | nu
         timeouts: 0,
         reconnects: 1,
         calibration: 'overdue',
+        problem: null,
+        lastRejection: describeDeviceProblem({ kind: 'crc' }),
       },
       {
         key: 'g2',
@@ -102,6 +105,8 @@ export function aRigLive(nowMs: number, gaugeOneMm: number, problem: string | nu
         timeouts: 14,
         reconnects: 2,
         calibration: 'in-calibration',
+        problem: describeDeviceProblem({ kind: 'port-lost', detail: 'No such file or directory' }),
+        lastRejection: null,
       },
       {
         key: 'p1',
@@ -119,6 +124,8 @@ export function aRigLive(nowMs: number, gaugeOneMm: number, problem: string | nu
         timeouts: 0,
         reconnects: 0,
         calibration: 'due-soon',
+        problem: null,
+        lastRejection: null,
       },
     ],
   };
