@@ -9,7 +9,7 @@ import { applyDesignInputs } from '@shared/interpretation/design-inputs';
 import { InterpretationInputError } from '@shared/interpretation/input-checks';
 import type { InterpretationSettings } from '@shared/schemas/interpretation';
 import { renderAnalysis } from './analysis-text';
-import { DESIGN_OPTIONS, DESIGN_USAGE, designSettings } from './analyze-options';
+import { DESIGN_OPTIONS, DESIGN_USAGE, designSettings, flagOf } from './analyze-options';
 import { BadInputError, loadRecordFile } from './load-record';
 
 const USAGE = `Usage: npm run analyze -- FILE [--json] [design inputs]
@@ -51,7 +51,7 @@ async function main(args: readonly string[]): Promise<number> {
   try {
     input = applyDesignInputs(await loadRecordFile(chosen.file), chosen.settings);
   } catch (error) {
-    if (error instanceof InterpretationInputError) throw new BadInputError(error.message);
+    if (error instanceof InterpretationInputError) throw new BadInputError(`${flagOf(error.field)}: ${error.message.slice(error.field.length + 2)}`);
     throw error;
   }
   const analysis = analyzeRecord(input.record, input.options);

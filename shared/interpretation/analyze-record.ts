@@ -371,7 +371,7 @@ function analyzeFooting(
   const lowerBound = ultimate.applies && ultimate.result.lowerBound ? ' The shear check rests on the lower bound q_ult ≥ q_max, so it is on the safe side.' : '';
   const statement =
     `Net pressure at founding level (gross = net + γ·D_f = net + ${f1(overburden)} kPa); factor of safety ${factorOfSafety} on the net ultimate; ` +
-    `footing settlement limit ${permissibleSettlementMm} mm; settlement scaled by the ${scalingName(scaling)} from the ${plateName(plate)} to the ${footing.widthM} m ${footing.shape} footing.${lowerBound}`;
+    `footing settlement limit ${permissibleSettlementMm} mm; settlement scaled by ${scalingName(scaling)} from the ${plateName(plate)} to the ${footing.widthM} m ${footing.shape} footing.${lowerBound}`;
   const widthForColumnLoad =
     columnLoadKn === undefined
       ? null

@@ -25,9 +25,13 @@ function footingWith(record: TestRecord, o: InterpretationSettings): RecordFooti
 /** The record as the engineer wants it read, and the analysis options, from the settings (page, saved version, command line). */
 export function applyDesignInputs(record: TestRecord, o: InterpretationSettings): { record: TestRecord; options: AnalyzeRecordOptions } {
   const footing = footingWith(record, o);
+  if (o.settlementScaling === 'bond' && o.bondExponent === undefined) throw new InterpretationInputError('bondExponent', 'required with Bond’s rule (0.03 for clay to 0.5 for dense sand)');
+  const scaling: AnalyzeRecordOptions['scaling'] =
+    o.settlementScaling === undefined ? undefined : o.settlementScaling === 'bond' ? { kind: 'bond', exponentN: o.bondExponent as number } : { kind: o.settlementScaling };
   return {
     record: { ...record, footing },
     options: {
+      ...(scaling ? { scaling } : {}),
       ...(o.ultimateMethod ? { ultimateMethod: o.ultimateMethod } : {}),
       ...(o.evConvention ? { evConvention: o.evConvention } : {}),
       ...(o.columnLoadKn !== undefined ? { columnLoadKn: o.columnLoadKn } : {}),

@@ -78,9 +78,9 @@ const SCALINGS = {
 
 /** The names a practitioner reads for each settlement-scaling rule. */
 export const SCALING_NAMES: Record<SettlementScaling['kind'], string> = {
-  terzaghiPeckSand: 'Terzaghi & Peck sand rule',
-  dasSand: 'sand rule, Das form',
-  clayLinear: 'linear rule for clay',
+  terzaghiPeckSand: 'the Terzaghi & Peck sand rule',
+  dasSand: 'the sand rule in Das’s form',
+  clayLinear: 'the linear rule for clay',
   bond: 'Bond’s rule',
 };
 

@@ -43,6 +43,10 @@ export const interpretationSettings = z.strictObject({
   foundationDepthM: numeric(z.number().min(0).max(50)).optional(),
   /** Unit weight of the soil above founding level, kN/m³. */
   unitWeightKnM3: numeric(z.number().min(0).max(30)).optional(),
+  /** Settlement scaling from plate to footing; default Terzaghi & Peck on sand, the linear rule on clay. */
+  settlementScaling: z.enum(['terzaghiPeckSand', 'dasSand', 'clayLinear', 'bond']).optional(),
+  /** Bond's exponent n (0.03 clay … 0.5 dense sand), needed with the Bond rule. */
+  bondExponent: numeric(z.number().min(0).max(1)).optional(),
   /** Column load on a square footing, kN: gives the footing width for the settlement limit. */
   columnLoadKn: numeric(z.number().positive().max(100_000)).optional(),
   /** The ultimate-pressure method carried to the footing; default the lowest ultimate within the test, else q_ult ≥ q_max. */

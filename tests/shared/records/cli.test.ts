@@ -118,6 +118,12 @@ describe('npm run analyze', { timeout: 30_000 }, () => {
     expect(run.stdout).toContain('factor of safety 2.5 on the net ultimate');
     const bad = await analyze(`${FIXTURES}/sand-bearing-450-square.json`, '--soil', 'rock');
     expect([bad.code, bad.stderr]).toEqual([2, 'analyze: --soil: "rock" is not one of sand, clay, cohesionless, cohesive\n']);
+    const bond = await analyze(`${FIXTURES}/sand-bearing-450-square.json`, '--scaling', 'bond', '--bond-n', '0.3');
+    const bondSettlement = result(result(analyzeRecord(fixtureRecord('sand-bearing-450-square.json'), { scaling: { kind: 'bond', exponentN: 0.3 } }).footing).settlement);
+    expect(bond.stdout).toContain(`  Safe pressure for settlement          ${bondSettlement.qKpa?.toFixed(1)} kPa`);
+    expect(bond.stdout).toContain('settlement scaled by Bond’s rule (n = 0.3)');
+    const noN = await analyze(`${FIXTURES}/sand-bearing-450-square.json`, '--scaling', 'bond');
+    expect([noN.code, noN.stderr]).toEqual([2, 'analyze: --bond-n: required with Bond’s rule (0.03 for clay to 0.5 for dense sand)\n']);
     const low = await analyze(`${FIXTURES}/sand-bearing-450-square.json`, '--safety-factor', '0.5');
     expect(low.code).toBe(2);
     expect(low.stderr).toMatch(/^analyze: --safety-factor: Too small/);

@@ -11,6 +11,12 @@ const SOILS = [
   { value: 'cohesionless', label: 'cohesionless (sand, gravel)' },
   { value: 'cohesive', label: 'cohesive (clay)' },
 ];
+const SCALINGS = [
+  { value: 'terzaghiPeckSand', label: 'Terzaghi & Peck sand rule' },
+  { value: 'dasSand', label: 'sand rule, Das form' },
+  { value: 'clayLinear', label: 'linear rule for clay' },
+  { value: 'bond', label: 'Bond’s rule (give n)' },
+];
 const EV = [
   { value: 'firstLoadingMax', label: 'σ0max of the first loading for both' },
   { value: 'branchMax', label: 'each branch’s own σ0max' },
@@ -36,6 +42,8 @@ export function SettingsForm({ settings, onApply, busy }: { settings: Interpreta
       <NumberField label="Footing width" unit="m" hint="Empty: the record’s footing" {...field('footingWidthM')} />
       <NumberField label="Footing length" unit="m" hint="Rectangular footings: for the shape factor" {...field('footingLengthM')} />
       <SelectField label="Soil behaviour" options={SOILS} placeholder="As in the record" {...field('soilBehaviour')} />
+      <SelectField label="Settlement scaling" options={SCALINGS} placeholder="By the soil (sand: Terzaghi & Peck; clay: linear)" {...field('settlementScaling')} />
+      <NumberField label="Bond exponent n" hint="0.03 clay … 0.5 dense sand; with Bond’s rule" {...field('bondExponent')} />
       <NumberField label="Permissible settlement" unit="mm" hint="Empty: 25 mm (common practice for footings on sand)" {...field('permissibleSettlementMm')} />
       <NumberField label="Factor of safety" hint="Empty: 3, on the net ultimate pressure" {...field('factorOfSafety')} />
       <NumberField label="Footing depth" unit="m" hint="Base below ground, for the net pressure; empty: 0" {...field('foundationDepthM')} />

@@ -37,6 +37,8 @@ export const EMPTY_DRAFT: SettingsDraft = {
   evRelaxFraction: '',
   unsoakedDeformationMm: '',
   soakedDeformationMm: '',
+  settlementScaling: '',
+  bondExponent: '',
 };
 
 /** [lowest, highest, whether the lowest itself is allowed, whole numbers only], as the server's schema checks them. */
@@ -53,6 +55,7 @@ const NUMBER_FIELDS: Partial<Record<keyof InterpretationSettings, readonly [numb
   evMaxRatio: [1, 10, true],
   evRelaxFraction: [0, 1, false],
   unsoakedDeformationMm: [0, 100, false],
+  bondExponent: [0, 1, true],
   soakedDeformationMm: [0, 100, false],
 };
 
