@@ -1,3 +1,4 @@
+import { describeDeviceProblem } from '@shared/devices/problems';
 import type { RigLive } from '@shared/realtime/events';
 import { act, renderHook, screen, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
@@ -32,6 +33,23 @@ describe('device check', () => {
     expect(screen.getByTestId('reading-p1').textContent).toBe('123.40bar');
     expect(pressure.getByText('Due soon')).toBeTruthy();
     expect(pressure.queryByRole('button', { name: 'Set display zero' })).toBeNull(); // zero is for gauges only
+  });
+
+  it('says why a channel has no good reading: the exception by code and meaning, a port that never opened, the last rejection', () => {
+    const live = aRigLive(Date.now(), 1);
+    const exception = describeDeviceProblem({ kind: 'exception', code: 2 });
+    live.channels[2] = { ...live.channels[2], status: 'rejected', value: null, raw: null, problem: exception, lastRejection: exception };
+    live.channels[1] = { ...live.channels[1], reconnects: 0, problem: describeDeviceProblem({ kind: 'port-never-opened', detail: 'No such file or directory' }) };
+    renderWithProviders(<DeviceCheck feed={feedOf(live)} />);
+    const pressure = within(card('Jack oil pressure'));
+    expect(pressure.getByText('Frame rejected')).toBeTruthy();
+    expect(screen.getByTestId('problem-p1').textContent).toMatch(/^Modbus exception 02 \(illegal data address\)/);
+    expect(screen.queryByTestId('last-rejection-p1')).toBeNull(); // the same cause is said once
+    expect(screen.getByTestId('problem-g2').textContent).toBe('Port never opened: No such file or directory');
+    // Good readings again, the earlier CRC rejection still named; nothing called "garbled".
+    expect(screen.queryByTestId('problem-g1')).toBeNull();
+    expect(screen.getByTestId('last-rejection-g1').textContent).toMatch(/^CRC error/);
+    expect(screen.queryByText(/garbled/i)).toBeNull();
   });
 
   it('shows the rig problem prominently', () => {

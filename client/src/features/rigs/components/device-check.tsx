@@ -69,6 +69,20 @@ function ChannelCard({ channel, nowMs, zero, onZero }: ChannelCardProps) {
         <dd>
           <StateWord {...SAMPLE_WORDS[channel.status]} />
         </dd>
+        {channel.problem && (
+          <>
+            <dt className="font-semibold">Why</dt>
+            <dd className="font-semibold text-alarm-900" data-testid={`problem-${channel.key}`}>
+              {channel.problem}
+            </dd>
+          </>
+        )}
+        {channel.lastRejection && channel.lastRejection !== channel.problem && (
+          <>
+            <dt className="font-semibold">Last rejection</dt>
+            <dd data-testid={`last-rejection-${channel.key}`}>{channel.lastRejection}</dd>
+          </>
+        )}
         <dt className="font-semibold">Link</dt>
         <dd>
           <StateWord {...LINK_WORDS[channel.link]} />

@@ -43,6 +43,6 @@ export const LINK_WORDS: Record<ChannelLive['link'], Word> = {
 export const SAMPLE_WORDS: Record<ChannelLive['status'], Word> = {
   ok: { symbol: '✓', word: 'Good', bad: false },
   timeout: { symbol: '⚠', word: 'No answer (timeout)', bad: true },
-  rejected: { symbol: '✖', word: 'Garbled frame rejected', bad: true },
+  rejected: { symbol: '✖', word: 'Frame rejected', bad: true },
   disconnected: { symbol: '⚠', word: 'Disconnected', bad: true },
 };
