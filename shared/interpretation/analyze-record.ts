@@ -532,7 +532,10 @@ export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions 
   const kSettlementMm = options.kSettlementMm ?? procedure.kSettlement.mm;
   const label = kLabel(plate.sizeMm);
   const atSettlement = run('subgradeModulus', () => ({ ...subgradeModulusAtSettlement(firstLoading, kSettlementMm), label }));
-  const atPressure = run('subgradeModulus', () => ({ ...subgradeModulusAtPressure(firstLoading, FIXED_PRESSURE_KPA), label }));
+  const atPressure: Finding<LabelledModulus> =
+    procedure.kind === 'modulus'
+      ? notApplicable('the 10 psi convention belongs to pavement tests (US Army Corps, 30 in plate), not to the modulus test')
+      : run('subgradeModulus', () => ({ ...subgradeModulusAtPressure(firstLoading, FIXED_PRESSURE_KPA), label }));
   const standardPlate: SubgradeAnalysis['standardPlate'] = !atSettlement.applies
     ? notApplicable(atSettlement.reason)
     : atSettlement.result.kMnM3 === null
@@ -621,7 +624,12 @@ export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions 
       atSettlement,
       atPressure,
       standardPlate,
-      cbrEstimate: standardPlate.applies ? attempt(() => cbrFromK762(standardPlate.result.kMnM3)) : notApplicable(standardPlate.reason),
+      cbrEstimate: standardPlate.applies
+        ? attempt(() => {
+            const cbr = cbrFromK762(standardPlate.result.kMnM3);
+            return standardPlate.result.kind === 'converted' ? { ...cbr, source: `${cbr.source}; from the converted k, so a conversion upon a conversion` } : cbr;
+          })
+        : notApplicable(standardPlate.reason),
       soaked:
         options.soakedSpecimens === undefined
           ? null
