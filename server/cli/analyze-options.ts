@@ -31,6 +31,7 @@ const METHOD_WORDS: Record<string, NonNullable<InterpretationSettings['ultimateM
   hyperbolic: 'hyperbolic',
   criterion: 'settlementCriterion',
   'brinch-hansen': 'brinchHansen80',
+  'brinch-hansen-90': 'brinchHansen90',
   'largest-pressure': 'largestPressure',
 };
 const SOIL_WORDS: Record<string, NonNullable<InterpretationSettings['soilBehaviour']>> = { sand: 'cohesionless', clay: 'cohesive', cohesionless: 'cohesionless', cohesive: 'cohesive' };

@@ -1,4 +1,4 @@
-import { type CurvePoint, checkLoadingCurve, pressureAtSettlement } from './curve';
+import { type CurvePoint, checkLoadingCurve, pressureAtSettlement, settlementAtPressure } from './curve';
 import { InterpretationInputError, requireInRange, requirePositive } from './input-checks';
 import { fitLine, type LineFit } from './regression';
 import { type BreakSignificance, breakSignificance, roundingSd } from './significance';
@@ -7,7 +7,7 @@ import { type BreakSignificance, breakSignificance, roundingSd } from './signifi
 export const DEFAULT_RESOLUTION_MM = 0.01;
 
 /** The ultimate-pressure methods of DOMAIN §B.2. */
-export type UltimateMethod = 'logLogIntersection' | 'tangentIntersection' | 'hyperbolic' | 'settlementCriterion' | 'brinchHansen80';
+export type UltimateMethod = 'logLogIntersection' | 'tangentIntersection' | 'hyperbolic' | 'settlementCriterion' | 'brinchHansen80' | 'brinchHansen90';
 
 /** How well a method's fit reproduces the data it used. */
 export interface FitQuality {
@@ -388,6 +388,53 @@ export function brinchHansenUltimate(points: readonly CurvePoint[]): UltimateRes
 }
 
 // ---------------------------------------------------------------------------------------------------
+// Brinch Hansen 90 %
+
+/** Working of the Brinch Hansen 90 % criterion. */
+export interface BrinchHansen90Details {
+  /** Settlement at 0.9·q_u read from the curve, mm. */
+  settlementAt90PercentMm: number;
+}
+
+const BRINCH_HANSEN_90 = {
+  method: 'brinchHansen90',
+  label: 'Brinch Hansen 90 %',
+  formula: 'q_u where s(q_u) = 2·s(0.9·q_u), s read from the curve by linear interpolation',
+  source: 'Brinch Hansen (1963) ASCE JSMFD 89(SM4), 90 % criterion',
+} as const;
+
+/**
+ * Brinch Hansen 90 % criterion (Brinch Hansen 1963): the ultimate pressure is the one at which the settlement
+ * is twice the settlement at 90 % of it, s(q_u) = 2·s(0.9·q_u), both read from the curve (which should start
+ * from its origin). The first crossing of s(q) − 2·s(0.9q) from below zero, by bisection between measured
+ * pressures. Null when the test never gets there (no extrapolation).
+ */
+export function brinchHansen90Ultimate(points: readonly CurvePoint[]): UltimateResult<'brinchHansen90', BrinchHansen90Details> {
+  checkLoadingCurve(points);
+  const excess = (q: number) => {
+    const [s, s90] = [settlementAtPressure(points, q), settlementAtPressure(points, 0.9 * q)];
+    return s === null || s90 === null ? null : s - 2 * s90;
+  };
+  const qs = points.map((p) => p.pressureKpa).filter((q) => excess(q) !== null);
+  let low: number | null = null;
+  for (const q of qs) {
+    const f = excess(q) as number;
+    if (f < 0) low = q;
+    else if (low !== null) {
+      let [a, b] = [low, q];
+      for (let i = 0; i < 60; i++) {
+        const mid = (a + b) / 2;
+        if ((excess(mid) as number) < 0) a = mid;
+        else b = mid;
+      }
+      const s90 = settlementAtPressure(points, 0.9 * b) as number;
+      return result(BRINCH_HANSEN_90, { qUltKpa: b, sUltMm: 2 * s90, details: { settlementAt90PercentMm: s90 } });
+    }
+  }
+  return result(BRINCH_HANSEN_90, { reason: 'not reached: the settlement never doubles over the last tenth of the pressure within the test' });
+}
+
+// ---------------------------------------------------------------------------------------------------
 // Side by side
 
 /** Options of {@link compareUltimateMethods}; each part goes to its method. */
@@ -412,7 +459,8 @@ export type AnyUltimateResult =
   | UltimateResult<'tangentIntersection', TangentDetails>
   | UltimateResult<'hyperbolic', HyperbolicDetails>
   | UltimateResult<'settlementCriterion', SettlementCriterionDetails>
-  | UltimateResult<'brinchHansen80', BrinchHansenDetails>;
+  | UltimateResult<'brinchHansen80', BrinchHansenDetails>
+  | UltimateResult<'brinchHansen90', BrinchHansen90Details>;
 
 /**
  * Every ultimate-pressure method of DOMAIN §B.2 on one loading curve, side by side, so that the engineer
@@ -430,5 +478,6 @@ export function compareUltimateMethods(points: readonly CurvePoint[], plateWidth
     hyperbolicUltimate(points, criterionMm, interpolated),
     settlementCriterionUltimate(interpolated, plateWidthMm, options.criterion),
     brinchHansenUltimate(points),
+    brinchHansen90Ultimate(interpolated),
   ];
 }

@@ -8,6 +8,7 @@ export const ULTIMATE_METHODS = [
   'hyperbolic',
   'settlementCriterion',
   'brinchHansen80',
+  'brinchHansen90',
   'largestPressure',
 ] as const satisfies readonly UltimateChoice[];
 
@@ -18,6 +19,7 @@ export const ULTIMATE_METHOD_NAMES: Record<UltimateChoice, string> = {
   hyperbolic: 'Hyperbolic asymptote (Chin–Kondner)',
   settlementCriterion: 'Settlement criterion',
   brinchHansen80: 'Brinch Hansen 80 %',
+  brinchHansen90: 'Brinch Hansen 90 %',
   largestPressure: 'Largest pressure carried (q_ult ≥ q_max)',
 };
 

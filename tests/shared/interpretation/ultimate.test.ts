@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
+  brinchHansen90Ultimate,
   brinchHansenUltimate,
   compareUltimateMethods,
   hyperbolicUltimate,
@@ -162,7 +163,7 @@ describe('Brinch Hansen 80 %', () => {
 describe('compareUltimateMethods', () => {
   it('returns every method side by side with its source', () => {
     const all = compareUltimateMethods(C6, 300);
-    expect(all.map((r) => r.method)).toEqual(['logLogIntersection', 'tangentIntersection', 'hyperbolic', 'settlementCriterion', 'brinchHansen80']);
+    expect(all.map((r) => r.method)).toEqual(['logLogIntersection', 'tangentIntersection', 'hyperbolic', 'settlementCriterion', 'brinchHansen80', 'brinchHansen90']);
     all.forEach((r) => {
       expect(r.source.length).toBeGreaterThan(10);
       expect(r.formula.length).toBeGreaterThan(10);
@@ -185,5 +186,22 @@ describe('compareUltimateMethods', () => {
     expect(() => compareUltimateMethods(curve([100, 200, 150], [1, 2, 2.5]), 300)).toThrow(/points\[2\]\.pressureKpa: pressures must rise/);
     expect(() => compareUltimateMethods(curve([100, 200], [1, Number.NaN]), 300)).toThrow(/points\[1\]\.settlementMm/);
     expect(() => compareUltimateMethods(C5, 0)).toThrow(/plateWidthMm/);
+  });
+});
+
+describe('Brinch Hansen 90 %', () => {
+  it('on a hyperbola q = s/(a + b·s) the criterion s(q) = 2·s(0.9q) gives q = 0.8/(0.9·b) (closed form [calc]; Brinch Hansen 1963)', () => {
+    // a = 0.01 mm/kPa, b = 1/500: q_u = 0.8·500/0.9 = 444.44 kPa; the curve from its origin, every 5 kPa to 495 kPa.
+    const qs = Array.from({ length: 100 }, (_, i) => 5 * i);
+    const points = qs.map((q) => ({ pressureKpa: q, settlementMm: (0.01 * q) / (1 - q / 500) }));
+    const r = brinchHansen90Ultimate(points);
+    expectRel(r.qUltKpa, 400 / 0.9, 2e-3); // linear interpolation between 5 kPa points
+    expectRel(r.sUltMm, 2 * r.details!.settlementAt90PercentMm);
+  });
+
+  it('is not reached on a straight line, and says so', () => {
+    const r = brinchHansen90Ultimate(curve([0, 100, 200, 300], [0, 1, 2, 3]));
+    expect(r.qUltKpa).toBeNull();
+    expect(r.reason).toMatch(/^not reached/);
   });
 });
