@@ -20,6 +20,7 @@ import { EditProjectRoute, editProjectLoader, NewProjectRoute, newProjectLoader 
 import { ProjectsRoute, projectsLoader } from './routes/projects';
 import { ReplayRoute, replayLoader } from './routes/replay';
 import { ReportsRoute, reportsLoader } from './routes/reports';
+import { DeviceProfilesRoute, deviceProfileFormLoader, deviceProfilesLoader, EditDeviceProfileRoute, NewDeviceProfileRoute } from './routes/device-profiles';
 import { RigCheckRoute, rigCheckLoader } from './routes/rig-check';
 import { EditRigRoute, NewRigRoute, RigsRoute, rigFormLoader, rigsLoader } from './routes/rigs';
 import { NotFoundRoute, RouteError } from './routes/route-error';
@@ -71,6 +72,9 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
             { path: paths.newRig.pattern, element: <NewRigRoute />, loader: rigFormLoader(queryClient) },
             { path: paths.editRig.pattern, element: <EditRigRoute />, loader: rigFormLoader(queryClient) },
             { path: paths.rigCheck.pattern, element: <RigCheckRoute />, loader: rigCheckLoader(queryClient) },
+            { path: paths.deviceProfiles.pattern, element: <DeviceProfilesRoute />, loader: deviceProfilesLoader(queryClient) },
+            { path: paths.newDeviceProfile.pattern, element: <NewDeviceProfileRoute />, loader: deviceProfileFormLoader(queryClient) },
+            { path: paths.editDeviceProfile.pattern, element: <EditDeviceProfileRoute />, loader: deviceProfileFormLoader(queryClient) },
             { path: paths.organizations.pattern, element: <OrganizationsRoute />, loader: organizationsLoader(queryClient) },
             { path: paths.users.pattern, element: <UsersRoute />, loader: usersLoader(queryClient) },
             { path: paths.newRun.pattern, element: <RunSetupRoute />, loader: runSetupLoader(queryClient) },

@@ -31,6 +31,9 @@ export const paths = {
   newRig: { pattern: '/rigs/new', href: () => '/rigs/new' },
   editRig: { pattern: '/rigs/:rigId/edit', href: (id: number) => `/rigs/${id}/edit` },
   rigCheck: { pattern: '/rigs/:rigId/check', href: (id: number) => `/rigs/${id}/check` },
+  deviceProfiles: { pattern: '/device-profiles', href: () => '/device-profiles' },
+  newDeviceProfile: { pattern: '/device-profiles/new', href: () => '/device-profiles/new' },
+  editDeviceProfile: { pattern: '/device-profiles/:profileId/edit', href: (id: string) => `/device-profiles/${encodeURIComponent(id)}/edit` },
 } as const;
 
 /** Where to go after sign-in: only a path on this site, never another origin. */

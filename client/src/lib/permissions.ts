@@ -13,6 +13,9 @@ const GRANTS = {
   'organizations:read': ['admin', 'engineer', 'operator'],
   'organizations:write': ['admin', 'engineer'],
   'users:manage': ['admin'],
+  /** The lab's device profiles: engineers read them (to choose one for a rig), admins define them. */
+  'device-profiles:read': ['admin', 'engineer'],
+  'device-profiles:write': ['admin'],
   /** Staff see and add photos (clients meet them in the signed report); operators change only their own. */
   'photos:read': ['admin', 'engineer', 'operator'],
   'photos:change-any': ['admin', 'engineer'],

@@ -40,9 +40,12 @@ export function RigsRoute() {
         title="Rigs"
         actions={
           canEdit && (
-            <LinkButton to={paths.newRig.href()} variant="primary">
-              New rig
-            </LinkButton>
+            <>
+              <LinkButton to={paths.deviceProfiles.href()}>Device profiles</LinkButton>
+              <LinkButton to={paths.newRig.href()} variant="primary">
+                New rig
+              </LinkButton>
+            </>
           )
         }
       />

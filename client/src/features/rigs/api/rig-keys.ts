@@ -4,4 +4,5 @@ export const rigKeys = {
   list: () => [...rigKeys.all, 'list'] as const,
   detail: (id: number) => [...rigKeys.all, 'detail', id] as const,
   profiles: () => ['device-profiles'] as const,
+  profile: (id: string) => ['device-profiles', 'detail', id] as const,
 };
