@@ -117,6 +117,18 @@ describe('a run measured with its own set-up', () => {
     expect((await send({ type: 'stop', reason: 'test over' })).status).toBe(200);
   });
 
+  it('never serves a cached record older than its location or its corrections', async () => {
+    const runId = await recordedRun(t.sequelize, engineer, 'Run for the record cache');
+    const first = await loadRunRecord(runId);
+    expect((await engineer.patch('/api/locations/1', { soilDescription: 'Dense gravelly sand, re-described' })).status).toBe(200);
+    expect((await loadRunRecord(runId)).ground?.description).toBe('Dense gravelly sand, re-described');
+    // A correction of the last 100 kPa reading of g1 (seq 3 × 59 + 1, see recordedRun) shows at once.
+    expect((await engineer.post(`/api/runs/${runId}/corrections`, { seq: 178, action: 'correct-value', valueMm: 1.5, reason: 'Misread' })).status).toBe(201);
+    const corrected = await loadRunRecord(runId);
+    expect(corrected.stages[1].readings.at(-1)!.gauges.g1).toBeCloseTo(1.5, 6);
+    expect(corrected.stages[1].readings.at(-1)!.gauges.g1).not.toBeCloseTo(first.stages[1].readings.at(-1)!.gauges.g1, 6);
+  });
+
   it('measures a run kept before snapshots with the calibrations recorded by its creation, not later ones', async () => {
     const runId = await recordedRun(t.sequelize, engineer, 'Run without a snapshot');
     const before = await rebuildRunRecord(runId);
