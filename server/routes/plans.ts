@@ -6,6 +6,8 @@ import { EDITORS, STAFF } from '../auth/permissions';
 import { loadLocation, loadPlan } from '../auth/scope';
 import { patched } from '../http/patch';
 import { route } from '../http/route';
+import { Project } from '../models/project';
+import { Run } from '../models/run';
 import { TestLocation } from '../models/test-location';
 import { TestPlan, planColumns } from '../models/test-plan';
 import { audited } from '../services/audit';
@@ -17,6 +19,26 @@ async function present(plan: TestPlan) {
 }
 
 export const planRoutes = [
+  route({
+    method: 'get',
+    path: '/api/plans/ready',
+    access: STAFF,
+    summary: 'Plans no run has used yet, newest first, with their project and pit: the runs to come',
+    handler: async () => {
+      const used = new Set((await Run.findAll({ attributes: ['planId'], group: ['planId'] })).map((r) => r.planId));
+      const plans = await TestPlan.findAll({
+        order: [['id', 'DESC']],
+        limit: 200,
+        include: [{ model: TestLocation, as: 'location', include: [{ model: Project, as: 'project' }] }],
+      });
+      return {
+        items: plans
+          .filter((p) => !used.has(p.id))
+          .slice(0, 50)
+          .map((p) => ({ id: p.id, name: p.name, pitId: p.location?.pitId ?? '', projectCode: p.location?.project?.code ?? '', createdAt: p.createdAt.toISOString() })),
+      };
+    },
+  }),
   route({
     method: 'get',
     path: '/api/locations/:id/plans',

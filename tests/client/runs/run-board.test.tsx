@@ -38,6 +38,7 @@ const common = {
   'GET /api/auth/me': json(200, { user: OPERATOR, csrfToken: 'session' }),
   'GET /api/health': json(200, { app: 'ok', database: 'ok' }),
   'GET /api/projects': json(200, { items: [aProject({ id: 3, code: 'LD-22', name: 'Depot extension' })] }),
+  'GET /api/plans/ready': json(200, { items: [{ id: 44, name: 'TP-9 bearing test', pitId: 'TP-9', projectCode: 'LD-22', createdAt: '2026-03-05T08:00:00Z' }] }),
 };
 
 describe('home board of runs', () => {
@@ -66,6 +67,9 @@ describe('home board of runs', () => {
     const finished = screen.getByRole('list', { name: 'Finished runs' });
     expect(within(finished).getByText('Run 9')).toBeTruthy();
     expect(within(finished).getByText('2026-03-02')).toBeTruthy();
+    // An operator's next runs: plans not yet run, each one press from its set-up.
+    const next = screen.getByRole('list', { name: 'Next runs' });
+    expect(within(next).getByRole('link', { name: 'Set up the run of TP-9 bearing test' }).getAttribute('href')).toBe('/runs/new?planId=44');
   });
 
   it('sets up a run of a given plan on the chosen rig and opens its console', async () => {

@@ -6,6 +6,8 @@ import { EmptyState, QueryResult } from '../../components/query-states';
 import { paths } from '../../config/paths';
 import { useProjects } from '../../features/projects/api/get-projects';
 import { useRuns } from '../../features/runs/api/get-runs';
+import { useReadyPlans } from '../../features/runs/api/get-ready-plans';
+import { NextRuns } from '../../features/runs/components/next-runs';
 import { ReviewQueues } from '../../features/runs/components/review-queues';
 import { RunBoard } from '../../features/runs/components/run-board';
 import { useCan, useUser } from '../../lib/auth';
@@ -79,6 +81,16 @@ function QueuesOnBoard() {
   );
 }
 
+/** Plans waiting for their run: an operator's next runs. */
+function NextRunsOnBoard() {
+  const plans = useReadyPlans();
+  return (
+    <QueryResult query={plans} loadingLabel="Loading the next runs…">
+      {(items) => <NextRuns plans={items} />}
+    </QueryResult>
+  );
+}
+
 /** Each person's work first: an engineer's queues, an operator's runs; then the projects. */
 export function HomeRoute() {
   const user = useUser();
@@ -111,6 +123,14 @@ export function HomeRoute() {
         </section>
       )}
       {!reviews && runsSection}
+      {canRun && !reviews && (
+        <section aria-labelledby="next-runs" className="mb-8">
+          <h2 id="next-runs" className="mb-3 text-xl font-bold">
+            Next runs
+          </h2>
+          <NextRunsOnBoard />
+        </section>
+      )}
       <section aria-labelledby="my-projects" className="mb-8">
         <h2 id="my-projects" className="mb-3 text-xl font-bold">
           My projects
