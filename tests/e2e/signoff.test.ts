@@ -1,6 +1,7 @@
 /**
- * From a simulated run to the client's inbox in real browsers alone: the operator runs the test on the
- * console (with a note about the weather) to the finish; the engineer replays the run, adds a pit photo
+ * From a finished run to the client's inbox in real browsers alone. The run is a stored one with a note
+ * about the weather (running a test and taking notes on the console are the console tests' part): the
+ * operator finds it finished on its console; the engineer replays the run, adds a pit photo
  * from the console, interprets it, submits and signs it, and e-mails the report; an admin sees the message in the
  * mailbox; the client signs in and downloads the signed PDF. Screenshots in .artifacts/e2e/signoff/.
  */
@@ -11,40 +12,36 @@ import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROOT_DIR } from '../../server/config';
 import type { RunningServer } from '../../server/main';
-import type { SimulatorProcess } from '../../server/ops/simulated-rig';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
 import { Client, demoEmail } from '../support/api';
 import { launchChromium, screenshotter, signInPage, watchForErrors } from '../support/browser';
 import { startLiveServer } from '../support/live-server';
 import { pdfText } from '../support/pdf';
-import { simPlan, simulatedRig } from '../support/sim-run';
+import { simPlan } from '../support/sim-run';
+import { storedBearingRun } from '../support/stored-run';
 
 let server: RunningServer;
 let browser: Browser;
-let sim: SimulatorProcess;
-let planId: number;
-let rigName: string;
+let runId: number;
 
 beforeAll(async () => {
   // One engineer drives the whole flow in the browser, so the second-signer rule (integration-tested) is off here.
   server = await startLiveServer({ clientDir: path.join(ROOT_DIR, 'dist', 'client'), secondSigner: false });
   browser = await launchChromium();
-  const started = await simulatedRig('dense-sand', 100, 'Sign-off rig (simulated)');
-  sim = started.sim;
-  rigName = started.rig.name;
-  // A short bearing test at a Harrowgate Freight pit.
+  // A short bearing test at a Harrowgate Freight pit, finished.
   const engineer = await new Client(server.url).signIn(demoEmail('engineer'));
-  planId = await simPlan(engineer, 'bearing-granular', {
+  const pressuresKpa = [150, 300, 450, 600];
+  const planId = await simPlan(engineer, 'bearing-granular', {
     name: 'Sign-off plan',
-    loading: { mode: 'list', pressuresKpa: [150, 300, 450, 600] },
+    loading: { mode: 'list', pressuresKpa },
     holdRule: { kind: 'rate', maxRateMmPerMin: 0.02, windowMin: 5, minHoldMin: 10 },
     footing: { shape: 'square', widthM: 1.5, lengthM: null, soilBehaviour: 'cohesionless' },
   });
-}, 400_000);
+  runId = await storedBearingRun(server.sequelize, planId, 'Sign-off', pressuresKpa, { notes: [[30, { text: 'Bright, dry, 11 °C', topic: 'weather' }]] });
+}, 120_000);
 afterAll(async () => {
   await browser?.close();
   await server?.close();
-  await sim?.stop();
 });
 
 /** A small photo-like JPEG (a gradient), made with sharp. */
@@ -61,39 +58,12 @@ describe('replay, interpretation, sign-off and delivery in real browsers', () =>
   it('takes a run from the console to a signed report in the client’s hands', async () => {
     const shot = screenshotter('signoff');
 
-    // The operator sets the run up, notes the weather, and takes it through every stage to the finish.
+    // The finished run's console shows its log, with the operator's note about the weather (taken while it ran).
     const rigPage = await browser.newPage({ viewport: { width: 1280, height: 800 } });
     await signInPage(rigPage, server.url, demoEmail('operator'));
-    await rigPage.goto(`${server.url}/runs/new?planId=${planId}`);
-    await rigPage.getByLabel('Rig').selectOption({ label: rigName });
-    await rigPage.getByRole('button', { name: 'Set up the run' }).click();
-    await rigPage.waitForURL(/\/runs\/\d+$/);
-    const runId = Number(rigPage.url().split('/').pop());
-    await until(() => rigPage.getByText('Gauge 1').first().isVisible());
-    const note = rigPage.getByRole('form', { name: 'Add a note' });
-    await note.getByLabel('Note (N)').fill('Bright, dry, 11 °C');
-    await note.getByLabel(/About the weather/).check();
-    await note.getByRole('button', { name: 'Add note' }).click();
+    await rigPage.goto(`${server.url}/runs/${runId}`);
     await until(() => rigPage.getByRole('list', { name: 'Run log' }).getByText('Bright, dry, 11 °C').isVisible());
-    await rigPage.getByRole('button', { name: /Zero gauges/ }).click();
-    await rigPage.getByRole('button', { name: /Start \(seating\)/ }).click();
-    // Each time a hold is met the console offers the next stage, until the last offers Finish. A press
-    // that crosses a change on the screen is refused and simply offered again.
-    const next = rigPage.getByRole('button', { name: /Apply next stage$|Apply next stage A/ }).first();
-    const finish = rigPage.getByRole('button', { name: /^Finish/ });
-    await until(async () => {
-      if (await finish.isVisible()) return true;
-      if (await next.isVisible()) await next.click({ timeout: 5_000 }).catch(() => undefined);
-      return false;
-    }, 400_000).catch(async (err) => {
-      await shot(rigPage, 'run-did-not-reach-finish'); // what the console showed, to see why
-      throw err;
-    });
-    await finish.click();
-    await rigPage.getByRole('button', { name: 'Yes, finish' }).click(); // Finish asks once more
-    await until(() => rigPage.getByText(/Completed/i).first().isVisible());
-    await shot(rigPage, 'run-completed');
-    await server.runs.archiver.drain();
+    await shot(rigPage, 'run-note');
 
     const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
     const errors = watchForErrors(page);
@@ -101,7 +71,6 @@ describe('replay, interpretation, sign-off and delivery in real browsers', () =>
 
     await page.goto(`${server.url}/runs/${runId}/replay`);
     await until(() => page.locator('canvas').first().isVisible());
-    await page.waitForTimeout(1000);
     await shot(page, 'replay');
 
     // A pit photo from the console's folded panel: it goes on the run's report.
@@ -123,9 +92,8 @@ describe('replay, interpretation, sign-off and delivery in real browsers', () =>
     await save.getByLabel('Reason').fill('Clear break in the log–log plot; the other methods bracket it.');
     await shot(page, 'interpretation');
     await save.getByRole('button', { name: 'Save interpretation' }).click();
-    await page.waitForTimeout(1500);
-    await shot(page, 'interpretation-saved');
     await until(async () => (await page.getByText('No interpretation saved yet.').count()) === 0);
+    await shot(page, 'interpretation-saved');
 
     await page.goto(`${server.url}/runs/${runId}/signoff`);
     await until(() => page.getByRole('region', { name: 'Photos on the report' }).getByText('Plate and jack after the last stage').first().isVisible());

@@ -3,13 +3,12 @@ import type { Sequelize } from 'sequelize';
 import request from 'supertest';
 import { type AppParts, createApp } from '../../server/app';
 import type { ServerConfig } from '../../server/config';
-import { migrate } from '../../server/db/migrator';
 import { initModels } from '../../server/db/models';
 import { createSequelize } from '../../server/db/sequelize';
-import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../../server/seed/demo';
+import { DEMO_PASSWORD, DEMO_USERS } from '../../server/seed/demo';
 import type { Role } from '../../shared/schemas/users';
 import { RunManager } from '../../server/runs/run-manager';
-import { freshDatabase } from './test-database';
+import { seededDatabase } from './test-database';
 
 export interface TestApp extends AppParts {
   config: ServerConfig;
@@ -18,13 +17,11 @@ export interface TestApp extends AppParts {
   stop(): Promise<void>;
 }
 
-/** A migrated, demo-seeded database and the Express app over it (no listening socket; supertest drives it). */
+/** A migrated, demo-seeded database (a copy of the run's template) and the Express app over it (no listening socket; supertest drives it). */
 export async function startTestApp(overrides: Partial<ServerConfig> = {}): Promise<TestApp> {
-  const config = await freshDatabase(overrides);
+  const config = await seededDatabase(overrides);
   const sequelize = createSequelize(config.db);
   initModels(sequelize);
-  await migrate(sequelize);
-  await seedDemo();
   const runs = new RunManager({ sequelize, dataDir: config.dataDir, pushView: () => {}, pushSamples: () => {} });
   const parts = createApp(sequelize, config, { runs });
   return {

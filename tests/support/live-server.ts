@@ -1,15 +1,13 @@
 import { io, type Socket } from 'socket.io-client';
 import type { ServerConfig } from '../../server/config';
 import { type RunningServer, startServer } from '../../server/main';
-import { DEMO_PASSWORD, seedDemo } from '../../server/seed/demo';
+import { DEMO_PASSWORD } from '../../server/seed/demo';
 import type { ClientToServerEvents, ServerToClientEvents } from '../../shared/realtime/events';
-import { freshDatabase } from './test-database';
+import { seededDatabase } from './test-database';
 
-/** A real listening server over a fresh, demo-seeded database. */
+/** A real listening server over a fresh, demo-seeded database (a copy of the run's template). */
 export async function startLiveServer(overrides: Partial<ServerConfig> = {}): Promise<RunningServer> {
-  const server = await startServer(await freshDatabase(overrides));
-  await seedDemo();
-  return server;
+  return startServer(await seededDatabase(overrides));
 }
 
 /** Signs in over HTTP; returns the session cookie and CSRF token. */

@@ -57,6 +57,27 @@ export async function storedRun(i: StoredRunInput): Promise<number> {
   return run.id;
 }
 
+/** A stored run's rig: gauges g1, g2 240 mm apart and p1, the demo's calibrated pressure transducer, on its calibrated jack. */
+async function demoTransducerRig(name: string): Promise<Pick<StoredRunInput, 'rigName' | 'channels' | 'jackInstrumentId'>> {
+  const serial = async (s: string) => (await Instrument.findOne({ where: { serialNumber: s } }))!.id;
+  return {
+    rigName: `${name} rig`,
+    channels: [
+      manualGauge('g1', -120),
+      manualGauge('g2', 120),
+      { key: 'p1', role: 'pressure', label: 'Oil', instrumentId: await serial('PT-5520'), profileId: 'manual', port: '', gauge: null },
+    ],
+    jackInstrumentId: await serial('JK-50-031'),
+  };
+}
+
+/** Archives a stored run's samples through the real archive path. */
+async function archiveAll(sequelize: Sequelize, runId: number, rows: SampleRow[]): Promise<void> {
+  const archiver = new Archiver(sequelize);
+  archiver.enqueue(runId, rows);
+  await archiver.drain();
+}
+
 export const RECORDED_RUN_START_MS = 1_750_000_000_000;
 /** Channels g1, g2, p1 of {@link recordedRun}, one sample each per second: seq of channel c at second s. */
 export const recordedSeq = (s: number, channel: number) => 3 * s + channel + 1;
@@ -83,17 +104,10 @@ export async function recordedRun(sequelize: Sequelize, engineer: Client, name: 
     footing: null,
   });
   expect(plan.status).toBe(201);
-  const serial = async (s: string) => (await Instrument.findOne({ where: { serialNumber: s } }))!.id;
   const T = RECORDED_RUN_START_MS;
   const runId = await storedRun({
     planId: plan.body.plan.id,
-    rigName: `${name} rig`,
-    channels: [
-      manualGauge('g1', -120),
-      manualGauge('g2', 120),
-      { key: 'p1', role: 'pressure', label: 'Oil', instrumentId: await serial('PT-5520'), profileId: 'manual', port: '', gauge: null },
-    ],
-    jackInstrumentId: await serial('JK-50-031'),
+    ...(await demoTransducerRig(name)),
     startMs: T,
     durationMs: 60_000,
     events: [
@@ -110,8 +124,56 @@ export async function recordedRun(sequelize: Sequelize, engineer: Client, name: 
       rows.push({ seq: recordedSeq(s, channel), tMs: T + s * 1000, channel, raw: Math.round(value * 1000), value: Math.round(value * 1000), status: SAMPLE_STATUS.ok });
     }
   }
-  const archiver = new Archiver(sequelize);
-  archiver.enqueue(runId, rows);
-  await archiver.drain();
+  await archiveAll(sequelize, runId, rows);
+  return runId;
+}
+
+/**
+ * A finished bearing test of a plan (its pressures `pressuresKpa`) on the demo's calibrated transducer and
+ * jack, written straight to the database, for tests that start where a run ends (review, interpretation,
+ * sign-off), with notes at the given seconds: seating for 20 s, then each pressure held `holdS` seconds, settlement following a hyperbola towards 900 kPa
+ * (invented: 200 kPa/mm initial stiffness) with a little creep in each hold, every sample archived.
+ */
+export async function storedBearingRun(
+  sequelize: Sequelize,
+  planId: number,
+  name: string,
+  pressuresKpa: number[],
+  { holdS = 120, notes = [] }: { holdS?: number; notes?: [number, { text: string; topic?: 'weather' }][] } = {},
+): Promise<number> {
+  const T = RECORDED_RUN_START_MS;
+  const stageStartS = (i: number) => 20 + (i - 1) * holdS; // stage i ≥ 1
+  const endS = stageStartS(pressuresKpa.length + 1);
+  const events: StoredRunInput['events'] = [
+    [0, 'gauges-zeroed', { readings: { g1: 0, g2: 0 } }],
+    [10_000, 'target-reached', { stageIndex: 0 }],
+  ];
+  pressuresKpa.forEach((_, k) => {
+    const i = k + 1;
+    events.push([stageStartS(i) * 1000, 'stage-advanced', { from: i - 1, to: i }], [(stageStartS(i) + 10) * 1000, 'target-reached', { stageIndex: i }]);
+  });
+  for (const [atS, payload] of notes) events.push([atS * 1000, 'note', payload]);
+  events.push([endS * 1000, 'run-completed', {}]);
+  const runId = await storedRun({
+    planId,
+    ...(await demoTransducerRig(name)),
+    startMs: T,
+    durationMs: endS * 1000,
+    events,
+  });
+  const plateAreaM2 = Math.PI * 0.15 ** 2;
+  const rows: SampleRow[] = [];
+  for (let s = 0; s <= endS; s++) {
+    const stage = s < 20 ? 0 : Math.min(pressuresKpa.length, Math.floor((s - 20) / holdS) + 1);
+    const q = stage === 0 ? 7 : pressuresKpa[stage - 1]!;
+    const inHoldS = stage === 0 ? s : s - stageStartS(stage);
+    const settlementMm = q / (200 * (1 - q / 900)) + 0.002 * q * (1 - Math.exp(-inHoldS / 40)) / 10;
+    // Oil pressure that gives q through the jack's 4.926 kN/MPa with the 0.5 kN apparatus; the transducer reads bar (value × 1000).
+    const oilBar = Math.max(0, ((q * plateAreaM2 - 0.5) / 4.926) * 10);
+    for (const [channel, value] of [Math.round(settlementMm * 1000), Math.round(settlementMm * 1000), Math.round(oilBar * 1000)].entries()) {
+      rows.push({ seq: 3 * s + channel + 1, tMs: T + s * 1000, channel, raw: value, value, status: SAMPLE_STATUS.ok });
+    }
+  }
+  await archiveAll(sequelize, runId, rows);
   return runId;
 }

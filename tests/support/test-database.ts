@@ -7,11 +7,14 @@ import { type ServerConfig, defaultConfig } from '../../server/config';
 const run = promisify(execFile);
 let counter = 0;
 
-/** A fresh, empty database in the test project's private MariaDB; returns a server config pointing at it. */
-export async function freshDatabase(overrides: Partial<ServerConfig> = {}): Promise<ServerConfig> {
-  const { port, socket, baseDir } = inject('mariadb');
-  const name = `sscope_t_${process.pid}_${++counter}`;
-  await run('mariadb', ['--no-defaults', `--socket=${socket}`, `-u${userInfo().username}`, '-e', `CREATE DATABASE ${name} CHARACTER SET utf8mb4`]);
+/** SQL as the administrative account over the project's private socket (one client call, many statements). */
+async function adminSql(sql: string): Promise<void> {
+  const { socket } = inject('mariadb');
+  await run('mariadb', ['--no-defaults', `--socket=${socket}`, `-u${userInfo().username}`, '-e', sql], { maxBuffer: 16 << 20 });
+}
+
+function configFor(name: string, overrides: Partial<ServerConfig>): ServerConfig {
+  const { port, baseDir } = inject('mariadb');
   return defaultConfig({
     port: 0,
     clientDir: null,
@@ -20,4 +23,33 @@ export async function freshDatabase(overrides: Partial<ServerConfig> = {}): Prom
     db: { host: '127.0.0.1', port, database: name, user: 'sscope_test', password: 'sscope-test' },
     ...overrides,
   });
+}
+
+const nextName = () => `sscope_t_${process.pid}_${++counter}`;
+
+/** A fresh, empty database in the test project's private MariaDB; returns a server config pointing at it. */
+export async function freshDatabase(overrides: Partial<ServerConfig> = {}): Promise<ServerConfig> {
+  const name = nextName();
+  await adminSql(`CREATE DATABASE ${name} CHARACTER SET utf8mb4`);
+  return configFor(name, overrides);
+}
+
+/**
+ * A fresh database already migrated and demo-seeded: a copy of the run's template (global-mariadb.ts),
+ * tables created from the template's own definitions (foreign keys and auto-increment counters
+ * included, which `CREATE TABLE … LIKE` would drop) and filled with `INSERT … SELECT`, in one client call.
+ */
+export async function seededDatabase(overrides: Partial<ServerConfig> = {}): Promise<ServerConfig> {
+  const { template } = inject('mariadb');
+  const name = nextName();
+  await adminSql(
+    [
+      `CREATE DATABASE ${name} CHARACTER SET utf8mb4`,
+      `USE ${name}`,
+      'SET FOREIGN_KEY_CHECKS = 0',
+      ...template.creates,
+      ...template.tables.map((t) => `INSERT INTO \`${t}\` SELECT * FROM ${template.name}.\`${t}\``),
+    ].join(';\n'),
+  );
+  return configFor(name, overrides);
 }
