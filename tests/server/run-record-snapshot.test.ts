@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadRigContext, setupSnapshot } from '../../server/acquisition/rig-context';
 import { Instrument } from '../../server/models/instrument';
 import { Run } from '../../server/models/run';
+import { DEMO_PASSWORD } from '../../server/seed/demo';
 import { TestPlan } from '../../server/models/test-plan';
 import { loadReportData } from '../../server/services/report-data';
 import { loadRunRecord, rebuildRunRecord } from '../../server/services/run-record';
@@ -21,7 +22,7 @@ let engineer: Client;
 let admin: Client;
 
 beforeAll(async () => {
-  t = await startTestApp();
+  t = await startTestApp({ loginAttempts: 10_000 });
   engineer = await signedIn(t.app, 'engineer');
   admin = await signedIn(t.app, 'admin');
 });
@@ -138,5 +139,23 @@ describe('a run measured with its own set-up', () => {
     await flipGauge(runId);
     const flipped = await loadRunRecord(runId);
     expect(flipped.stages[1].readings.at(-1)!.gauges.g1).toBeCloseTo(-before.stages[1].readings.at(-1)!.gauges.g1, 6);
+  });
+
+  // Last: a signed run locks its location against the changes the tests above make.
+  it('still verifies once signed after a new calibration of its jack and a rig change, with no drift', async () => {
+    const runId = await recordedRun(t.sequelize, engineer, 'Signed run with a snapshot');
+    const run = (await Run.findByPk(runId))!;
+    const plan = (await TestPlan.findByPk(run.planId))!.toInput();
+    await run.update({ state: { ...run.state, setup: setupSnapshot(plan, buildStageSequence(plan), await loadRigContext(run.rigId!)) } });
+    expect((await engineer.post(`/api/runs/${runId}/interpretations`, { chosenMethod: 'largestPressure', reason: 'One increment; its largest pressure.' })).status).toBe(201);
+    expect((await engineer.post(`/api/runs/${runId}/signoff/submit`)).status).toBe(200);
+    expect((await admin.post(`/api/runs/${runId}/signoff/sign`, { password: DEMO_PASSWORD, meaning: 'approved' })).status).toBe(200);
+    const signed = (await admin.get(`/api/runs/${runId}/verify`)).body;
+    expect(signed).toMatchObject({ matches: true, live: { matches: true, changed: [] } });
+
+    await recalibrateJack();
+    await flipGauge(runId);
+
+    expect((await admin.get(`/api/runs/${runId}/verify`)).body).toMatchObject({ matches: true, recordedHash: signed.recordedHash, live: { matches: true, hash: signed.live.hash, changed: [] } });
   });
 });
