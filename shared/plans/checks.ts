@@ -1,4 +1,5 @@
 import { plateForceKn } from '../domain/plate';
+import { plateRuleChecks } from '../procedures/plate-rules';
 import type { ProcedureProfile } from '../procedures/profiles';
 import type { PlanCheck, PlanInput } from '../schemas/plans';
 import type { LocationInput } from '../schemas/projects';
@@ -42,6 +43,7 @@ export function checkPlan(plan: PlanInput, profile: ProcedureProfile | undefined
 
   const loads = loadingTargets(plan.loading);
   if (loads.length === 0) warn('no_increments', 'The loading schedule yields no increments.', 'loading');
+  else checks.push(...plateRuleChecks(plan, profile, Math.max(...loads)));
   if (loads.some((q, i) => i > 0 && q <= loads[i - 1])) warn('increments_order', 'Loading pressures should rise from one increment to the next.', 'loading');
   if (loads.length > 0 && plan.seatingPressureKpa >= loads[0]) {
     warn('seating_pressure', `Seating pressure ${plan.seatingPressureKpa} kPa is not below the first increment ${loads[0]} kPa.`, 'seatingPressureKpa');
