@@ -115,3 +115,9 @@ export function describeRunEvent(event: EventLike): { title: string; detail: str
       return { title: fallbackTitle(event.kind), detail: text(p.text) || text(p.reason) || text(p.message) };
   }
 }
+
+/** A run event as one line: "Alarm raised: Load 7.1 kPa is …", or the title alone when there is no detail. */
+export function runEventLine(event: EventLike): string {
+  const { title, detail } = describeRunEvent(event);
+  return detail ? `${title}: ${detail}` : title;
+}

@@ -23,7 +23,7 @@ describe('replay page', () => {
     ]);
     const marks = screen.getByRole('list', { name: 'Events and alarms' });
     expect(within(marks).getByRole('button', { name: 'Note: Kentledge settled at 0:15:00' })).toBeTruthy();
-    const alarm = within(marks).getByRole('button', { name: 'Alarm raise: Gauge travel low at 0:20:00' });
+    const alarm = within(marks).getByRole('button', { name: 'Alarm raised: Gauge travel low at 0:20:00' });
     expect(alarm.className).toContain('bg-alarm-700');
     expect(screen.getByRole('img', { name: /Mean settlement and oil pressure over the run/ })).toBeTruthy();
   });

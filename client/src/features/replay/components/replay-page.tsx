@@ -1,3 +1,4 @@
+import { runEventLine } from '@shared/runs/event-text';
 import type { RunView } from '@shared/schemas/runs';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { Link } from 'react-router-dom';
@@ -83,7 +84,14 @@ function LoadedReplay({ runId, view, events, overview, live, buckets }: LoadedRe
   const shown = zoom ? (zoomed.data ?? overview) : overview;
 
   const stages = useMemo(() => stageSpans(events, view.stages, span.toMs), [events, view.stages, span.toMs]);
-  const marks = useMemo(() => timelineMarks(events), [events]);
+  // Each mark named in words, as the console's log names the event.
+  const marks = useMemo(() => {
+    const byId = new Map(events.map((e) => [e.id, e]));
+    return timelineMarks(events).map((m) => {
+      const event = byId.get(m.id);
+      return event ? { ...m, label: runEventLine(event) } : m;
+    });
+  }, [events]);
   const chartData = useMemo(() => envelopeData(view, shown), [view, shown]);
 
   // Readings are asked for at most once per second of run time, coarser while playing fast.

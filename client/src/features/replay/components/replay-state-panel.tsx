@@ -1,14 +1,9 @@
-import { describeRunEvent } from '@shared/runs/event-text';
+import { runEventLine } from '@shared/runs/event-text';
 import { formatPlanned } from '@shared/units/format';
 import { formatNumber, Readout } from '../../../components/readout';
 import type { ReplayEvent } from '../api/replay-api';
 import { formatElapsed, type StageSpan } from '../utils/timeline';
 
-/** An event in words, as the console's log writes it. */
-function eventWords(e: ReplayEvent): string {
-  const { title, detail } = describeRunEvent(e);
-  return detail ? `${title}: ${detail}` : title;
-}
 
 export interface ReplayStatePanelProps {
   fromMs: number;
@@ -48,7 +43,7 @@ export function ReplayStatePanel({ fromMs, tMs, stage, pressure, pressureKpa, me
             {events.map((e) => (
               <li key={e.id} className={`flex gap-3 px-3 py-1 ${e.kind.startsWith('alarm-') ? 'font-semibold text-alarm-900' : ''}`}>
                 <span className="font-mono">{formatElapsed(e.atMs - fromMs)}</span>
-                <span>{eventWords(e)}</span>
+                <span>{runEventLine(e)}</span>
               </li>
             ))}
           </ol>
