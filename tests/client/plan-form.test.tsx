@@ -70,4 +70,26 @@ describe('plan form', () => {
     expect(within(rows[1]).getByText('100')).toBeTruthy();
     expect(within(rows[0]).getByText('Seating')).toBeTruthy();
   });
+
+  it("offers the chosen plate's maximum and stop limit, and the check warns until they are taken", async () => {
+    stubFetch({});
+    const { user } = renderWithProviders(<PlanForm location={LOCATION} />);
+    await user.selectOptions(screen.getByLabelText('Procedure'), 'modulus-two-cycle');
+    await user.type(screen.getByLabelText('Reaction capacity'), '500');
+    expect(screen.queryByRole('button', { name: /plate's stages/ })).toBeNull(); // the 300 mm defaults fit the 300 mm plate
+
+    const size = screen.getByLabelText('Plate size');
+    await user.clear(size);
+    await user.type(size, '600');
+    // DIN 18134 family, from memory: a 600 mm plate to 0.25 MN/m², stop at 8 mm.
+    expect(within(checkPanel()).getByText(/loads a 600 mm plate to 250 kPa/)).toBeTruthy();
+    expect(within(checkPanel()).getByText(/stops a 600 mm plate at 8 mm/)).toBeTruthy();
+    await user.click(screen.getByRole('button', { name: "Use the 600 mm plate's stages and stop limit" }));
+
+    expect(Number(fieldValue('Stop at mean settlement'))).toBe(8);
+    expect(within(checkPanel()).queryByText(/600 mm plate/)).toBeNull();
+    const rows = within(screen.getByRole('region', { name: 'Stage sequence' })).getAllByRole('row').slice(1);
+    expect(rows.some((r) => within(r).queryByText('250'))).toBe(true);
+    expect(rows.some((r) => within(r).queryByText('500'))).toBe(false);
+  }, 30_000); // many keystrokes through the whole form: slow on a loaded machine
 });

@@ -1,6 +1,9 @@
 import { PLATE_SHAPES } from '@shared/domain/plate';
+import { defaultsForPlate, plateRuleOf, plateRuleRow } from '@shared/procedures/plate-rules';
+import { findProfile } from '@shared/procedures/profiles';
 import { REACTION_KINDS } from '@shared/schemas/plans';
 import { useFormContext, useWatch } from 'react-hook-form';
+import { Button } from '../../../components/button';
 import type { PlanFormValues } from '../utils/plan-draft';
 import { type Options, PlanNumber, PlanSection, PlanSelect, PlanText } from './plan-inputs';
 
@@ -38,11 +41,48 @@ export function PlateFields() {
         <PlanNumber path="plate.sizeMm" />
         <PlanNumber path="plate.thicknessMm" />
       </div>
+      <PlateRuleOffer />
       <div className="grid gap-4 sm:grid-cols-2">
         <PlanNumber path="seatingPressureKpa" hint="Applied to bed the plate, then released before zeroing." />
         <PlanNumber path="apparatusWeightKn" hint="Column, spacers and jack body resting on the plate." />
       </div>
     </PlanSection>
+  );
+}
+
+/**
+ * When the procedure ties the maximum pressure and stop limit to the plate and the plan holds another
+ * plate's values, offers this plate's (one click, never behind the engineer's back), with the source.
+ */
+function PlateRuleOffer() {
+  const { setValue, getValues } = useFormContext<PlanFormValues>();
+  const [procedureId, sizeMm, loading, maxSettlementMm] = useWatch<PlanFormValues, ['procedureId', 'plate.sizeMm', 'loading', 'termination.maxSettlementMm']>({
+    name: ['procedureId', 'plate.sizeMm', 'loading', 'termination.maxSettlementMm'],
+  });
+  const profile = findProfile(procedureId ?? '');
+  const rule = plateRuleOf(profile);
+  const row = rule && plateRuleRow(rule, Number(sizeMm));
+  if (!profile || !rule || !row) return null;
+  const { defaults } = defaultsForPlate(profile, row.sizeMm);
+  const same = JSON.stringify(loading) === JSON.stringify(defaults.loading) && Number(maxSettlementMm) === defaults.termination.maxSettlementMm;
+  if (same) return null;
+  const apply = () => {
+    const options = { shouldDirty: true, shouldValidate: true };
+    setValue('loading', defaults.loading, options);
+    setValue('unloadReload', { ...getValues('unloadReload'), unloadKpa: defaults.unloadReload.unloadKpa }, options);
+    setValue('termination.maxSettlementMm', defaults.termination.maxSettlementMm, options);
+  };
+  return (
+    <div role="note" className="flex flex-col gap-2 rounded-md border-2 border-caution-700 bg-caution-50 p-3">
+      <p>
+        A {row.sizeMm} mm plate is loaded to {row.maxPressureKpa} kPa and stopped at {row.maxSettlementMm} mm ({rule.text}; {rule.tag}).
+      </p>
+      <div>
+        <Button variant="secondary" onClick={apply}>
+          Use the {row.sizeMm} mm plate's stages and stop limit
+        </Button>
+      </div>
+    </div>
   );
 }
 
