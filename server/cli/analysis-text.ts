@@ -55,6 +55,7 @@ function stagePoints(a: RecordAnalysis): string[] {
       ['t', 'minutes after the stage’s target pressure was reached'],
     ]),
     `  ${a.zeroCorrection.statement}`,
+    ...(a.zeroCorrection.bedding ? [`  ${a.zeroCorrection.bedding.statement}`] : []),
   ];
 }
 

@@ -103,6 +103,7 @@ export function interpretationSection(w: SectionWriter, d: ReportData): void {
   const hidden = [...new Set(Object.values(a.procedure.methods).flatMap((s) => (s.shown ? [] : [s.why])))];
   if (hidden.length) w.para(`Not shown for this procedure: ${hidden.join('; ')}.`, 8);
   w.para(a.zeroCorrection.statement, 8);
+  if (a.zeroCorrection.bedding) w.para(`${a.zeroCorrection.bedding.statement} (${a.zeroCorrection.bedding.formula}; ${a.zeroCorrection.bedding.source})`, 8);
   ultimate(w, a);
   if (d.interpretation) {
     const method = d.interpretation.chosenMethod ? (ULTIMATE_METHOD_NAMES[d.interpretation.chosenMethod as UltimateMethod] ?? d.interpretation.chosenMethod) : '–';

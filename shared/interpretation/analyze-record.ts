@@ -88,6 +88,17 @@ export interface ZeroCorrection {
   fromSeatingStage: boolean;
   /** One sentence every view prints. */
   statement: string;
+  /** The bedding correction an engineer may deduct (shown, never applied); null when the start of the curve shows no bedding. */
+  bedding: BeddingCorrection | null;
+}
+
+/** A bedding correction: where the straight line through the first stages meets the origin's pressure. */
+export interface BeddingCorrection {
+  /** Settlement at the origin's pressure on the line through the first two loading stages, mm (> 0: bedding). */
+  interceptMm: number;
+  statement: string;
+  formula: string;
+  source: string;
 }
 
 /** Scaling of the plate results to the record's footing (DOMAIN §B.3, §B.4). */
@@ -255,6 +266,7 @@ export function zeroCorrection(points: readonly StagePoint[], planSeatingKpa: nu
     const origin = { pressureKpa: seating.pressureKpa, settlementMm: seating.settlementMm };
     return {
       origin,
+      bedding: null,
       fromSeatingStage: true,
       statement: `Origin of the curve: the end of the seating stage, q = ${f1(origin.pressureKpa)} kPa, s = ${origin.settlementMm.toFixed(2)} mm (the gauges are zeroed at the seating pressure). ${tail}`,
     };
@@ -263,8 +275,31 @@ export function zeroCorrection(points: readonly StagePoint[], planSeatingKpa: nu
   const q0 = planSeatingKpa !== undefined && planSeatingKpa < firstLoad ? planSeatingKpa : 0;
   return {
     origin: { pressureKpa: q0, settlementMm: 0 },
+    bedding: null,
     fromSeatingStage: false,
     statement: `The record has no seating stage: the curve starts from q = ${f1(q0)} kPa, s = 0 (${q0 > 0 ? 'the plan’s seating pressure' : 'no load'}), taken as the zero reading. ${tail}`,
+  };
+}
+
+/** Smallest intercept shown as bedding: about three times the 0.01 mm reading resolution. */
+const BEDDING_SHOWN_MM = 0.03;
+
+/**
+ * Bedding correction (common practice, shown, not applied): the line through the first two loading stages,
+ * extended back to the origin's pressure; a positive settlement there is taken up by the plate bedding in
+ * rather than by the soil. Null with fewer than two stages or an intercept below {@link BEDDING_SHOWN_MM}.
+ */
+export function beddingCorrection(measured: readonly CurvePoint[], origin: CurvePoint): BeddingCorrection | null {
+  if (measured.length < 2) return null;
+  const [p1, p2] = measured;
+  const slope = (p2.settlementMm - p1.settlementMm) / (p2.pressureKpa - p1.pressureKpa);
+  const interceptMm = p1.settlementMm - slope * (p1.pressureKpa - origin.pressureKpa) - origin.settlementMm;
+  if (!(interceptMm >= BEDDING_SHOWN_MM)) return null;
+  return {
+    interceptMm,
+    statement: `Bedding: the line through the first two loading stages meets the origin’s pressure at s = ${interceptMm.toFixed(2)} mm; an engineer may deduct it as plate bedding (not applied to any figure here).`,
+    formula: 's_bed = s1 − (s2 − s1)/(q2 − q1)·(q1 − q0) − s0',
+    source: 'Common practice: extend the straight early part of the curve back to the starting pressure',
   };
 }
 
@@ -497,6 +532,7 @@ export function analyzeRecord(record: TestRecord, options: AnalyzeRecordOptions 
   const application = options.kApplication ?? procedure.kApplication;
   const envelope = loadingEnvelope(points, targets, application).map((p) => ({ pressureKpa: p.pressureKpa, settlementMm: p.settlementMm }));
   const firstLoading = [zero.origin, ...envelope];
+  zero.bedding = beddingCorrection(envelope, zero.origin);
   const problem = curveProblem(reduction, envelope, firstLoading);
   const curve: CorrectedCurve = { measured: envelope, withOrigin: firstLoading, problem };
   const shown = (group: MethodGroup): string | null => {

@@ -136,6 +136,15 @@ describe('the zero (seating) correction: the seating point is the origin, never 
     expect(a.zeroCorrection.statement).toMatch(/^Origin of the curve: the end of the seating stage, q = 7\.0 kPa, s = 0\.00 mm/);
   });
 
+  it('shows a bedding correction where the first stages point above the origin, and applies it to nothing (common practice)', () => {
+    // s = 0.5, 0.8, 1.1 mm at 50, 100, 150 kPa from an origin at 7 kPa: the line through the first two meets 7 kPa at 0.5 − 0.006·43 = 0.242 mm [calc].
+    const bedded = analyzeRecord(record('bearing-granular', { shape: 'square', sizeMm: 450 }, [['seating', 7, 0], ['loading', 50, 0.5], ['loading', 100, 0.8], ['loading', 150, 1.1]]));
+    expectRel(bedded.zeroCorrection.bedding?.interceptMm, 0.242);
+    expect(bedded.zeroCorrection.bedding?.statement).toMatch(/^Bedding: .* s = 0\.24 mm; an engineer may deduct it as plate bedding \(not applied to any figure here\)\.$/);
+    expect(bedded.firstLoading.map((p) => p.settlementMm)).toEqual([0, 0.5, 0.8, 1.1]); // not applied
+    expect(a.zeroCorrection.bedding).toBeNull(); // the envelope starts at its origin
+  });
+
   it('without a seating stage the curve still starts at its origin, so k is read below the first stage', () => {
     const noSeating = record('pavement-single', { shape: 'circular', sizeMm: 762 }, steps(100, 300, 100).map((q) => ['loading', q, q / 50] as [Branch, number, number]));
     const b = analyzeRecord(noSeating);

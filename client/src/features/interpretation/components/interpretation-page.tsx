@@ -62,6 +62,12 @@ export function AnalysisView({ analysis, record }: { analysis: RecordAnalysis; r
       <Section id="interp-curve" title="Load–settlement curve">
         <LoadSettlementCharts analysis={analysis} />
         <p className="text-sm">{analysis.zeroCorrection.statement}</p>
+        {analysis.zeroCorrection.bedding && (
+          <>
+            <p className="text-sm">{analysis.zeroCorrection.bedding.statement}</p>
+            <Provenance formula={analysis.zeroCorrection.bedding.formula} source={analysis.zeroCorrection.bedding.source} />
+          </>
+        )}
         <Provenance formula={analysis.reduction.formula} source={analysis.reduction.source} />
       </Section>
       <Section id="interp-ultimate" title="Ultimate pressure, by method">
