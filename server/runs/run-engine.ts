@@ -7,8 +7,7 @@ import createDebug from 'debug';
 import { type WallClock, systemClock } from '../../devices/port/clock';
 import type { Calibration } from '../../shared/calibration/schema';
 import { jackGaugeFor } from '../../shared/calibration/jack';
-import { convertPressure, isPressureUnit } from '../../shared/calibration/units';
-import { plateAreaM2, plateForceKn } from '../../shared/domain/plate';
+import { plateAreaM2 } from '../../shared/domain/plate';
 import { type AlarmAction, reduceAlarm } from '../../shared/hold/alarm-lifecycle';
 import { type Alarm, gaugeTravelAlarm, loadDriftAlarm, reactionCapacityAlarm, readingsUnsecuredAlarm, signalLostAlarm, stopLimitAlarm, stopLimitMm, tiltAlarm } from '../../shared/hold/alarms';
 import { evaluateHold } from '../../shared/hold/evaluate';
@@ -20,8 +19,8 @@ import type { PlannedStage } from '../../shared/plans/stages';
 import { reconcileAlarms } from '../../shared/runs/alarm-board';
 import { type Actor, type RunEventDraft, type RunState, applyCommand, applyObservation, needsCurrentVersion } from '../../shared/runs/lifecycle';
 import { HoldSeriesTracker } from '../../shared/runs/hold-series';
-import { type CalibrationVersion, MODEL_EVENT_KINDS, type ModelEvent, type ModelSample, RunMeasurer, type RunSetupSnapshot, jackBranchOf } from '../../shared/runs/measurement-model';
-import { type Measurements, jackGaugePressure } from '../../shared/runs/measurements';
+import { type CalibrationVersion, MODEL_EVENT_KINDS, type ModelEvent, type ModelSample, RunMeasurer, type RunSetupSnapshot, jackBranchOf, oilForPlatePressure } from '../../shared/runs/measurement-model';
+import type { Measurements } from '../../shared/runs/measurements';
 import { SAMPLE_STATUS, type SampleRow, toMicro } from '../../shared/runs/samples';
 import type { PlanInput } from '../../shared/schemas/plans';
 import { ACTIVE_PHASES, type RunCommand, type RunView } from '../../shared/schemas/runs';
@@ -262,21 +261,12 @@ export class RunEngine {
     const held = this.state.holdStartedAtMs;
     if (held !== null) this.manualTimes.push(Math.max(0, (this.runClock.at(monoMs) - held) / 60_000));
     for (const [index, c] of this.channels.entries()) {
-      const typed = c.role === 'gauge' ? command.gauges[c.key] : c.role === 'pressure' && command.pressureKpa !== undefined ? this.oilForPlatePressure(command.pressureKpa) : undefined;
+      const typed = c.role === 'gauge' ? command.gauges[c.key] : c.role === 'pressure' && command.pressureKpa !== undefined ? oilForPlatePressure(this.setup.snapshot, this.measurer.modelState, command.pressureKpa) : undefined;
       if (typed === undefined || typed === null) continue;
       this.onReading({ channelIndex: index, key: c.key, role: c.role, monoMs, wallMs: this.clock.wall(), raw: typed, value: typed, status: 'ok', deviceSeq: 0 });
     }
     this.measurements = this.measure();
     this.flush();
-  }
-
-  /** A typed plate pressure, stored as the oil pressure (in the pressure channel's unit) that gives it, so every pressure sample means the same. */
-  private oilForPlatePressure(kpa: number): number | null {
-    const { jack, pressureUnit: unit, stageIndex } = this.measurer.modelState;
-    if (!jack) return null;
-    const oil = jackGaugePressure(jack, jackBranchOf(this.setup.snapshot, stageIndex))(Math.max(0, plateForceKn(this.setup.snapshot.plate, kpa) - this.setup.snapshot.apparatusWeightKn));
-    if (oil === null || !unit || unit === jack.inputUnit) return oil;
-    return isPressureUnit(unit) && isPressureUnit(jack.inputUnit) ? convertPressure(oil, jack.inputUnit, unit) : null;
   }
 
   private flush(): void {

@@ -11,11 +11,12 @@
  * its time.
  */
 import type { Calibration } from '../calibration/schema';
-import type { Plate } from '../domain/plate';
+import { convertPressure, isPressureUnit } from '../calibration/units';
+import { type Plate, plateForceKn } from '../domain/plate';
 import type { Branch as StageBranch } from '../plans/stages';
 import type { RigChannelInput } from '../schemas/instruments';
 import { gaugeSettlement } from '../hold/gauge-reset';
-import { type Measurements, measure } from './measurements';
+import { type Measurements, jackGaugePressure, measure } from './measurements';
 import { fromMicro } from './samples';
 
 /** One calibration certificate of one instrument, as a run used it. */
@@ -122,6 +123,19 @@ export function measureWith(setup: RunSetupSnapshot, state: ModelState, latest: 
     state.offsets,
     jackBranchOf(setup, state.stageIndex),
   );
+}
+
+/**
+ * The oil pressure (in the pressure channel's unit) that the model reads back as a plate pressure, kPa:
+ * how a typed plate pressure is stored, so every pressure sample means the same. Null where the jack's
+ * calibration cannot say.
+ */
+export function oilForPlatePressure(setup: RunSetupSnapshot, state: ModelState, kpa: number): number | null {
+  const { jack, pressureUnit: unit } = state;
+  if (!jack) return null;
+  const oil = jackGaugePressure(jack, jackBranchOf(setup, state.stageIndex))(Math.max(0, plateForceKn(setup.plate, kpa) - setup.apparatusWeightKn));
+  if (oil === null || !unit || unit === jack.inputUnit) return oil;
+  return isPressureUnit(unit) && isPressureUnit(jack.inputUnit) ? convertPressure(oil, jack.inputUnit, unit) : null;
 }
 
 /** One gauge's settlement (mm) for a reading under a state, exactly as {@link measure} works it; null for a channel that is no gauge or not zeroed. */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { HoldSeriesTracker } from '../../../shared/runs/hold-series';
-import { type ModelEvent, type RunSetupSnapshot, RunMeasurer, eventPrecedes, stateAtTime } from '../../../shared/runs/measurement-model';
+import { type ModelEvent, type RunSetupSnapshot, RunMeasurer, eventPrecedes, oilForPlatePressure, stateAtTime } from '../../../shared/runs/measurement-model';
 import type { RigChannelInput } from '../../../shared/schemas/instruments';
 
 const gauge = (key: string, xMm: number, direction: 1 | -1): RigChannelInput => ({ key, role: 'gauge', label: key, instrumentId: null, profileId: 'manual', port: '', gauge: { xMm, yMm: 0, direction, travelMm: 50 } });
@@ -52,6 +52,20 @@ describe('measurement model', () => {
     expect(m.measure().pressureKpa).toBeCloseTo(46.5 / AREA, 9);
     m.add({ seq: 3, tMs: 250, channel: 2, value: 100_000 }); // the new certificate has no falling curve: 60 kN + 1.5 kN
     expect(m.measure().pressureKpa).toBeCloseTo(61.5 / AREA, 9);
+  });
+
+  it('stores a typed plate pressure as the oil pressure it reads back as, on the stage’s branch', () => {
+    for (const [stageIndex, perBar] of [
+      [1, 0.5],
+      [2, 0.45],
+    ] as const) {
+      const m = new RunMeasurer(SETUP, [ev('run-started', 0, { stageIndex, afterSeq: 0 })]);
+      m.advance(null);
+      const oil = oilForPlatePressure(SETUP, m.modelState, 150)!;
+      expect(oil).toBeCloseTo((150 * AREA - 1.5) / perBar, 9); // F_jack = q·A − W (plate equilibrium)
+      m.add({ seq: 1, tMs: 1, channel: 2, value: Math.round(oil * 1000) });
+      expect(m.measure().pressureKpa).toBeCloseTo(150, 1); // stored to 0.001 bar
+    }
   });
 
   it('places events without a sequence number by time (runs recorded before), and by number when they have one', () => {
