@@ -131,11 +131,13 @@ describe('run mode at three screen sizes', () => {
     await page.waitForURL(/\/runs\/\d+$/);
     const runId = Number(page.url().split('/').pop());
 
-    // Preparing: live values, then zero; Start is the main action.
+    // Preparing: live values; zeroing the gauges is the main action, then Start.
     await until(() => page.getByText('Gauge 1').first().isVisible());
+    await checkFirstScreen(page, '0-preparing', /^Zero gauges/, 'Preparing', false);
+    await page.setViewportSize({ width: 1024, height: 768 });
     await page.getByRole('button', { name: /Zero gauges/ }).click();
     await until(async () => page.getByRole('button', { name: 'Start (seating)' }).isEnabled());
-    await checkFirstScreen(page, '1-preparing', /^Start \(seating\)/, 'Preparing', false);
+    await checkFirstScreen(page, '1-zeroed', /^Start \(seating\)/, 'Preparing', false);
 
     // Seating held and met: applying the next stage is the main action.
     await page.setViewportSize({ width: 1024, height: 768 });

@@ -30,6 +30,23 @@ describe('the pinned run bar', () => {
     expect(screen.getAllByRole('button', { name: 'Apply next stage' })).toHaveLength(1);
   });
 
+  it('makes zeroing the main action before the start, and the start once zeroed', async () => {
+    const preparing = aRunView({ phase: 'preparing', stageIndex: 0, hold: null, prompt: aPrompt(0) });
+    const zeroedLog = [{ id: 3, runId: 7, atMs: Date.UTC(2026, 2, 4, 9, 10), kind: 'gauges-zeroed', userId: 4, payload: {} }];
+    const fetchMock = serve({
+      [COMMANDS]: json(200, { ...preparing, version: 43 }),
+      'GET /api/runs/7/events': [json(200, { items: [] }), json(200, { items: zeroedLog })],
+    });
+    const { user } = renderConsole(preparing);
+    const bar = screen.getByRole('region', { name: 'Run status' });
+    await user.click(await within(bar).findByRole('button', { name: 'Zero gauges' }));
+    await waitFor(() => expect(sent(fetchMock)).toHaveLength(1));
+    expect(sent(fetchMock)[0].body).toEqual({ version: 42, command: { type: 'zero' } });
+    // The log now holds the zeroing: Start takes the bar, and zeroing again moves to the panel.
+    expect(((await within(bar).findByRole('button', { name: 'Start (seating)' })) as HTMLButtonElement).disabled).toBe(false);
+    expect(screen.getByRole('button', { name: 'Zero the gauges again' })).toBeTruthy();
+  });
+
   it('counts the hold down from what its rule judged', () => {
     // Rate rule: at least 15 min held, 12.5 min so far, rate expected to pass in 4.2 min → 4.2 min left.
     expect(holdMinutesLeft(SETTLING_HOLD)).toBeCloseTo(4.2, 9);

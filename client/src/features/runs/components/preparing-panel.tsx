@@ -59,12 +59,15 @@ export function PreparingPanel({
   send,
   busy,
   disabled,
+  zeroed,
 }: {
   view: RunView;
   role: Role | undefined;
   send: (c: RunCommand) => Promise<boolean>;
   busy: boolean;
   disabled: boolean;
+  /** Zeroing first is the bar's main action; once done, it can be done again from here. */
+  zeroed: boolean;
 }) {
   return (
     <section aria-labelledby="prepare-heading" className="flex flex-col gap-3 rounded-md border-2 border-neutral-800 p-3">
@@ -103,12 +106,12 @@ export function PreparingPanel({
         </tbody>
       </table>
       <OverdueBlock view={view} role={role} send={send} busy={busy} />
-      <div className="flex flex-wrap gap-2">
-        <Button variant="secondary" size="glove" busy={busy} disabled={disabled} onClick={() => void send({ type: 'zero' })}>
-          Zero gauges
+      {zeroed && (
+        <Button variant="secondary" className="self-start" busy={busy} disabled={disabled} onClick={() => void send({ type: 'zero' })}>
+          Zero the gauges again
         </Button>
-      </div>
-      <p className="text-neutral-800">Zero the gauges once every channel reads, then start from the bar at the top.</p>
+      )}
+      <p className="text-neutral-800">Once every channel reads: zero the gauges, then start, from the bar at the top.</p>
     </section>
   );
 }

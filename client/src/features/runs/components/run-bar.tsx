@@ -14,10 +14,11 @@ import type { StageActions } from './step-panel';
 const GLOVE = 'w-full';
 
 /** The one thing the crew does next, by phase; the step panel offers everything else. */
-export type MainAction = 'start' | 'stage-reached' | 'top-up' | 'apply-next' | 'finish' | null;
+export type MainAction = 'zero' | 'start' | 'stage-reached' | 'top-up' | 'apply-next' | 'finish' | null;
 
-export function mainAction(view: RunView, actions: StageActions): MainAction {
-  if (view.phase === 'preparing') return 'start';
+/** `zeroed`: the gauges have been zeroed (before that, zeroing is the next thing to do, unless a calibration blocks the start anyway). */
+export function mainAction(view: RunView, actions: StageActions, zeroed = true): MainAction {
+  if (view.phase === 'preparing') return zeroed || (view.overdueInstruments.length > 0 && !view.calibrationOverride) ? 'start' : 'zero';
   if (actions.applyNext) return 'apply-next';
   if (actions.finish) return 'finish';
   if (actions.stageReached) return 'stage-reached';
@@ -127,6 +128,8 @@ interface RunBarProps {
   disabled: boolean;
   /** Start is refused until the gauges are zeroed and any overdue calibration accepted. */
   startBlocked: string | null;
+  /** The gauges have been zeroed for this run. */
+  zeroed: boolean;
   /** The live link's badge. */
   connection: ReactNode;
   /** The finish confirmation is open (Finish pressed, or F on the keyboard). */
@@ -135,8 +138,14 @@ interface RunBarProps {
 }
 
 /** The one main action for the phase, sized for gloves. */
-function MainActionButton({ view, actions, send, busy, disabled, startBlocked, askingFinish, setAskingFinish }: Omit<RunBarProps, 'connection'>) {
-  switch (mainAction(view, actions)) {
+function MainActionButton({ view, actions, send, busy, disabled, startBlocked, zeroed, askingFinish, setAskingFinish }: Omit<RunBarProps, 'connection'>) {
+  switch (mainAction(view, actions, zeroed)) {
+    case 'zero':
+      return (
+        <Button size="glove" className={GLOVE} busy={busy} disabled={disabled} onClick={() => void send({ type: 'zero' })}>
+          Zero gauges
+        </Button>
+      );
     case 'start':
       return (
         <div className="flex flex-col gap-1">
@@ -205,7 +214,7 @@ function ClosedActions({ runId }: { runId: number }) {
  * the hold's countdown, the one main action and any standing alarm, all inside the first screen of a
  * phone, a portrait tablet and a landscape tablet.
  */
-export function RunBar({ view, actions, send, busy, disabled, startBlocked, connection, askingFinish, setAskingFinish }: RunBarProps) {
+export function RunBar({ view, actions, send, busy, disabled, startBlocked, zeroed, connection, askingFinish, setAskingFinish }: RunBarProps) {
   const active = ACTIVE_PHASES.includes(view.phase);
   const stage = view.stages[view.stageIndex];
   const prompt = view.prompt;
@@ -251,6 +260,7 @@ export function RunBar({ view, actions, send, busy, disabled, startBlocked, conn
               busy={busy}
               disabled={disabled}
               startBlocked={startBlocked}
+              zeroed={zeroed}
               askingFinish={askingFinish}
               setAskingFinish={setAskingFinish}
             />

@@ -66,7 +66,6 @@ export function RunConsole({ view, receivedAtMs, onView, connection, charts }: R
   const actions = stageActions(view);
   const [askingEarly, setAskingEarly] = useState(false);
   const [askingFinish, setAskingFinish] = useState(false);
-  const main = mainAction(view, actions);
   const [resetting, setResetting] = useState(false);
   // The server takes a reset only while the load is held constant.
   const canReset = view.phase === 'holding' || view.phase === 'hold-met';
@@ -83,6 +82,7 @@ export function RunConsole({ view, receivedAtMs, onView, connection, charts }: R
       : zeroed
         ? null
         : 'Zero the gauges first.';
+  const main = mainAction(view, actions, zeroed);
 
   const when = (ok: boolean, run: () => void) => (ok && !disabled && !busy ? run : null);
   useShortcuts({
@@ -102,6 +102,7 @@ export function RunConsole({ view, receivedAtMs, onView, connection, charts }: R
         busy={busy}
         disabled={disabled}
         startBlocked={startBlocked}
+        zeroed={zeroed}
         connection={connection}
         askingFinish={askingFinish}
         setAskingFinish={setAskingFinish}
@@ -111,7 +112,7 @@ export function RunConsole({ view, receivedAtMs, onView, connection, charts }: R
       </div>
       {view.closedReason && <p className="mb-3 text-lg font-semibold">Closed: {view.closedReason}</p>}
       <ControlBar view={view} userId={user?.id} send={send} busy={busy} />
-      {view.phase === 'preparing' && <PreparingPanel view={view} role={user?.role} send={send} busy={busy} disabled={disabled} />}
+      {view.phase === 'preparing' && <PreparingPanel view={view} role={user?.role} send={send} busy={busy} disabled={disabled} zeroed={zeroed} />}
       {/* On a phone the step and the verdict come straight after the numbers; on a tablet they stand beside numbers and plots. */}
       <div className="mt-3 grid grid-cols-1 gap-4 lg:grid-cols-3">
         <div className="min-w-0 lg:col-span-2">
