@@ -15,7 +15,7 @@ import { emptyInstrumentWatch, gaugeResolutionMm, gaugeTravelMm, instrumentAlarm
 import { nextStepPrompt } from '../../shared/hold/next-step';
 import { lateReadings, nextReadingDue } from '../../shared/hold/schedule';
 import type { HoldEvaluation } from '../../shared/hold/verdict';
-import type { PlannedStage } from '../../shared/plans/stages';
+import { type PlannedStage, seatingHoldMin } from '../../shared/plans/stages';
 import { reconcileAlarms } from '../../shared/runs/alarm-board';
 import { type Actor, type RunEventDraft, type RunState, applyCommand, applyObservation, needsCurrentVersion } from '../../shared/runs/lifecycle';
 import { HoldSeriesTracker } from '../../shared/runs/hold-series';
@@ -309,7 +309,7 @@ export class RunEngine {
     }
     this.hold = null;
     if ((this.state.phase === 'holding' || this.state.phase === 'hold-met') && this.state.holdStartedAtMs !== null && stage) {
-      const rule = stage.branch === 'seating' ? ({ kind: 'fixed', durationMin: 0.5 } as const) : this.setup.plan.holdRule;
+      const rule = stage.branch === 'seating' ? ({ kind: 'fixed', durationMin: seatingHoldMin(this.setup.plan) } as const) : this.setup.plan.holdRule;
       try {
         this.hold = evaluateHold(rule, this.tracker.points, {
           nowMin: Math.max(0, (now - this.state.holdStartedAtMs) / 60_000),

@@ -1,3 +1,4 @@
+import { SEATING_HOLD_MIN } from '../procedures/profiles';
 import type { Loading, PlanInput } from '../schemas/plans';
 
 export type Branch = 'seating' | 'loading' | 'unloading' | 'reloading';
@@ -50,4 +51,9 @@ export function buildStageSequence(plan: Pick<PlanInput, 'seatingPressureKpa' | 
 /** Largest pressure the plan will apply, kPa. */
 export function maxPlannedPressureKpa(plan: Pick<PlanInput, 'seatingPressureKpa' | 'loading' | 'unloadReload'>): number {
   return Math.max(...buildStageSequence(plan).map((s) => s.targetKpa));
+}
+
+/** How long the seating stage is held: the plan's setting, or half a minute for plans saved before it existed. */
+export function seatingHoldMin(plan: Partial<Pick<PlanInput, 'seatingHoldMin'>>): number {
+  return plan.seatingHoldMin ?? SEATING_HOLD_MIN;
 }

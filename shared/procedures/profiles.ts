@@ -31,6 +31,8 @@ export interface ProcedureProfile {
   defaults: {
     plate: { shape: PlateShape; sizeMm: number; thicknessMm: number };
     seatingPressureKpa: number;
+    /** Seating hold before zeroing, minutes. */
+    seatingHoldMin: number;
     loading: Loading;
     unloadReload: UnloadReload;
     holdRule: HoldRule;
@@ -39,6 +41,9 @@ export interface ProcedureProfile {
   };
   sources: SettingSource[];
 }
+
+/** Seating held half a minute before zeroing (common practice: long enough for the plate to bed). */
+export const SEATING_HOLD_MIN = 0.5;
 
 /** √t-friendly reading times of the maintained-load family: 1, 2.25, 4, 6.25, 9, 16, 25 min, then hourly. */
 const SQUARE_ROOT_SCHEDULE: ReadingSchedule = {
@@ -67,6 +72,7 @@ const BEARING = {
 const BEARING_DEFAULTS = {
   plate: { shape: 'square', sizeMm: 450, thicknessMm: 25 },
   seatingPressureKpa: 7,
+  seatingHoldMin: SEATING_HOLD_MIN,
   unloadReload: { unloadKpa: [], reload: { mode: 'none' }, repetitionsPerLevel: 1 },
   readingSchedule: SQUARE_ROOT_SCHEDULE,
   termination: { maxSettlementMm: 25, maxSettlementFractionOfWidth: 0, maxHoldMin: 24 * 60 },
@@ -82,6 +88,7 @@ const PAVEMENT = {
 const PAVEMENT_DEFAULTS = {
   plate: { shape: 'circular', sizeMm: 762, thicknessMm: 25 },
   seatingPressureKpa: 7,
+  seatingHoldMin: SEATING_HOLD_MIN,
   holdRule: { kind: 'consecutive', maxChangeMm: 0.03, intervalMin: 1, intervals: 3 },
   readingSchedule: { kind: 'interval', everyMin: 1 },
 } as const satisfies Partial<ProcedureProfile['defaults']>;
@@ -173,6 +180,7 @@ export const PROCEDURE_PROFILES: ProcedureProfile[] = [
     defaults: {
       plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
       seatingPressureKpa: 10,
+      seatingHoldMin: SEATING_HOLD_MIN,
       loading: { mode: 'list', pressuresKpa: [80, 160, 240, 320, 400, 500] },
       unloadReload: { unloadKpa: [250, 125, 0], reload: { mode: 'toPenultimate' }, repetitionsPerLevel: 1 },
       holdRule: { kind: 'fixed', durationMin: 2 },
@@ -199,6 +207,7 @@ export const PROCEDURE_PROFILES: ProcedureProfile[] = [
     defaults: {
       plate: { shape: 'circular', sizeMm: 300, thicknessMm: 25 },
       seatingPressureKpa: 7,
+      seatingHoldMin: SEATING_HOLD_MIN,
       loading: { mode: 'list', pressuresKpa: [50, 100, 150, 200] },
       unloadReload: { unloadKpa: [0], reload: { mode: 'none' }, repetitionsPerLevel: 1 },
       holdRule: { kind: 'rate', maxRateMmPerMin: 0.02, windowMin: 10, minHoldMin: 15 },

@@ -98,6 +98,11 @@ export const planInput = z.object({
     thicknessMm: z.number().positive().max(100).default(25),
   }),
   seatingPressureKpa: kpa,
+  /**
+   * How long the seating pressure is held before the operator zeroes the gauges, minutes. Plans saved
+   * before this setting existed have none and hold 0.5 min (see seatingHoldMin() in plans/stages).
+   */
+  seatingHoldMin: z.number().min(0).max(60).default(0.5),
   /** Weight of column, spacers, jack body resting on the plate, kN (DOMAIN §B.1). */
   apparatusWeightKn: z.number().min(0).max(100).default(0),
   loading: loadingSchema,

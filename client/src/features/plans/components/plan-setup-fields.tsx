@@ -42,8 +42,9 @@ export function PlateFields() {
         <PlanNumber path="plate.thicknessMm" />
       </div>
       <PlateRuleOffer />
-      <div className="grid gap-4 sm:grid-cols-2">
+      <div className="grid gap-4 sm:grid-cols-3">
         <PlanNumber path="seatingPressureKpa" hint="Applied to bed the plate, then released before zeroing." />
+        <PlanNumber path="seatingHoldMin" hint="How long the seating pressure is held before the gauges are zeroed." />
         <PlanNumber path="apparatusWeightKn" hint="Column, spacers and jack body resting on the plate." />
       </div>
     </PlanSection>

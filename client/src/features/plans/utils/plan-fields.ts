@@ -8,6 +8,7 @@ export const PLAN_FIELDS = {
   'plate.sizeMm': { label: 'Plate size', unit: 'mm' },
   'plate.thicknessMm': { label: 'Plate thickness', unit: 'mm' },
   seatingPressureKpa: { label: 'Seating pressure', unit: 'kPa' },
+  seatingHoldMin: { label: 'Seating hold', unit: 'min' },
   apparatusWeightKn: { label: 'Apparatus weight on the plate', unit: 'kN' },
   loading: { label: 'Loading schedule' },
   'loading.mode': { label: 'Increments set by' },
