@@ -1,4 +1,4 @@
-import { mkdtempSync } from 'node:fs';
+import { mkdirSync, mkdtempSync } from 'node:fs';
 import path from 'node:path';
 import { ROOT_DIR } from '../../server/config';
 import { type SimulatorProcess, startSimulator, upsertDemoRig } from '../../server/ops/simulated-rig';
@@ -8,6 +8,7 @@ import type { Client } from './api';
 
 /** A simulated rig on its own pseudo-terminals (a private folder per test file) and its rig record. */
 export async function simulatedRig(scenario: string, speed: number, name = 'Test rig (simulated)') {
+  mkdirSync(path.join(ROOT_DIR, '.data'), { recursive: true }); // a fresh clone has none yet
   const dir = path.relative(ROOT_DIR, mkdtempSync(path.join(ROOT_DIR, '.data', 'test-pty-')));
   const sim: SimulatorProcess = await startSimulator({ scenario, speed, gauges: 3, controlPort: 0, dir, name: 't' });
   const rig = await upsertDemoRig(sim, name);
