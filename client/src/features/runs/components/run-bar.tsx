@@ -40,7 +40,7 @@ export function holdMinutesLeft(hold: HoldEvaluation | null): number | null {
 function Figure({ label, value, emphasis = false }: { label: ReactNode; value: string; emphasis?: boolean }) {
   return (
     <div className={`flex min-w-0 flex-col rounded-md border-2 px-2 py-1 ${emphasis ? 'border-neutral-950' : 'border-neutral-400'}`}>
-      <dt className="truncate text-sm font-semibold text-neutral-950">{label}</dt>
+      <dt className="text-sm leading-tight font-semibold text-neutral-950">{label}</dt>
       <dd className="truncate font-mono text-[3rem] leading-none font-bold text-neutral-950">{value}</dd>
     </div>
   );
