@@ -1,6 +1,7 @@
 import { DEFAULT_DEVICE_PROFILES } from '../../shared/devices/default-profiles';
-import { type ListedDeviceProfile, labProfileInput, labProfileReplace, profileIdParams } from '../../shared/devices/schema';
+import { type ListedDeviceProfile, labProfileInput, labProfileReplace, profileIdParams, profilePreviewInput } from '../../shared/devices/schema';
 import { isBuiltInProfile, refreshLabProfiles } from '../acquisition/device-profiles';
+import { previewProfile } from '../acquisition/profile-preview';
 import { ADMINS, EDITORS } from '../auth/permissions';
 import { badRequest, conflict, notFound } from '../http/errors';
 import { route } from '../http/route';
@@ -71,5 +72,14 @@ export const deviceProfileRoutes = [
       await refreshLabProfiles();
       return record.toDto();
     },
+  }),
+  route({
+    method: 'post',
+    path: '/api/device-profiles/preview',
+    access: EDITORS,
+    summary: 'Try a profile on a port for a moment (nothing is stored): each sample, and why any had no value',
+    body: profilePreviewInput,
+    status: 200, // nothing is created
+    handler: ({ body }) => previewProfile(body.profile, body.port, body.durationMs),
   }),
 ];

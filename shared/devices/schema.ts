@@ -77,6 +77,24 @@ export type LabProfileReplace = z.infer<typeof labProfileReplace>;
 
 export const profileIdParams = z.object({ id: labProfileId });
 
+/** POST /api/device-profiles/preview: read a port with a profile for a moment, before any rig names it. */
+export const profilePreviewInput = z.object({
+  profile: deviceProfileSchema,
+  /** Serial port path, e.g. /dev/ttyUSB0. */
+  port: z.string().trim().min(1).max(200),
+  durationMs: z.number().int().min(200).max(5000).default(1500),
+});
+export type ProfilePreviewInput = z.input<typeof profilePreviewInput>;
+
+/** What the preview saw: each sample in order, with its cause in words when it had no value. */
+export interface ProfilePreview {
+  port: string;
+  /** False when the port never opened during the preview (then `problem` says why). */
+  opened: boolean;
+  problem: string | null;
+  samples: { seq: number; status: SampleStatus; raw: string; value: number | null; problem: string | null }[];
+}
+
 /** A profile as the API lists it: where it comes from, and for the lab's own, when it last changed. */
 export type ListedDeviceProfile = DeviceProfile & { source: 'built-in' | 'lab'; updatedAt: string | null };
 
