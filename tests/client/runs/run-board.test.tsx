@@ -1,5 +1,5 @@
 import './canvas-stubs';
-import { screen, within } from '@testing-library/react';
+import { screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
 import type { RunSummary } from '../../../client/src/features/runs/api/get-runs';
 import { json, requests, stubFetch } from '../support/fetch-stub';
@@ -90,6 +90,10 @@ describe('home board of runs', () => {
 
     await screen.findByRole('heading', { name: 'Get ready' });
     expect(router.state.location.pathname).toBe('/runs/13');
+    // Run mode: the site menu folds away behind one button while the run is live.
+    await waitFor(() => expect(screen.queryByRole('navigation', { name: 'Main' })).toBeNull());
+    await user.click(screen.getByRole('button', { name: 'Menu' }));
+    expect(within(screen.getByRole('navigation', { name: 'Main' })).getByRole('link', { name: 'Home' })).toBeTruthy();
     expect(requests(fetchMock).find((r) => r.key === 'POST /api/runs')?.body).toEqual({ planId: 31, rigId: 2 });
   });
 });
