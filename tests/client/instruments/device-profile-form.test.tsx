@@ -1,4 +1,5 @@
 import { DEFAULT_DEVICE_PROFILES, polledMmIndicator } from '@shared/devices/default-profiles';
+import { describeDeviceProblem } from '@shared/devices/problems';
 import { screen } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
 import { DeviceProfileForm } from '../../../client/src/features/rigs/components/device-profile-form';
@@ -86,6 +87,48 @@ describe('device profile form', () => {
     renderForm({ profile: { ...polledMmIndicator, source: 'lab', updatedAt: null } });
     expect((screen.getByLabelText('Request') as HTMLInputElement).value).toBe('?\\r');
     expect((screen.getByLabelText('Profile id') as HTMLInputElement).disabled).toBe(true);
+  });
+});
+
+describe('trying a profile on a port', () => {
+  it('sends the profile as the boxes hold it and lists each sample, an exception by its meaning', async () => {
+    const exception = describeDeviceProblem({ kind: 'exception', code: 2 });
+    const fetchMock = stubFetch({
+      'GET /api/auth/csrf': json(200, { csrfToken: 't' }),
+      'POST /api/device-profiles/preview': json(200, {
+        port: '/dev/ttyUSB3',
+        opened: true,
+        problem: null,
+        samples: [
+          { seq: 1, status: 'ok', raw: '05 04 04 41 48 00 00 9E 6B', value: 12.5, problem: null },
+          { seq: 2, status: 'rejected', raw: '05 84 02 C2 C1', value: null, problem: exception },
+        ],
+      }),
+    });
+    const { user, onSaved } = renderForm();
+    await user.type(screen.getByLabelText('Name'), 'Trial');
+    await retype(user, 'Register', '10');
+    await user.type(screen.getByLabelText('Port to try'), '/dev/ttyUSB3');
+    await user.click(screen.getByRole('button', { name: 'Try it' }));
+
+    await vi.waitFor(() => expect(screen.getByRole('status').textContent).toBe('1 of 2 samples good on /dev/ttyUSB3'));
+    expect(screen.getByText(exception)).toBeTruthy();
+    expect(screen.getByText('12.5')).toBeTruthy();
+    const sent = requests(fetchMock).find((r) => r.key === 'POST /api/device-profiles/preview')?.body as { profile: { id: string; register: number; wordOrder: string }; port: string };
+    expect(sent).toMatchObject({ port: '/dev/ttyUSB3', profile: { id: 'preview', register: 10, wordOrder: 'high-first' } });
+    expect(onSaved).not.toHaveBeenCalled(); // trying saves nothing
+  });
+
+  it('says so when the port never opened', async () => {
+    stubFetch({
+      'GET /api/auth/csrf': json(200, { csrfToken: 't' }),
+      'POST /api/device-profiles/preview': json(200, { port: '/dev/ttyUSB9', opened: false, problem: 'Port never opened: No such file or directory', samples: [] }),
+    });
+    const { user } = renderForm();
+    await user.type(screen.getByLabelText('Name'), 'Trial');
+    await user.type(screen.getByLabelText('Port to try'), '/dev/ttyUSB9');
+    await user.click(screen.getByRole('button', { name: 'Try it' }));
+    await vi.waitFor(() => expect(screen.getByRole('alert').textContent).toBe('Port never opened: No such file or directory'));
   });
 });
 

@@ -5,6 +5,7 @@ import { FormError } from '../../../components/form-alert';
 import { NumberField, SelectField, TextField } from '../../../components/form-field';
 import { isApiError } from '../../../lib/api-client';
 import { useSaveDeviceProfile } from '../api/save-device-profile';
+import { ProfilePreviewPanel } from './profile-preview';
 import { blankProfileDraft, checkDraft, draftField, type ProfileDraft, profileDraft } from '../utils/profile-draft';
 
 const options = (pairs: [string, string][]) => pairs.map(([value, label]) => ({ value, label }));
@@ -118,6 +119,14 @@ export function DeviceProfileForm({ profile, onSaved, onCancel }: DeviceProfileF
     }
   };
 
+  /** The profile as the boxes hold it now, for trying on a port (an id is not needed for that). */
+  const current = () => {
+    const check = checkDraft({ ...draft, id: draft.id.trim() || 'preview' });
+    if (check.ok) return { profile: check.input };
+    setErrors(check.errors);
+    return { problem: 'Correct the boxes marked first.' };
+  };
+
   return (
     <form onSubmit={onSubmit} noValidate className="flex max-w-4xl flex-col gap-5">
       <FormError message={formError} />
@@ -168,6 +177,7 @@ export function DeviceProfileForm({ profile, onSaved, onCancel }: DeviceProfileF
         <NumberField label="Poll interval" unit="ms" {...box('pollIntervalMs')} />
         <NumberField label="Timeout" unit="ms" {...box('timeoutMs')} />
       </div>
+      <ProfilePreviewPanel current={current} />
       <FormActions submitLabel={profile ? 'Save profile' : 'Define profile'} busy={save.isPending} onCancel={onCancel} />
     </form>
   );
