@@ -7,26 +7,23 @@ import { readFileSync, readdirSync } from 'node:fs';
 import path from 'node:path';
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { migrate } from '../../server/db/migrator';
 import { initModels } from '../../server/db/models';
 import { createSequelize } from '../../server/db/sequelize';
 import type { SimulatorProcess } from '../../server/ops/simulated-rig';
-import { seedDemo } from '../../server/seed/demo';
 import { Client, demoEmail } from '../support/api';
+import { freePort } from '../support/free-port';
 import { spawnServer } from '../support/server-process';
 import { command, simPlan, simulatedRig, startedRun, waitFor } from '../support/sim-run';
-import { freshDatabase } from '../support/test-database';
+import { seededDatabase } from '../support/test-database';
 
-const config = await freshDatabase();
+const config = await seededDatabase();
 const sequelize = createSequelize(config.db);
 let sim: SimulatorProcess;
 let rigId: number;
-const PORT = 18_000 + (process.pid % 1000);
+const PORT = await freePort();
 
 beforeAll(async () => {
   initModels(sequelize);
-  await migrate(sequelize);
-  await seedDemo();
   ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', 100, 'Crash rig'));
 }, 120_000);
 afterAll(async () => {

@@ -13,12 +13,13 @@ import type { SimulatorProcess } from '../../server/ops/simulated-rig';
 import { seedDemo } from '../../server/seed/demo';
 import type { RunView } from '../../shared/schemas/runs';
 import { Client, demoEmail } from '../support/api';
+import { freePort } from '../support/free-port';
 import { connectSocket, httpSignIn } from '../support/live-server';
 import { command, simPlan, simulatedRig, startedRun, waitFor } from '../support/sim-run';
 
 const OUTAGE_MS = Number(process.env.SSCOPE_R2_OUTAGE_MS ?? 60_000);
 const baseDir = path.join(ROOT_DIR, '.data', `test-r2-${process.pid}`);
-const port = 3330 + (process.pid % 50);
+const port = await freePort();
 let db: MariadbInstance;
 let server: RunningServer;
 let sim: SimulatorProcess;
