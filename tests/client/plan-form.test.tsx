@@ -84,6 +84,8 @@ describe('plan form', () => {
     // DIN 18134 family, from memory: a 600 mm plate to 0.25 MN/m², stop at 8 mm.
     expect(within(checkPanel()).getByText(/loads a 600 mm plate to 250 kPa/)).toBeTruthy();
     expect(within(checkPanel()).getByText(/stops a 600 mm plate at 8 mm/)).toBeTruthy();
+    // The stop limit's source follows the plate too.
+    expect(screen.getAllByText(/8 mm on the 600 mm plate/).length).toBeGreaterThan(0);
     await user.click(screen.getByRole('button', { name: "Use the 600 mm plate's stages and stop limit" }));
 
     expect(Number(fieldValue('Stop at mean settlement'))).toBe(8);

@@ -1,3 +1,4 @@
+import { defaultsForPlate } from '@shared/procedures/plate-rules';
 import { findProfile, type SourceTag } from '@shared/procedures/profiles';
 import type { ReactNode } from 'react';
 import { Controller, type FieldErrors, get, type Path, useFormContext, useWatch } from 'react-hook-form';
@@ -19,9 +20,12 @@ const TAG_WORDS: Record<SourceTag, string> = {
   'common practice': 'common practice',
 };
 
+/** The chosen procedure's sources for this setting, for the plate the plan has (a plate rule changes some). */
 function useProcedureSources(path: string) {
-  const procedureId = useWatch<PlanFormValues, 'procedureId'>({ name: 'procedureId' });
-  return sourcesFor(findProfile(procedureId ?? ''), path);
+  const [procedureId, sizeMm] = useWatch<PlanFormValues, ['procedureId', 'plate.sizeMm']>({ name: ['procedureId', 'plate.sizeMm'] });
+  const profile = findProfile(procedureId ?? '');
+  const sources = profile && Number.isFinite(Number(sizeMm)) ? defaultsForPlate(profile, Number(sizeMm)).sources : undefined;
+  return sourcesFor(profile && sources ? { ...profile, sources } : profile, path);
 }
 
 /** Where the chosen procedure's default for this setting comes from. */
