@@ -5,6 +5,7 @@
  */
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { buildStageSequence, type PlannedStage } from '../../shared/plans/stages';
+import { stagesAfterEvents } from '../../shared/plans/unloading';
 import { type ModelEvent, type ModelSample, RunMeasurer, type RunSetupSnapshot } from '../../shared/runs/measurement-model';
 import { type RECORD_EVENT_KINDS, RECORD_FORMAT, RECORD_LIMITS, RECORD_VERSION, type RecordStage, type TestRecord } from '../../shared/records/schema';
 import { formatIssue, parseTestRecord } from '../../shared/records/validate';
@@ -246,12 +247,13 @@ async function recordedRunRecord(run: Run): Promise<TestRecord> {
   if (!plan) throw notFound('Test plan of the run');
   if (run.rigId === null) throw recordUnavailable('The run has neither a rig nor a stored record to interpret.');
   const input = plan.toInput();
-  const stages = buildStageSequence(input);
+  const planned = buildStageSequence(input);
   const events = (await RunEvent.findAll({ where: { runId: run.id }, order: [['id', 'ASC']] })).map((e) => ({ atMs: e.at.getTime(), kind: e.kind, payload: e.payload }));
   const builder = new RunRecordBuilder({
     plan: input,
-    stages,
-    setup: await runSnapshot(run, input, stages),
+    // The stages run: going to unloading replaced the planned ones after the stage reached.
+    stages: stagesAfterEvents(planned, events),
+    setup: await runSnapshot(run, input, planned),
     events,
     ...(await runMetadata(run, plan, events)),
   });

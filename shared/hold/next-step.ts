@@ -33,7 +33,15 @@ export interface NextStepPrompt {
   gaugeUnit: string;
   /** Why the prompt cannot be followed as it stands; null when it can. */
   problem: string | null;
+  /** Which limit of the jack refuses the prompt, when one does. */
+  refusal?: JackRefusal['reason'] | null;
 }
+
+/**
+ * Whether a prompt must not be applied at all: the target lies beyond the jack calibration's range or the
+ * jack's rated pressure. The run then goes to unloading instead of loading further.
+ */
+export const promptBlocksLoading = (prompt: Pick<NextStepPrompt, 'refusal'> | null | undefined): boolean => prompt?.refusal === 'above-calibration' || prompt?.refusal === 'rated';
 
 /**
  * The prompt once a hold is satisfied: the next target, the plate force it means and the jack gauge
@@ -58,11 +66,11 @@ export function nextStepPrompt(input: NextStepInput): NextStepPrompt {
 
   const jackForceKn = totalKn - apparatusKn;
   const answer = input.gaugePressureFor(jackForceKn);
-  if (answer.refusal) return { ...base, jackForceKn, gaugePressure: null, problem: refusalText(answer.refusal, targetKpa, jackForceKn, input.gaugeUnit) };
+  if (answer.refusal) return { ...base, jackForceKn, gaugePressure: null, problem: refusalText(answer.refusal, targetKpa, jackForceKn, input.gaugeUnit), refusal: answer.refusal.reason };
   if (!Number.isFinite(answer.pressure)) {
     throw new InterpretationInputError('gaugePressureFor', `returned ${answer.pressure} for ${jackForceKn.toFixed(3)} kN`);
   }
-  return { ...base, jackForceKn, gaugePressure: answer.pressure, problem: null };
+  return { ...base, jackForceKn, gaugePressure: answer.pressure, problem: null, refusal: null };
 }
 
 /** A figure as the operator reads it: four significant digits, no trailing zeros. */
@@ -74,9 +82,9 @@ function refusalText(r: JackRefusal, targetKpa: number, jackForceKn: number, uni
   const limit = r.limit === null ? '' : `${figure(r.limit)} ${unit}`;
   switch (r.reason) {
     case 'above-calibration':
-      return `Target ${targetKpa} kPa needs ${needs}; the jack calibration is valid to ${limit}. Stop here or use a larger jack.`;
+      return `Target ${targetKpa} kPa needs ${needs}; the jack calibration is valid to ${limit}. Go to unloading from here, or use a larger jack.`;
     case 'rated':
-      return `Target ${targetKpa} kPa needs ${needs}; the jack is rated to ${limit}. Stop here or use a larger jack.`;
+      return `Target ${targetKpa} kPa needs ${needs}; the jack is rated to ${limit}. Go to unloading from here, or use a larger jack.`;
     case 'below-calibration':
       return `Target ${targetKpa} kPa needs ${needs}, below the jack calibration's range (from ${limit}). Use a smaller jack or a calibration that covers it.`;
     case 'unusable':

@@ -1,3 +1,4 @@
+import { UNLOAD_REASON_LABELS, type UnloadReason } from '../plans/unloading';
 import { formatPlanned, formatQuantity } from '../units/format';
 
 const kPa = (v: number | null) => (v === null ? '—' : `${formatPlanned(v, 'kPa')} kPa`);
@@ -90,6 +91,11 @@ export function describeRunEvent(event: EventLike): { title: string; detail: str
         title: p.early ? 'Next stage applied early' : 'Next stage applied',
         detail: `${stageNumber(p.to)} to ${kPa(num(p.targetKpa))}${text(p.reason) ? `: ${text(p.reason)}` : ''}`,
       };
+    case 'unloading-begun': {
+      const why = UNLOAD_REASON_LABELS[p.reason as UnloadReason] ?? text(p.reason);
+      const from = num(p.maxKpa) === null ? 'no loading stage reached' : `from ${kPa(num(p.maxKpa))} (${stageNumber(p.reachedIndex)})`;
+      return { title: 'Unloading begun', detail: `${capitalise(why)}${text(p.note) ? ` — ${text(p.note)}` : ''}; ${from}` };
+    }
     case 'top-up':
       return { title: 'Load topped up', detail: p.stageIndex === undefined ? '' : stageNumber(p.stageIndex) };
     case 'gauge-reset':

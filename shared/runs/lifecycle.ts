@@ -5,6 +5,7 @@
  */
 import { type GaugeSign, resetOffset } from '../hold/gauge-reset';
 import type { PlannedStage } from '../plans/stages';
+import { UNLOAD_REASON_LABELS, UNLOADING_EVENT, type UnloadingRule, unloadingStages } from '../plans/unloading';
 import type { RunCommand, RunPhase } from '../schemas/runs';
 import type { Role } from '../schemas/users';
 
@@ -51,6 +52,10 @@ export interface CommandContext {
   overdueInstruments: readonly string[];
   /** Each gauge's direction (+1 reading grows as the plate settles, −1 it falls), by channel key. */
   gaugeSigns?: Record<string, GaugeSign>;
+  /** How the plan unloads when loading ends early (default: rebound stages, no planned unloading pressures). */
+  unloading?: { rule: UnloadingRule; planUnloadKpa: readonly number[] };
+  /** Why the next stage must not be applied (its prompt is refused: the jack's calibration range or rating); null when it may. */
+  nextStageRefusal?: string | null;
 }
 
 export type CommandResult = { ok: true; state: RunState; events: RunEventDraft[] } | { ok: false; code: 'conflict' | 'forbidden' | 'invalid'; message: string };
@@ -145,10 +150,13 @@ export function applyCommand(state: RunState, command: RunCommand, ctx: CommandC
       if (state.phase === 'holding' && !command.reason) return refuse('The hold is not met yet; give a reason to advance early.', 'invalid');
       const nextIndex = state.stageIndex + 1;
       if (nextIndex >= ctx.stages.length) return refuse('This was the last stage; finish the run.', 'invalid');
+      if (ctx.nextStageRefusal) return refuse(`${ctx.nextStageRefusal} Go to unloading instead.`, 'invalid');
       return next({ phase: 'pumping', stageIndex: nextIndex, stageStartedAtMs: ctx.nowMs, holdStartedAtMs: null, holdMetAtMs: null }, [
         event('stage-advanced', { from: state.stageIndex, to: nextIndex, targetKpa: ctx.stages[nextIndex].targetKpa, early: state.phase === 'holding', reason: command.reason ?? null }),
       ]);
     }
+    case 'unload':
+      return goToUnloading(state, command, ctx, next, event);
     case 'top-up':
       if (state.phase !== 'holding' && state.phase !== 'hold-met') return refuse('Top-ups are recorded during a hold.');
       return next({}, [event('top-up', { stageIndex: state.stageIndex })]);
@@ -169,6 +177,43 @@ export function applyCommand(state: RunState, command: RunCommand, ctx: CommandC
     case 'stop':
       return next({ phase: 'stopped', closedReason: command.reason }, [event('run-stopped', { reason: command.reason, stageIndex: state.stageIndex })]);
   }
+}
+
+/**
+ * Loading ends early: the stages after the one reached become unloading (and, by the modulus rule,
+ * reloading) stages derived from it (shared/plans/unloading), and the run goes on to the first of them.
+ */
+function goToUnloading(
+  state: RunState,
+  command: Extract<RunCommand, { type: 'unload' }>,
+  ctx: CommandContext,
+  next: (patch: Partial<RunState>, events: RunEventDraft[]) => CommandResult,
+  event: (kind: string, payload?: Record<string, unknown>) => RunEventDraft,
+): CommandResult {
+  const stage = ctx.stages[state.stageIndex];
+  if (state.phase !== 'pumping' && state.phase !== 'holding' && state.phase !== 'hold-met') return refuse('Go to unloading from a loading stage of a running test.');
+  if (stage?.branch !== 'loading') return refuse('Unloading can begin only from a loading stage.', 'invalid');
+  // While pumping, the stage being pumped to was never reached: the last loading stage before it is the maximum.
+  const held = state.phase !== 'pumping';
+  const before = ctx.stages.slice(0, state.stageIndex).filter((s) => s.branch === 'loading');
+  const reachedIndex = held ? state.stageIndex : (before[before.length - 1]?.index ?? null);
+  const { rule, planUnloadKpa } = ctx.unloading ?? { rule: 'rebound', planUnloadKpa: [] };
+  const stages = unloadingStages({ stages: ctx.stages, reachedIndex, currentIndex: state.stageIndex, rule, planUnloadKpa });
+  const fromIndex = held ? state.stageIndex + 1 : state.stageIndex;
+  const first = stages[fromIndex];
+  const reasonText = `${UNLOAD_REASON_LABELS[command.reason]}${command.note ? `: ${command.note}` : ''}`;
+  return next({ phase: 'pumping', stageIndex: fromIndex, stageStartedAtMs: ctx.nowMs, holdStartedAtMs: null, holdMetAtMs: null }, [
+    event(UNLOADING_EVENT, {
+      reason: command.reason,
+      note: command.note ?? null,
+      rule,
+      reachedIndex,
+      maxKpa: reachedIndex === null ? null : ctx.stages[reachedIndex].targetKpa,
+      fromIndex,
+      stages: stages.slice(fromIndex),
+    }),
+    event('stage-advanced', { from: state.stageIndex, to: fromIndex, targetKpa: first.targetKpa, branch: first.branch, early: state.phase !== 'hold-met', reason: `Unloading: ${reasonText}` }),
+  ]);
 }
 
 export type Observation = { type: 'target-reached' } | { type: 'hold-met' };

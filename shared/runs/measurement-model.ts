@@ -14,6 +14,7 @@ import type { Calibration } from '../calibration/schema';
 import { convertPressure, isPressureUnit } from '../calibration/units';
 import { type Plate, plateForceKn } from '../domain/plate';
 import type { Branch as StageBranch } from '../plans/stages';
+import { UNLOADING_EVENT } from '../plans/unloading';
 import type { RigChannelInput } from '../schemas/instruments';
 import { gaugeSettlement } from '../hold/gauge-reset';
 import { type Measurements, jackGaugePressure, measure } from './measurements';
@@ -52,7 +53,7 @@ export interface ModelEvent {
 }
 
 /** Event kinds that change what a sample means. */
-export const MODEL_EVENT_KINDS: ReadonlySet<string> = new Set(['gauges-zeroed', 'gauge-reset', 'run-started', 'stage-advanced', 'calibration-applied']);
+export const MODEL_EVENT_KINDS: ReadonlySet<string> = new Set(['gauges-zeroed', 'gauge-reset', 'run-started', 'stage-advanced', 'calibration-applied', UNLOADING_EVENT]);
 
 /** The model's state between two events. */
 export interface ModelState {
@@ -63,6 +64,8 @@ export interface ModelState {
   stageIndex: number;
   jack: Calibration | null;
   pressureUnit: string | null;
+  /** Branch of every stage once going to unloading replaced the planned ones (absent: the snapshot's). */
+  stageBranches?: StageBranch[];
 }
 
 export function initialModelState(setup: RunSetupSnapshot): ModelState {
@@ -82,6 +85,12 @@ export function applyModelEvent(setup: RunSetupSnapshot, state: ModelState, e: M
       return { ...state, stageIndex: Number(p.stageIndex ?? 0) };
     case 'stage-advanced':
       return { ...state, stageIndex: Number(p.to) };
+    case UNLOADING_EVENT: {
+      // The stages from `fromIndex` on are the derived unloading (and reloading) stages.
+      const from = Number(p.fromIndex);
+      const tail = Array.isArray(p.stages) ? (p.stages as { branch: StageBranch }[]).map((s) => s.branch) : [];
+      return { ...state, stageBranches: [...(state.stageBranches ?? setup.stageBranches).slice(0, from), ...tail] };
+    }
     case 'calibration-applied': {
       const calibration = (p.calibration ?? null) as Calibration | null;
       const id = Number(p.instrumentId);
@@ -112,7 +121,8 @@ export function eventPrecedes(e: ModelEvent, at: SamplePosition): boolean {
 }
 
 /** The jack branch a stage reads: its falling side while unloading (seal friction, DOMAIN §D.1). */
-export const jackBranchOf = (setup: RunSetupSnapshot, stageIndex: number): 'rising' | 'falling' => (setup.stageBranches[stageIndex] === 'unloading' ? 'falling' : 'rising');
+export const jackBranchOf = (setup: RunSetupSnapshot, stageIndex: number, state?: Pick<ModelState, 'stageBranches'>): 'rising' | 'falling' =>
+  ((state?.stageBranches ?? setup.stageBranches)[stageIndex] === 'unloading' ? 'falling' : 'rising');
 
 /** The measurements from the latest calibrated value per channel key (mm, or the channel's unit) under a state. */
 export function measureWith(setup: RunSetupSnapshot, state: ModelState, latest: ReadonlyMap<string, number | null>): Measurements {
@@ -121,7 +131,7 @@ export function measureWith(setup: RunSetupSnapshot, state: ModelState, latest: 
     latest,
     state.zeros,
     state.offsets,
-    jackBranchOf(setup, state.stageIndex),
+    jackBranchOf(setup, state.stageIndex, state),
   );
 }
 
@@ -133,7 +143,7 @@ export function measureWith(setup: RunSetupSnapshot, state: ModelState, latest: 
 export function oilForPlatePressure(setup: RunSetupSnapshot, state: ModelState, kpa: number): number | null {
   const { jack, pressureUnit: unit } = state;
   if (!jack) return null;
-  const oil = jackGaugePressure(jack, jackBranchOf(setup, state.stageIndex))(Math.max(0, plateForceKn(setup.plate, kpa) - setup.apparatusWeightKn));
+  const oil = jackGaugePressure(jack, jackBranchOf(setup, state.stageIndex, state))(Math.max(0, plateForceKn(setup.plate, kpa) - setup.apparatusWeightKn));
   if (oil === null || !unit || unit === jack.inputUnit) return oil;
   return isPressureUnit(unit) && isPressureUnit(jack.inputUnit) ? convertPressure(oil, jack.inputUnit, unit) : null;
 }

@@ -5,6 +5,7 @@ import type { ReadingFlag } from '../hold/schedule';
 import type { HoldEvaluation } from '../hold/verdict';
 import type { PlannedStage } from '../plans/stages';
 import type { MeasurementParams } from '../runs/measurement-model';
+import { UNLOAD_REASONS } from '../plans/unloading';
 import { z } from 'zod';
 import { idSchema, requiredLines } from './common';
 
@@ -37,6 +38,8 @@ export const runCommandSchema = z.discriminatedUnion('type', [
   z.object({ type: z.literal('stage-reached') }),
   /** Go to the next stage; before the hold is met a reason is required. */
   z.object({ type: z.literal('advance'), reason: reason.optional() }),
+  /** End loading here and go to unloading (stages derived from the stage reached), with the reason. */
+  z.object({ type: z.literal('unload'), reason: z.enum(UNLOAD_REASONS), note: reason.optional() }),
   z.object({ type: z.literal('top-up') }),
   z.object({ type: z.literal('gauge-reset'), channel: channelKey, beforeMm: z.number().min(-500).max(500), afterMm: z.number().min(-500).max(500) }),
   /** A note for the record; one about the weather also fills the report's weather line. */

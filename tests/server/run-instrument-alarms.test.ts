@@ -86,7 +86,7 @@ describe('calibration limits and instrument alarms in a run', () => {
     // The next stage needs more than the jack calibration covers: no pressure, the reason and what to do,
     // in the unit the crew reads (the pressure channel's bar: 63.14 MPa = 631.4 bar).
     expect(v.prompt).toMatchObject({ targetKpa: 1100, gaugePressure: null, gaugeUnit: 'bar' });
-    expect(v.prompt!.problem).toBe('Target 1100 kPa needs 631.4 bar on the jack gauge; the jack calibration is valid to 500 bar. Stop here or use a larger jack.');
+    expect(v.prompt!.problem).toBe('Target 1100 kPa needs 631.4 bar on the jack gauge; the jack calibration is valid to 500 bar. Go to unloading from here, or use a larger jack.');
 
     // A pressure that reads beyond the calibration (55.3 MPa): alarmed, and the alarm is in the run's record.
     expect((await send(runId, { type: 'manual-reading', pressureKpa: 960, gauges: { d1: 2.4, d2: 2.4 } })).status).toBe(200);

@@ -52,7 +52,7 @@ describe('nextStepPrompt', () => {
     const plate = { shape: 'circular' as const, sizeMm: 600 };
     const prompt = nextStepPrompt({ stage: stage(1100), plate, gaugePressureFor: jackGaugeFor(line([0, 50])).pressureFor, gaugeUnit: 'MPa' });
     expect(prompt.gaugePressure).toBeNull();
-    expect(prompt.problem).toBe('Target 1100 kPa needs 63.14 MPa on the jack gauge; the jack calibration is valid to 50 MPa. Stop here or use a larger jack.');
+    expect(prompt.problem).toBe('Target 1100 kPa needs 63.14 MPa on the jack gauge; the jack calibration is valid to 50 MPa. Go to unloading from here, or use a larger jack.');
     // The same in the unit the crew reads (1 MPa = 10 bar).
     const inBar = jackGaugeFor(line([0, 50]), { unit: 'bar' });
     expect(nextStepPrompt({ stage: stage(1100), plate, gaugePressureFor: inBar.pressureFor, gaugeUnit: inBar.unit }).problem).toMatch(/needs 631\.4 bar on the jack gauge; the jack calibration is valid to 500 bar/);
@@ -64,7 +64,7 @@ describe('nextStepPrompt', () => {
     const plate = { shape: 'circular' as const, sizeMm: 600 };
     const rated = jackGaugeFor(line([0, 70]), { ratedPressureMpa: 60 }).pressureFor;
     const prompt = nextStepPrompt({ stage: stage(1100), plate, gaugePressureFor: rated, gaugeUnit: 'MPa' });
-    expect(prompt).toMatchObject({ gaugePressure: null, problem: 'Target 1100 kPa needs 63.14 MPa on the jack gauge; the jack is rated to 60 MPa. Stop here or use a larger jack.' });
+    expect(prompt).toMatchObject({ gaugePressure: null, problem: 'Target 1100 kPa needs 63.14 MPa on the jack gauge; the jack is rated to 60 MPa. Go to unloading from here, or use a larger jack.' });
     // Both limits broken: the lower one is named.
     const both = jackGaugeFor(line([0, 62]), { ratedPressureMpa: 55 }).pressureFor;
     expect(nextStepPrompt({ stage: stage(1100), plate, gaugePressureFor: both, gaugeUnit: 'MPa' }).problem).toMatch(/rated to 55 MPa/);
