@@ -72,6 +72,9 @@ export function valueToRegisters(value: number, format: RegisterFormat, wordOrde
   return swap(wordOrder === 'low-first' ? [words[1], words[0]] : words);
 }
 
+/** Smallest normal IEEE 754 binary32 magnitude, 2^-126. */
+const FLOAT32_MIN_NORMAL = 2 ** -126;
+
 /**
  * The profile's reading from its registers, in the profile's unit: raw × scale + offset. A float
  * that is NaN or infinite (a device's "no reading") is a failure, never a number.
@@ -80,6 +83,11 @@ export function modbusReading(profile: ModbusProfile, registers: readonly number
   const raw = registersToValue(registers, profile.format, profile.wordOrder, profile.byteOrder);
   if (!Number.isFinite(raw)) {
     const reason = `register value ${raw} is not a finite number`;
+    return { ok: false, reason, problem: { kind: 'value', detail: reason } };
+  }
+  if (profile.format === 'float32' && raw !== 0 && Math.abs(raw) < FLOAT32_MIN_NORMAL) {
+    // A measured value never lands among the subnormals; the halves of a float read in the wrong order often do.
+    const reason = `register value ${raw.toPrecision(3)} is a subnormal float, which no instrument sends: the word or byte order is probably wrong`;
     return { ok: false, reason, problem: { kind: 'value', detail: reason } };
   }
   return { ok: true, raw, value: raw * profile.scale + profile.offset };

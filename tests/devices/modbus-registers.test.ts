@@ -43,8 +43,12 @@ describe('registersToValue', () => {
     expect(modbusReading(inputFloat32HighFirstTransducer, [0x4148, 0x0000])).toMatchObject({ ok: true, value: 12.5 });
     // The same registers read low word first: 0x00004148, a subnormal near 2.34e-41, what a wrong convention shows.
     const misread = Buffer.from([0x00, 0x00, 0x41, 0x48]).readFloatBE(0);
-    expect(misread).toBeLessThan(1e-40);
-    expect(modbusReading(inputFloat32Transducer, [0x4148, 0x0000])).toMatchObject({ ok: true, value: misread });
+    expect(registersToValue([0x4148, 0x0000], 'float32', 'low-first')).toBe(misread);
+    // That is a subnormal float (below 2^-126): no instrument sends one, so it is refused with the likely cause, never "ok".
+    expect(misread).toBeLessThan(2 ** -126);
+    expect(modbusReading(inputFloat32Transducer, [0x4148, 0x0000])).toMatchObject({ ok: false, problem: { kind: 'value', detail: expect.stringMatching(/subnormal.*word or byte order/) } });
+    // A true zero is a reading.
+    expect(modbusReading(inputFloat32Transducer, [0x0000, 0x0000])).toMatchObject({ ok: true, value: 0 });
   });
 
   it('swaps the bytes within each register when the profile says so', () => {
