@@ -22,7 +22,7 @@ let rigName: string;
 beforeAll(async () => {
   server = await startLiveServer({ clientDir: path.join(ROOT_DIR, 'dist', 'client') });
   browser = await launchChromium();
-  const started = await simulatedRig('dense-sand', 60, 'Browser rig (simulated)');
+  const started = await simulatedRig('dense-sand', 60, 'Browser rig (simulated)', server.url);
   sim = started.sim;
   rigName = started.rig.name;
 }, 120_000);
@@ -111,7 +111,7 @@ describe('the console in a real browser', () => {
     // The finished run interprets from its own record.
     await engineer.goto(`${server.url}/runs/${runId}/interpretation`);
     await until(() => engineer.getByRole('heading', { name: 'Ultimate pressure, by method' }).isVisible());
-    await until(() => engineer.getByText(/Kondner/).first().isVisible());
+    await until(() => engineer.getByRole('cell', { name: /Kondner/ }).first().isVisible());
     await shot(engineer, 'interpretation-of-the-run');
     expect(errors.filter((e) => !e.includes('401'))).toEqual([]);
   }, 420_000);

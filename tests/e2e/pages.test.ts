@@ -63,7 +63,7 @@ describe('pages over live and stored data', () => {
     await expect.poll(() => page.getByRole('heading', { name: 'Ultimate pressure, by method' }).isVisible(), { timeout: 20_000 }).toBe(true);
     await page.waitForTimeout(1000);
     await shot(page, 'interpretation-imported');
-    await expect.poll(() => page.getByText(/Kondner/i).first().isVisible()).toBe(true);
+    await expect.poll(() => page.getByRole('cell', { name: /Kondner/i }).first().isVisible()).toBe(true);
     await expect.poll(() => page.getByText(/one plate at one spot/i).first().isVisible()).toBe(true);
     expect(errors.filter((e) => !e.includes('401'))).toEqual([]);
     await page.close();
