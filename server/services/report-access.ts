@@ -1,5 +1,5 @@
 /**
- * Who may see which report (QUALITY.md S2): staff see any run's report; a client sees only signed runs
+ * Who may see which report (target S2): staff see any run's report; a client sees only signed runs
  * of projects of their own organisation, and anything else answers 404 so it is not even revealed.
  */
 import { QueryTypes } from 'sequelize';

@@ -1,5 +1,5 @@
 /**
- * The PDF report of a run (PRODUCT.md §8): site and plan, pit and reaction, instruments, photos, stage-end readings, vector plots,
+ * The PDF report of a run: site and plan, pit and reaction, instruments, photos, stage-end readings, vector plots,
  * the interpretation with its sources, the cautions, remarks and the sign-off block with the data hash.
  * Text is Helvetica; figures, readings and the hash are JetBrains Mono (embedded from its woff).
  */

@@ -1,5 +1,5 @@
 /**
- * Review and sign-off of a run (QUALITY.md S7): an engineer submits an interpretation version for review,
+ * Review and sign-off of a run (target S7): an engineer submits an interpretation version for review,
  * a second person re-enters the password and signs with a meaning. Signing seals the report: everything it
  * shows is stored as canonical JSON (the signature's hash is its SHA-256) and the signed PDF is rendered
  * from it once and kept with its own hash, so nothing changed later reaches a signed revision. A signed

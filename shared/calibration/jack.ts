@@ -4,7 +4,7 @@ import type { Calibration } from './schema';
 import { convertPressure, isPressureUnit, type PressureUnit } from './units';
 
 /*
- * Jack force from oil pressure (DOMAIN §B.1, §D.1): ideally F = p·A_ram; in practice through the
+ * Jack force from oil pressure (reference §B.1, §D.1): ideally F = p·A_ram; in practice through the
  * calibration of jack and gauge together, and the apparatus resting on the plate adds its weight:
  * plate force = jack force + apparatus weight.
  */

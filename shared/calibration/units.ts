@@ -1,4 +1,4 @@
-/** Pressure units of jack gauges and transducers. 1 MPa = 10 bar = 1000 kPa; 1 bar = 100 kPa (DOMAIN §0). */
+/** Pressure units of jack gauges and transducers. 1 MPa = 10 bar = 1000 kPa; 1 bar = 100 kPa (reference §0). */
 export const PRESSURE_UNITS = ['MPa', 'bar', 'kPa'] as const;
 export type PressureUnit = (typeof PRESSURE_UNITS)[number];
 

@@ -1,4 +1,4 @@
-/** Plate geometry. Areas per DOMAIN §B.1: A = B² (square) or πD²/4 (circular). */
+/** Plate geometry. Areas per reference §B.1: A = B² (square) or πD²/4 (circular). */
 export const PLATE_SHAPES = ['circular', 'square'] as const;
 export type PlateShape = (typeof PLATE_SHAPES)[number];
 

@@ -55,7 +55,7 @@ export interface LoadDriftInput {
   toleranceKpa?: number;
 }
 
-/** Load drifting from its target during a hold beyond ±max(2 % of target, fixed kPa) (DOMAIN §D.1, common practice), with a top-up prompt. */
+/** Load drifting from its target during a hold beyond ±max(2 % of target, fixed kPa) (reference §D.1, common practice), with a top-up prompt. */
 export function loadDriftAlarm(input: LoadDriftInput): Alarm {
   const target = requireNonNegative(input.targetKpa, 'targetKpa');
   const deviation = requireFinite(input.actualKpa, 'actualKpa') - target;
@@ -102,7 +102,7 @@ export interface PlateTiltState {
   tilt: Tilt;
 }
 
-/** Mean, spread and tilt of two or more gauges: θ = atan(|s1 − s2|/L) for two, a least-squares plane for more (DOMAIN §B.1). */
+/** Mean, spread and tilt of two or more gauges: θ = atan(|s1 − s2|/L) for two, a least-squares plane for more (reference §B.1). */
 export function plateTiltState(gauges: readonly GaugeAtPosition[]): PlateTiltState {
   if (gauges.length < 2) throw new InterpretationInputError('gauges', `tilt needs at least two gauges (got ${gauges.length})`);
   const settlements = gauges.map((g) => g.settlementMm);
@@ -115,7 +115,7 @@ export function plateTiltState(gauges: readonly GaugeAtPosition[]): PlateTiltSta
 }
 
 /**
- * Plate tilt (DOMAIN §D.3, common practice): warns when the spread between gauges exceeds both 20 % of the
+ * Plate tilt (reference §D.3, common practice): warns when the spread between gauges exceeds both 20 % of the
  * mean settlement and 0.5 mm, or the tilt exceeds 1:100. `value`/`limit` report whichever test is nearer
  * its limit; the message gives both.
  */
@@ -159,7 +159,7 @@ export interface GaugeTravelInput {
   warnFraction?: number;
 }
 
-/** Gauge nearing the end of its travel (DOMAIN §D.3, common practice: warn at 80–90 %), prompting a reset while the load is held. */
+/** Gauge nearing the end of its travel (reference §D.3, common practice: warn at 80–90 %), prompting a reset while the load is held. */
 export function gaugeTravelAlarm(input: GaugeTravelInput): Alarm {
   const travel = requirePositive(input.travelMm, 'travelMm');
   const reading = requireFinite(input.readingMm, 'readingMm');
@@ -218,7 +218,7 @@ export interface ReactionInput {
   warnFraction?: number;
 }
 
-/** Jack force approaching the reaction capacity (DOMAIN §D.2, common practice: never use more than ≈ 80–90 % of a vehicle's reaction). */
+/** Jack force approaching the reaction capacity (reference §D.2, common practice: never use more than ≈ 80–90 % of a vehicle's reaction). */
 export function reactionCapacityAlarm(input: ReactionInput): Alarm {
   const capacity = requirePositive(input.capacityKn, 'capacityKn');
   const used = requireFinite(input.jackForceKn, 'jackForceKn') / capacity;

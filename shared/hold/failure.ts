@@ -61,7 +61,7 @@ export interface CreepCheck {
  * "Rate not decaying" (common practice): past `afterMin`, the rate over the latest window is still above
  * the threshold and is not below `decayFactor` (default 0.9) × the rate over the window just before it.
  * A consolidating or seating plate slows down window after window; a plate in failure creeps on at a
- * steady or growing rate (DOMAIN §G: past failure the creep term does not decay).
+ * steady or growing rate (reference §G: past failure the creep term does not decay).
  */
 export function rateNotDecaying(series: readonly TimePoint[], input: CreepCheckInput): CreepCheck {
   const current = trailingRate(series, { windowMin: input.windowMin, untilMin: input.heldMin });

@@ -15,7 +15,7 @@ export function settlementSign(stem: StemTravel): GaugeSign {
 }
 
 /**
- * Settlement seen by one gauge: sign × (reading − zero) + Σ reset offsets (DOMAIN §B.1 [CP]).
+ * Settlement seen by one gauge: sign × (reading − zero) + Σ reset offsets (reference §B.1 [CP]).
  * Offsets are in settlement terms, as {@link resetOffset} returns them.
  */
 export function gaugeSettlement(rawMm: number, zeroMm: number, sign: GaugeSign, offsetsMm: readonly number[] = []): number {
@@ -27,7 +27,7 @@ export function gaugeSettlement(rawMm: number, zeroMm: number, sign: GaugeSign, 
 
 /**
  * Offset that keeps settlement continuous across a gauge reset read "before" and "after" under a held
- * load: sign × (before − after) (DOMAIN §C12: 24.30 before, 1.15 after → 23.15 mm).
+ * load: sign × (before − after) (reference §C12: 24.30 before, 1.15 after → 23.15 mm).
  */
 export function resetOffset(beforeMm: number, afterMm: number, sign: GaugeSign): number {
   return sign * (requireFinite(beforeMm, 'beforeMm') - requireFinite(afterMm, 'afterMm'));
@@ -92,7 +92,7 @@ export function jumpBetween(previous: { tMs: number; mm: number } | null | undef
 /**
  * Flags every change between consecutive raw readings larger than `maxDivisions` divisions that is not
  * marked by a reset event in (previous reading, reading] — a gauge knocked, slipped or reset without a
- * record (DOMAIN §D.3, common practice).
+ * record (reference §D.3, common practice).
  */
 export function findUnmarkedJumps(readings: readonly RawGaugeReading[], resetsAtMin: readonly number[], options: JumpOptions): UnmarkedJump[] {
   const resolution = requirePositive(options.resolutionMm, 'resolutionMm');

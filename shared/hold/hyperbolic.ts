@@ -1,7 +1,7 @@
 import type { TimePoint } from './series';
 import { fitSlope } from './slope-fit';
 
-/** Hyperbolic time fit of one stage, t/Δs = a + b·t (DOMAIN §B.8). */
+/** Hyperbolic time fit of one stage, t/Δs = a + b·t (reference §B.8). */
 export interface HyperbolicTimeFit {
   /** Intercept a, min/mm (1/a = initial settlement rate of the stage, mm/min). */
   aMinPerMm: number;
@@ -26,7 +26,7 @@ export interface HyperbolicFitOptions {
  * Fits t/Δs = a + b·t by least squares over the readings of a stage, where t is the time since the target
  * was reached and Δs the settlement since the first reading (taken when the target was reached). Then
  * Δs → 1/b as t → ∞, the probable ultimate settlement of the stage, and the share reached at time t is
- * Δs(t)·b (DOMAIN §B.8; method from consolidation practice, Tan 1971 / Sridharan et al. 1987 — from memory).
+ * Δs(t)·b (reference §B.8; method from consolidation practice, Tan 1971 / Sridharan et al. 1987 — from memory).
  * Rebound on unloading is fitted the same way, with Δs measured upwards. Null when fewer than
  * `minPoints` readings qualify.
  */

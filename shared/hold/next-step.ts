@@ -45,7 +45,7 @@ export const promptBlocksLoading = (prompt: Pick<NextStepPrompt, 'refusal'> | nu
 
 /**
  * The prompt once a hold is satisfied: the next target, the plate force it means and the jack gauge
- * pressure to pump to. q = (F_jack + W_app)/A ⇒ F_jack = q·A − W_app (DOMAIN §B.1, §D.1); the
+ * pressure to pump to. q = (F_jack + W_app)/A ⇒ F_jack = q·A − W_app (reference §B.1, §D.1); the
  * gauge pressure comes from the jack's own calibration, passed in. A pressure beyond the calibration's
  * range or the jack's rating is never prompted: the prompt says why and what to do instead.
  */

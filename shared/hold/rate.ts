@@ -36,7 +36,7 @@ export interface RateUnavailable {
 export type TrailingRate = RateEstimate | RateUnavailable;
 
 /**
- * Settlement rate as the least-squares slope over the trailing `windowMin` minutes (DOMAIN §B.1, §D.3:
+ * Settlement rate as the least-squares slope over the trailing `windowMin` minutes (reference §B.1, §D.3:
  * a 0.01 mm dial makes 1-min differences meaningless, so the rate is a regression over a window).
  *
  * The window ends at the last reading (not at "now", so a late manual reading does not empty it). When

@@ -35,7 +35,7 @@ export function intervalChanges(series: readonly TimePoint[], intervalMin: numbe
 
 /**
  * Consecutive rule: the settlement changed by no more than `maxChangeMm` in each of the last `intervals`
- * intervals (the "0.03 mm/min for 3 consecutive minutes" rule of the pavement tests, DOMAIN §A.3).
+ * intervals (the "0.03 mm/min for 3 consecutive minutes" rule of the pavement tests, reference §A.3).
  */
 export function evaluateConsecutiveRule(
   rule: ConsecutiveRule,

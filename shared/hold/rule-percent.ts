@@ -7,7 +7,7 @@ type PercentRule = Extract<HoldRule, { kind: 'percentOfUltimate' }>;
 
 /**
  * Percent-of-ultimate rule for clays (IS 1888 family, 70–80 % of the stage's probable ultimate settlement,
- * or 24 h): the ultimate comes from the hyperbolic time fit t/Δs = a + b·t (DOMAIN §B.8). After
+ * or 24 h): the ultimate comes from the hyperbolic time fit t/Δs = a + b·t (reference §B.8). After
  * `maxHoldMin` the hold is satisfied anyway, and the evidence says so (`satisfiedBy: 'max-hold-cap'`).
  */
 export function evaluatePercentRule(

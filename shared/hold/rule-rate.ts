@@ -15,7 +15,7 @@ function etaFromDecay(crossingMin: number | null | undefined, minHoldMin: number
 
 /**
  * Rate rule: the least-squares rate over the trailing window is below the threshold (in magnitude, so the
- * same rule judges rebound on unloading) and the minimum hold time has passed (DOMAIN §A.3).
+ * same rule judges rebound on unloading) and the minimum hold time has passed (reference §A.3).
  */
 export function evaluateRateRule(
   rule: RateRule,

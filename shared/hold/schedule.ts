@@ -21,7 +21,7 @@ function checkSchedule(schedule: ReadingSchedule): void {
 /**
  * The scheduled reading times of a hold, minutes since the target was reached, endlessly: 0 (the reading
  * when the target is reached), then the listed times and after the last one every multiple of
- * `thenEveryMin` (1, 2.25, 4, 6.25, 9, 16, 25, 60, 120 … for the √t schedule, DOMAIN §A.3), or every
+ * `thenEveryMin` (1, 2.25, 4, 6.25, 9, 16, 25, 60, 120 … for the √t schedule, reference §A.3), or every
  * `everyMin`.
  */
 function* scheduledTimes(schedule: ReadingSchedule): Generator<number> {

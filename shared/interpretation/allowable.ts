@@ -28,7 +28,7 @@ export interface ShearAllowable {
 }
 
 /**
- * Safe bearing pressure in shear (DOMAIN §B.4; IS 6403 practice): q_net,u = q_u − γ·D_f,
+ * Safe bearing pressure in shear (reference §B.4; IS 6403 practice): q_net,u = q_u − γ·D_f,
  * q_safe,net = q_net,u/FS, q_safe,gross = q_safe,net + γ·D_f.
  */
 export function shearAllowable(input: ShearAllowableInput): ShearAllowable {
@@ -86,7 +86,7 @@ function readPlateCurve(curve: readonly CurvePoint[], settlementMm: number): { q
 }
 
 /**
- * Safe bearing pressure for a permissible settlement (DOMAIN §B.4): S_p,allow = S_f,allow / ratio(B_f, B_p),
+ * Safe bearing pressure for a permissible settlement (reference §B.4): S_p,allow = S_f,allow / ratio(B_f, B_p),
  * and q is read from the plate curve at S_p,allow by linear interpolation.
  */
 export function settlementAllowable(input: SettlementAllowableInput): SettlementAllowable {
@@ -119,7 +119,7 @@ export interface AllowableBearingPressure {
 
 /**
  * Allowable bearing pressure = min(net safe pressure in shear, safe pressure for settlement), both taken
- * as net pressures at founding level (DOMAIN §B.4, common practice). When the test did not reach the
+ * as net pressures at founding level (reference §B.4, common practice). When the test did not reach the
  * settlement, shear governs only if it is below the largest pressure tested.
  */
 export function allowableBearingPressure(shear: Pick<ShearAllowable, 'netSafeKpa'>, settlement: Pick<SettlementAllowable, 'qKpa' | 'lowerBoundKpa'>): AllowableBearingPressure {
@@ -163,7 +163,7 @@ export interface FootingWidth {
 }
 
 /**
- * Square footing width for a column load Q by bracketed bisection on B (DOMAIN §B.4): find B with
+ * Square footing width for a column load Q by bracketed bisection on B (reference §B.4): find B with
  * Q/B² = q_plate(S_f,allow / ratio(B, B_p)), q_plate read from the plate curve. Where the curve does not
  * reach the needed plate settlement its largest pressure stands for q_plate (a lower bound), which keeps
  * the answer on the safe side. Throws naming `widthRangeM` when no width in the range is the answer.

@@ -101,7 +101,7 @@ export interface BeddingCorrection {
   source: string;
 }
 
-/** Scaling of the plate results to the record's footing (DOMAIN §B.3, §B.4). */
+/** Scaling of the plate results to the record's footing (reference §B.3, §B.4). */
 export interface FootingAnalysis {
   footing: RecordFooting;
   plateWidthM: number;
@@ -158,7 +158,7 @@ export interface LoadCycle extends CycleSplit {
   releaseStage: number;
 }
 
-/** Time–settlement evaluation of one loading or reloading stage (DOMAIN §B.8). */
+/** Time–settlement evaluation of one loading or reloading stage (reference §B.8). */
 export interface StageTimeSettlement {
   index: number;
   branch: StagePoint['branch'];
@@ -212,7 +212,7 @@ export interface RecordAnalysis {
 const DEEPER_SOIL_GENERAL =
   'A footing stresses the soil to about two footing widths below its base, the plate only to about two plate widths: a weaker layer below the plate’s reach does not show in this test.';
 
-/** The cautions that stand beside every result (PRODUCT.md); `deeper_soil` is stated with the test's own depths by {@link cautionsFor}. */
+/** The cautions that stand beside every result; `deeper_soil` is stated with the test's own depths by {@link cautionsFor}. */
 export const STANDING_CAUTIONS: readonly Caution[] = [
   { code: 'one_spot', message: 'The results describe the soil under one plate, at one spot and one depth; the ground elsewhere on the site may differ.' },
   { code: 'deeper_soil', message: DEEPER_SOIL_GENERAL },
@@ -321,7 +321,7 @@ export function loadingEnvelope(points: readonly StagePoint[], targets: Readonly
 }
 
 /**
- * The load–release cycles of a repeated-loading test (DOMAIN §B.9; ASTM D1195 terms): each loading stage
+ * The load–release cycles of a repeated-loading test (reference §B.9; ASTM D1195 terms): each loading stage
  * followed by a release, split into total, rebound and residual deflection from the curve's origin.
  * Throws when no load level is applied more than once.
  */
@@ -431,7 +431,7 @@ function analyzeFooting(
   };
 }
 
-/** E from the secant of the first loading between two fractions of its largest pressure (DOMAIN §B.7; EN 1997-2 K.2). */
+/** E from the secant of the first loading between two fractions of its largest pressure (reference §B.7; EN 1997-2 K.2). */
 function secantElasticModulus(curve: readonly CurvePoint[], plate: Plate, poisson: number, range: readonly [number, number]): SecantElasticModulus {
   const [low, high] = [requireInRange(range[0], 0, 1, 'elasticRange[0]'), requireInRange(range[1], 0, 1, 'elasticRange[1]')];
   if (!(high > low)) throw new InterpretationInputError('elasticRange', 'the upper fraction must exceed the lower');

@@ -43,7 +43,7 @@ const NARROW_BOREHOLE_IN_DIAMETERS = 3;
  * Undrained shear strength of clay from a plate test, EN 1997-2 Annex K.1 (after Marsland 1972):
  * c_u = (p_u − γ·z)/N_c with N_c = 6 for a circular plate on the surface and N_c = 9 in a borehole
  * deeper than 4 plate diameters; γ·z is subtracted only in a borehole narrower than 3 plate diameters
- * (DOMAIN §B.2 item 6). Between the surface and 4 diameters the engineer must give N_c.
+ * (reference §B.2 item 6). Between the surface and 4 diameters the engineer must give N_c.
  */
 export function undrainedShearStrength(input: ClayStrengthInput): ClayStrengthResult {
   const pu = requirePositive(input.ultimatePressureKpa, 'ultimatePressureKpa');

@@ -40,7 +40,7 @@ const kpaToMnM2 = (kpa: number) => kpa / 1000;
 
 /**
  * DIN-type secant modulus Ev = 1.5·r·Δσ0/Δs = 0.75·D·Δσ0/Δs (MN/m² with r, D, s in mm and σ0 in MN/m²);
- * the 1.5 is π(1 − ν²)/2 of a rigid circular plate on an elastic half-space (DIN 18134; DOMAIN §B.6).
+ * the 1.5 is π(1 − ν²)/2 of a rigid circular plate on an elastic half-space (DIN 18134; reference §B.6).
  */
 export function dinSecantModulus(plateDiameterMm: number, deltaStressMnM2: number, deltaSettlementMm: number): number {
   return (0.75 * requirePositive(plateDiameterMm, 'plateDiameterMm') * requirePositive(deltaStressMnM2, 'deltaStressMnM2')) / requirePositive(deltaSettlementMm, 'deltaSettlementMm');
@@ -48,7 +48,7 @@ export function dinSecantModulus(plateDiameterMm: number, deltaStressMnM2: numbe
 
 /**
  * Fits one loading branch by least squares, s = a0 + a1·σ0 + a2·σ0², and evaluates the secant between
- * 0.3 and 0.7 σ0max: Ev = 1.5·r/(a1 + a2·σ0max) (DIN 18134; DOMAIN §B.6). Needs three or more points.
+ * 0.3 and 0.7 σ0max: Ev = 1.5·r/(a1 + a2·σ0max) (DIN 18134; reference §B.6). Needs three or more points.
  */
 export function evFromBranch(points: readonly CurvePoint[], plateDiameterMm: number, sigma0maxMnM2: number, field = 'points'): EvBranch {
   checkCurve(points, field, 3);
@@ -85,7 +85,7 @@ export interface DeformationModuliInput {
 }
 
 /**
- * Deformation moduli Ev1, Ev2 and Ev2/Ev1 from a two-cycle plate test (DIN 18134; DOMAIN §B.6, check C8):
+ * Deformation moduli Ev1, Ev2 and Ev2/Ev1 from a two-cycle plate test (DIN 18134; reference §B.6, check C8):
  * each loading branch is fitted by s = a0 + a1·σ0 + a2·σ0² and Ev = 1.5·r/(a1 + a2·σ0max), with σ0max
  * taken per the stated convention (default: the first loading's maximum for both).
  */
@@ -114,7 +114,7 @@ export function deformationModuli(input: DeformationModuliInput): DeformationMod
 }
 
 /**
- * The branches of a stage-point list as DIN 18134 fits them (DOMAIN §B.6): first loading = the last
+ * The branches of a stage-point list as DIN 18134 fits them (reference §B.6): first loading = the last
  * seating point (σ0 after preload, gauges zeroed) followed by the loading points; second loading = the
  * last unloading point followed by the reloading points (absent when there is no reloading).
  */
@@ -126,7 +126,7 @@ export function evBranchesFromStages(points: readonly StagePoint[]): { firstLoad
   return reloading.length === 0 ? { firstLoading } : { firstLoading, secondLoading: [...lastOf('unloading'), ...reloading] };
 }
 
-/** An acceptance requirement on Ev2 and Ev2/Ev1, configured per contract (DOMAIN §B.6 table). */
+/** An acceptance requirement on Ev2 and Ev2/Ev1, configured per contract (reference §B.6 table). */
 export interface EvRequirement {
   name: string;
   /** Required Ev2, MN/m². */
@@ -155,7 +155,7 @@ const fmt = (x: number, digits = 1) => x.toFixed(digits);
 
 /**
  * Checks Ev2 ≥ required and Ev2/Ev1 ≤ limit, the ratio limit waived when Ev1 ≥ fraction × required Ev2
- * (DOMAIN §B.6; ZTV E-StB practice, values configured per contract). An undetermined modulus fails.
+ * (reference §B.6; ZTV E-StB practice, values configured per contract). An undetermined modulus fails.
  */
 export function checkEvRequirement(moduli: Pick<DeformationModuli, 'ev1' | 'ev2' | 'ratio'>, requirement: EvRequirement): EvAcceptance {
   const required = requirePositive(requirement.minEv2MnM2, 'requirement.minEv2MnM2');
@@ -180,7 +180,7 @@ export function checkEvRequirement(moduli: Pick<DeformationModuli, 'ev1' | 'ev2'
 }
 
 /**
- * Modulus of subgrade reaction ks from the first loading of a 762 mm plate (DIN 18134; DOMAIN §B.6):
+ * Modulus of subgrade reaction ks from the first loading of a 762 mm plate (DIN 18134; reference §B.6):
  * ks = σ0(s = 1.25 mm)/1.25 mm, σ0 interpolated linearly; MN/m³.
  */
 export function ksFromFirstLoading(firstLoading: readonly CurvePoint[], plateDiameterMm = 762): SubgradeModulus & { plateDiameterMm: number } {

@@ -31,7 +31,7 @@ export interface ElasticModulus {
 }
 
 /**
- * Young's modulus from s = q·B·(1 − ν²)·I_s/E (elastic half-space; Das, Bowles; DOMAIN §B.7):
+ * Young's modulus from s = q·B·(1 − ν²)·I_s/E (elastic half-space; Das, Bowles; reference §B.7):
  * E = Δq·B·(1 − ν²)·I_s/Δs, in MPa (kPa·mm/mm ÷ 1000).
  */
 export function elasticModulusFromSettlement(input: ElasticSettlementInput): ElasticModulus {
@@ -60,7 +60,7 @@ export interface RigidPlateInput {
 
 /**
  * Young's modulus from a rigid plate: circular E = (π/4)(1 − ν²)·Δq·D/Δs (EN 1997-2 Annex K.2 E_PLT,
- * secant, Δs includes creep); square the same with I_s = 0.82 by default (DOMAIN §B.7, check C9).
+ * secant, Δs includes creep); square the same with I_s = 0.82 by default (reference §B.7, check C9).
  */
 export function rigidPlateModulus(input: RigidPlateInput): ElasticModulus {
   const { shape, sizeMm } = input.plate;
@@ -76,7 +76,7 @@ export function rigidPlateModulus(input: RigidPlateInput): ElasticModulus {
   return circular ? { ...result, formula: 'E = (π/4)·(1 − ν²)·Δq·D/Δs', source: 'EN 1997-2:2007 Annex K.2 (E_PLT); Boussinesq rigid circular plate' } : result;
 }
 
-/** Young's modulus equivalent to a DIN deformation modulus: E = Ev·(π/3)(1 − ν²) (DOMAIN §B.7 [calc]). */
+/** Young's modulus equivalent to a DIN deformation modulus: E = Ev·(π/3)(1 − ν²) (reference §B.7 [calc]). */
 export function elasticModulusFromEv(evMnM2: number, poisson: number): number {
   return requirePositive(evMnM2, 'evMnM2') * (Math.PI / 3) * (1 - requireInRange(poisson, 0, 0.5, 'poisson') ** 2);
 }

@@ -40,7 +40,7 @@ export function footingAreaAndPerimeter(footing: HouselFooting): { areaM2: numbe
 }
 
 /**
- * Housel (1929) perimeter–area method (DOMAIN §B.2 item 7): plates of different size loaded to the same
+ * Housel (1929) perimeter–area method (reference §B.2 item 7): plates of different size loaded to the same
  * settlement carry Q = A·m + P·n. Dividing by A gives the straight line q = m + n·(P/A); two plates
  * solve it exactly, three or more are fitted by least squares on that line (each plate weighs equally).
  */

@@ -69,7 +69,7 @@ export interface PlaneFit {
 
 /**
  * Mean settlement of the gauges, s = Σ s_i / n. With two diametrically opposite gauges this is the centre
- * settlement of a rigid tilting plate (DOMAIN §B.1 [calc]).
+ * settlement of a rigid tilting plate (reference §B.1 [calc]).
  */
 export function meanSettlement(gaugesMm: readonly number[], field = 'gauges'): number {
   if (gaugesMm.length === 0) throw new InterpretationInputError(field, 'needs at least one gauge');
@@ -82,7 +82,7 @@ function tiltFromSlope(slope: number): Tilt {
   return { radians, degrees: (radians * 180) / Math.PI, oneIn: slope === 0 ? null : 1 / Math.abs(slope) };
 }
 
-/** Tilt between two gauges a distance L apart: θ = atan(|s1 − s2| / L) (DOMAIN §B.1 [calc]). */
+/** Tilt between two gauges a distance L apart: θ = atan(|s1 − s2| / L) (reference §B.1 [calc]). */
 export function tiltBetweenGauges(s1Mm: number, s2Mm: number, separationMm: number): Tilt {
   requireFinite(s1Mm, 's1Mm');
   requireFinite(s2Mm, 's2Mm');
@@ -91,7 +91,7 @@ export function tiltBetweenGauges(s1Mm: number, s2Mm: number, separationMm: numb
 
 /**
  * Plane fit through three or more gauges, s = c0 + cx·x + cy·y by least squares; tilt = atan √(cx² + cy²)
- * (DOMAIN §B.1 [calc]). Throws when the gauges are fewer than three or stand on one line.
+ * (reference §B.1 [calc]). Throws when the gauges are fewer than three or stand on one line.
  */
 export function planeFitTilt(gauges: readonly GaugeAtPosition[], field = 'gauges'): PlaneFit {
   if (gauges.length < 3) throw new InterpretationInputError(field, `a plane needs at least three gauges (got ${gauges.length})`);
@@ -142,7 +142,7 @@ function readingAt(readings: readonly TimedReading[], tMin: number, field: strin
 /**
  * Reduces timed readings to one load–settlement point per stage: the end-of-hold reading, or the
  * state at a fixed time into the stage (linear interpolation in time). Settlement = mean of the gauges
- * (DOMAIN §B.1; reading practice per §A.3: end of hold for maintained-load tests, ≈ 2 min for DIN 18134).
+ * (reference §B.1; reading practice per §A.3: end of hold for maintained-load tests, ≈ 2 min for DIN 18134).
  */
 export function reduceStages(stages: readonly StageReadings[], rule: ReductionRule = { kind: 'endOfHold' }): StagePoint[] {
   if (rule.kind === 'atTime') requireFinite(rule.minutes, 'rule.minutes');
@@ -164,7 +164,7 @@ export function reduceStages(stages: readonly StageReadings[], rule: ReductionRu
   });
 }
 
-/** Mean settlement against time for one stage, the input of the time–settlement methods (DOMAIN §B.8). */
+/** Mean settlement against time for one stage, the input of the time–settlement methods (reference §B.8). */
 export function stageSettlementSeries(stage: StageReadings, field = 'stage'): TimeSettlement[] {
   checkReadings(stage, field);
   return stage.readings.map((r) => ({ tMin: r.tMin, settlementMm: meanSettlement(r.gauges) }));

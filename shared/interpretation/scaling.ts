@@ -3,7 +3,7 @@ import { InterpretationInputError, requireInRange, requirePositive } from './inp
 /** Soil behaviour for scaling: granular (drained), clay (undrained, homogeneous) or a c–φ soil. */
 export type ScalingSoil = 'cohesionless' | 'cohesive' | 'mixed';
 
-/** How a plate settlement is scaled to a footing at the same pressure (DOMAIN §B.3). */
+/** How a plate settlement is scaled to a footing at the same pressure (reference §B.3). */
 export type SettlementScaling =
   | { kind: 'terzaghiPeckSand' }
   | { kind: 'dasSand' }
@@ -26,7 +26,7 @@ export interface ScalingWarning {
   message: string;
 }
 
-/** Bond (1961) exponent n by soil, as [low, high] (DOMAIN §B.3 [mem]). */
+/** Bond (1961) exponent n by soil, as [low, high] (reference §B.3 [mem]). */
 export const BOND_EXPONENT_RANGES = {
   clay: [0.03, 0.05],
   sandyClay: [0.08, 0.1],
@@ -43,7 +43,7 @@ function widths(plateWidthM: number, footingWidthM: number): [number, number] {
 }
 
 /**
- * S_f/S_p on sand, Terzaghi & Peck (1948, 1967): [B_f(B_p + 0.3)/(B_p(B_f + 0.3))]², B in m (DOMAIN §B.3).
+ * S_f/S_p on sand, Terzaghi & Peck (1948, 1967): [B_f(B_p + 0.3)/(B_p(B_f + 0.3))]², B in m (reference §B.3).
  * Tends to 4.0 as B_f → ∞ for B_p = 0.3 m.
  */
 export function terzaghiPeckSandRatio(plateWidthM: number, footingWidthM: number): number {
@@ -51,19 +51,19 @@ export function terzaghiPeckSandRatio(plateWidthM: number, footingWidthM: number
   return ((bf * (bp + REFERENCE_WIDTH_M)) / (bp * (bf + REFERENCE_WIDTH_M))) ** 2;
 }
 
-/** S_f/S_p on sand, Das form: [2B_f/(B_f + B_p)]², identical to Terzaghi & Peck when B_p = 0.3 m (DOMAIN §B.3). */
+/** S_f/S_p on sand, Das form: [2B_f/(B_f + B_p)]², identical to Terzaghi & Peck when B_p = 0.3 m (reference §B.3). */
 export function dasSandRatio(plateWidthM: number, footingWidthM: number): number {
   const [bp, bf] = widths(plateWidthM, footingWidthM);
   return ((2 * bf) / (bf + bp)) ** 2;
 }
 
-/** S_f/S_p on homogeneous clay (undrained, elastic): B_f/B_p (Terzaghi & Peck; DOMAIN §B.3). */
+/** S_f/S_p on homogeneous clay (undrained, elastic): B_f/B_p (Terzaghi & Peck; reference §B.3). */
 export function clayLinearRatio(plateWidthM: number, footingWidthM: number): number {
   const [bp, bf] = widths(plateWidthM, footingWidthM);
   return bf / bp;
 }
 
-/** S_f/S_p after Bond (1961): (B_f/B_p)^(n+1) (DOMAIN §B.3). n = 0 reproduces the clay ratio. */
+/** S_f/S_p after Bond (1961): (B_f/B_p)^(n+1) (reference §B.3). n = 0 reproduces the clay ratio. */
 export function bondRatio(plateWidthM: number, footingWidthM: number, exponentN: number): number {
   const [bp, bf] = widths(plateWidthM, footingWidthM);
   return (bf / bp) ** (requireInRange(exponentN, 0, 1, 'exponentN') + 1);
@@ -140,20 +140,20 @@ export function settlementRatio(scaling: SettlementScaling, plateWidthM: number,
   }
 }
 
-/** Footing settlement at the same pressure as the plate: S_f = S_p · ratio (DOMAIN §B.3). */
+/** Footing settlement at the same pressure as the plate: S_f = S_p · ratio (reference §B.3). */
 export function footingSettlement(plateSettlementMm: number, plateWidthM: number, footingWidthM: number, scaling: SettlementScaling): ScaledSettlement {
   const ratio = settlementRatio(scaling, plateWidthM, footingWidthM);
   return { ratio, settlementMm: requirePositive(plateSettlementMm, 'plateSettlementMm') * ratio, ...SCALINGS[scaling.kind] };
 }
 
-/** Plate settlement that corresponds to a footing settlement: S_p = S_f / ratio (DOMAIN §B.4). */
+/** Plate settlement that corresponds to a footing settlement: S_p = S_f / ratio (reference §B.4). */
 export function plateSettlementForFooting(footingSettlementMm: number, plateWidthM: number, footingWidthM: number, scaling: SettlementScaling): ScaledSettlement {
   const ratio = settlementRatio(scaling, plateWidthM, footingWidthM);
   return { ratio, settlementMm: requirePositive(footingSettlementMm, 'footingSettlementMm') / ratio, ...SCALINGS[scaling.kind] };
 }
 
 /**
- * Ultimate pressure of the footing from the plate's (DOMAIN §B.3; Das, Punmia, Ranjan & Rao):
+ * Ultimate pressure of the footing from the plate's (reference §B.3; Das, Punmia, Ranjan & Rao):
  * sand (surface, c = 0, q = ½γBNγ) q_u,f = q_u,p·B_f/B_p; clay (c·N_c independent of B) q_u,f = q_u,p.
  * A c–φ soil has no single-plate scaling (use two plate sizes): throws for `mixed`.
  */
@@ -191,7 +191,7 @@ export interface ScalingContext {
 }
 
 /**
- * The cautions of DOMAIN §B.3 that apply to a scaling, as structured warnings: sand-ratio limit,
+ * The cautions of reference §B.3 that apply to a scaling, as structured warnings: sand-ratio limit,
  * depth of influence, scale effect on q_u for sand, water table, clay long-term settlement, c–φ soils,
  * and a footing narrower than the plate.
  */

@@ -51,7 +51,7 @@ function subgradeModulus(convention: SubgradeModulus['convention'], pressureKpa:
 }
 
 /**
- * k at a fixed settlement (DOMAIN §B.5): k = p(δ)/δ with p interpolated linearly on the curve at δ
+ * k at a fixed settlement (reference §B.5): k = p(δ)/δ with p interpolated linearly on the curve at δ
  * (default 1.25 mm, IS 9214 / IRC:58 / DIN 18134 ks). k in MN/m³ since kPa/mm = MN/m³.
  */
 export function subgradeModulusAtSettlement(curve: readonly CurvePoint[], settlementMm = FIXED_SETTLEMENT_MM): SubgradeModulus {
@@ -61,7 +61,7 @@ export function subgradeModulusAtSettlement(curve: readonly CurvePoint[], settle
 }
 
 /**
- * k at a fixed pressure (DOMAIN §B.5, US Army Corps): k = p/δ(p) with δ interpolated linearly on the
+ * k at a fixed pressure (reference §B.5, US Army Corps): k = p/δ(p) with δ interpolated linearly on the
  * curve at p (default 10 psi = 68.9476 kPa).
  */
 export function subgradeModulusAtPressure(curve: readonly CurvePoint[], pressureKpa = FIXED_PRESSURE_KPA): SubgradeModulus {
@@ -78,13 +78,13 @@ export interface CorrectedModulus {
   source: string;
 }
 
-/** Plate-size rules for k (DOMAIN §B.5). */
+/** Plate-size rules for k (reference §B.5). */
 export type SubgradeSizeRule = 'terzaghiSand' | 'terzaghiClay';
 
 const TERZAGHI_1955 = 'Terzaghi (1955) Géotechnique 5(4), as reproduced in Das and Bowles';
 
 /**
- * k for another plate or footing width, Terzaghi (1955) (DOMAIN §B.5):
+ * k for another plate or footing width, Terzaghi (1955) (reference §B.5):
  * sand k_B = k_0.3·((B + 0.3)/(2B))², clay k_B = k_0.3·0.3/B (B in m). From a plate of width B1 other than
  * 0.3 m the rule is applied as a ratio: k_B = k_B1·f(B)/f(B1) [calc].
  */
@@ -101,7 +101,7 @@ export function subgradeSizeCorrection(kMnM3: number, fromWidthM: number, toWidt
   throw new InterpretationInputError('rule', `unknown size rule "${rule}"`);
 }
 
-/** k of a B×L rectangle in clay from the B×B square: k·(1 + 0.5·B/L)/1.5 (Terzaghi 1955; DOMAIN §B.5). */
+/** k of a B×L rectangle in clay from the B×B square: k·(1 + 0.5·B/L)/1.5 (Terzaghi 1955; reference §B.5). */
 export function rectangleInClay(kSquareMnM3: number, widthM: number, lengthM: number): CorrectedModulus {
   const k = requirePositive(kSquareMnM3, 'kSquareMnM3');
   const b = requirePositive(widthM, 'widthM');
@@ -111,13 +111,13 @@ export function rectangleInClay(kSquareMnM3: number, widthM: number, lengthM: nu
   return { kMnM3: k * factor, factor, formula: 'k_B×L = k_B×B·(1 + 0.5·B/L)/1.5', source: TERZAGHI_1955 };
 }
 
-/** IRC:58 rule: k of the 750 mm plate = ½ k of the 300 mm plate (DOMAIN §B.5 [mem]). */
+/** IRC:58 rule: k of the 750 mm plate = ½ k of the 300 mm plate (reference §B.5 [mem]). */
 export function ircK750FromK300(k300MnM3: number): CorrectedModulus {
   return { kMnM3: requirePositive(k300MnM3, 'k300MnM3') * 0.5, factor: 0.5, formula: 'k_750 = 0.5·k_300', source: 'IRC:58' };
 }
 
 /**
- * Saturation correction (DOMAIN §B.5; US Army Corps CRD-C 655 / UFC 3-260-02): k_s = k_u·d/d_s with d,
+ * Saturation correction (reference §B.5; US Army Corps CRD-C 655 / UFC 3-260-02): k_s = k_u·d/d_s with d,
  * d_s the deformations of unsoaked and soaked consolidometer specimens under the test pressure.
  */
 export function saturationCorrection(kMnM3: number, unsoakedDeformationMm: number, soakedDeformationMm: number): CorrectedModulus {
@@ -135,7 +135,7 @@ export interface CbrCorrelation {
   source: string;
 }
 
-/** IRC:58 table, soaked CBR (%) → k (MPa/m) (DOMAIN §B.5 [seen-2nd]). */
+/** IRC:58 table, soaked CBR (%) → k (MPa/m) (reference §B.5 [seen-2nd]). */
 export const IRC_CBR_TABLE: readonly (readonly [number, number])[] = [
   [2, 21],
   [3, 28],
@@ -154,7 +154,7 @@ function fromMnM3(name: string, kMnM3: number | null, reason: string | null, for
 }
 
 /**
- * k from CBR by the published correlations, for information beside a measured k (DOMAIN §B.5):
+ * k from CBR by the published correlations, for information beside a measured k (reference §B.5):
  * IRC:58 table (linear interpolation, CBR 2–100 %), FAA AC 150/5320-6 k(pci) = (1500·CBR/26)^0.7788,
  * PCA k(pci) = 53.438·CBR^0.5719, UK DMRB IAN 73/06 CBR = 6.1×10⁻⁸·k762^1.733 (k in kPa/m) inverted.
  */

@@ -18,13 +18,13 @@ function checkSeries(readings: readonly TimeSettlement[], field: string, minRead
   });
 }
 
-/** s against log10 t for a Casagrande-type plot (DOMAIN §B.8); readings at t = 0 are left out. */
+/** s against log10 t for a Casagrande-type plot (reference §B.8); readings at t = 0 are left out. */
 export function settlementLogTime(readings: readonly TimeSettlement[]): { log10TMin: number; settlementMm: number }[] {
   checkSeries(readings, 'readings', 1);
   return readings.filter((r) => r.tMin > 0).map((r) => ({ log10TMin: Math.log10(r.tMin), settlementMm: r.settlementMm }));
 }
 
-/** s against √t for a Taylor-type plot (DOMAIN §B.8; the IS 1888 reading times make it straight early on). */
+/** s against √t for a Taylor-type plot (reference §B.8; the IS 1888 reading times make it straight early on). */
 export function settlementRootTime(readings: readonly TimeSettlement[]): { sqrtTMin: number; settlementMm: number }[] {
   checkSeries(readings, 'readings', 1);
   return readings.map((r) => ({ sqrtTMin: Math.sqrt(r.tMin), settlementMm: r.settlementMm }));
@@ -42,7 +42,7 @@ export interface CreepCoefficient {
 }
 
 /**
- * Creep coefficient per log cycle (DOMAIN §B.8, as in EN ISO 22477-1 pile testing):
+ * Creep coefficient per log cycle (reference §B.8, as in EN ISO 22477-1 pile testing):
  * k_s = (s_b − s_a)/log10(t_b/t_a), s_a and s_b interpolated linearly in time at t_a and t_b.
  */
 export function creepPerLogCycle(readings: readonly TimeSettlement[], fromMin: number, toMin: number): CreepCoefficient {
@@ -88,7 +88,7 @@ export interface HyperbolicTimeOptions {
 }
 
 /**
- * Hyperbolic time fit of one stage (DOMAIN §B.8; Tan 1971, Sridharan et al. 1987): with Δs the settlement
+ * Hyperbolic time fit of one stage (reference §B.8; Tan 1971, Sridharan et al. 1987): with Δs the settlement
  * since the stage start, least squares t/Δs = a + b·t; ultimate increment 1/b and the percentage reached
  * at the last reading, Δs(t)/(1/b)·100 — an objective form of IS 1888's 70–80 % rule for clays.
  */
@@ -151,7 +151,7 @@ export interface CycleSplit {
 }
 
 /**
- * Cyclic evaluation (DOMAIN §B.9; ASTM D1195 terms): per cycle total deflection at load, rebound on
+ * Cyclic evaluation (reference §B.9; ASTM D1195 terms): per cycle total deflection at load, rebound on
  * release, residual deflection and elastic fraction = rebound/total; the residual's growth per cycle.
  */
 export function cyclicSplit(cycles: readonly LoadReleaseCycle[], zeroMm = 0): CycleSplit[] {

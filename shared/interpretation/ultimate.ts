@@ -6,7 +6,7 @@ import { type BreakSignificance, breakSignificance, roundingSd } from './signifi
 /** Reading resolution assumed when none is given: a 0.01 mm dial or digital gauge (common practice). */
 export const DEFAULT_RESOLUTION_MM = 0.01;
 
-/** The ultimate-pressure methods of DOMAIN §B.2. */
+/** The ultimate-pressure methods of reference §B.2. */
 export type UltimateMethod = 'logLogIntersection' | 'tangentIntersection' | 'hyperbolic' | 'settlementCriterion' | 'brinchHansen80' | 'brinchHansen90';
 
 /** How well a method's fit reproduces the data it used. */
@@ -89,7 +89,7 @@ const LOG_LOG = {
 } as const;
 
 /**
- * Log–log two-straight-line method (DOMAIN §B.2 item 1; De Beer 1970): in log10 q – log10 s space fit
+ * Log–log two-straight-line method (reference §B.2 item 1; De Beer 1970): in log10 q – log10 s space fit
  * line 1 to points 0..k and line 2 to points k+1..n−1 for every split k, take the split with the least
  * total SSE (or the engineer's `firstLineEnd`), and return the pressure where the lines intersect:
  * log q* = (a2 − a1)/(b1 − b2). Null when the second line is not steeper or they meet outside the data.
@@ -179,7 +179,7 @@ const TANGENT = {
 } as const;
 
 /**
- * Tangent (double-tangent) intersection (DOMAIN §B.2 item 2, common practice). Algorithm chosen here:
+ * Tangent (double-tangent) intersection (reference §B.2 item 2, common practice). Algorithm chosen here:
  * the initial tangent is the least-squares line s = a1 + b1·q through the first `initialPoints` points,
  * the final tangent the least-squares line through the last `finalPoints` points (the two sets do not
  * overlap); q_ult = (a1 − a2)/(b2 − b1) where they cross. Null when the final tangent is not steeper, the
@@ -246,7 +246,7 @@ const HYPERBOLIC = {
 } as const;
 
 /**
- * Hyperbolic method (DOMAIN §B.2 item 3; Kondner 1963, Chin 1970): least-squares line s/q = a + b·s;
+ * Hyperbolic method (reference §B.2 item 3; Kondner 1963, Chin 1970): least-squares line s/q = a + b·s;
  * q_ult = 1/b (the asymptote, which over-predicts the load reached in tests), initial stiffness 1/a.
  * With `criterionSettlementMm` also gives q there by the hyperbola, q = s/(a + b·s), and by linear
  * interpolation of the data. Null when fewer than three points have q > 0 or b ≤ 0 (no asymptote).
@@ -308,7 +308,7 @@ export function criterionSettlementMm(plateWidthMm: number, options: SettlementC
 }
 
 /**
- * Settlement criterion (DOMAIN §B.2 item 4, common practice): q_ult = pressure at s = fraction × plate
+ * Settlement criterion (reference §B.2 item 4, common practice): q_ult = pressure at s = fraction × plate
  * width (default 10 %), linear interpolation of the load–settlement points. Null when not reached.
  */
 export function settlementCriterionUltimate(
@@ -356,7 +356,7 @@ const BRINCH_HANSEN = {
 } as const;
 
 /**
- * Brinch Hansen 80 % criterion (DOMAIN §B.2 item 5; Brinch Hansen 1963): least-squares line
+ * Brinch Hansen 80 % criterion (reference §B.2 item 5; Brinch Hansen 1963): least-squares line
  * √s/q = C1·s + C2, then q_u = 1/(2√(C1·C2)) and s_u = C2/C1 (the peak of q = √s/(C1·s + C2), at which
  * 0.8·q_u corresponds to s_u/4). Null when fewer than three points have q > 0 or C1, C2 are not both > 0.
  */
@@ -463,7 +463,7 @@ export type AnyUltimateResult =
   | UltimateResult<'brinchHansen90', BrinchHansen90Details>;
 
 /**
- * Every ultimate-pressure method of DOMAIN §B.2 on one loading curve, side by side, so that the engineer
+ * Every ultimate-pressure method of reference §B.2 on one loading curve, side by side, so that the engineer
  * can choose (none is "the" value unless a contract fixes it). Input: the loading branch in test order.
  */
 export function compareUltimateMethods(points: readonly CurvePoint[], plateWidthMm: number, options: CompareUltimateOptions = {}): AnyUltimateResult[] {

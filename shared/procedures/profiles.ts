@@ -2,7 +2,7 @@ import type { HoldRule, Loading, ReadingSchedule, Termination, UnloadReload } fr
 import type { PlateShape } from '../domain/plate';
 
 /**
- * Where a default value comes from, in the tags of DOMAIN.md §0:
+ * Where a default value comes from, in the marks of the reference (shared/README.md):
  * a standard seen in a secondary text, a value recalled from memory, or common practice.
  */
 export type SourceTag = 'standard' | 'secondary' | 'from memory' | 'common practice';
@@ -24,7 +24,7 @@ export interface ProcedureProfile {
   /** Standards family the defaults follow; not a claim of compliance. */
   family: string;
   plateSizeRangeMm: [number, number];
-  /** Smallest pit width in plate widths (DOMAIN §A.2). */
+  /** Smallest pit width in plate widths (reference §A.2). */
   minPitWidthInPlates: number;
   /** Reaction capacity must exceed the largest planned load by this fraction (20 % is common practice). */
   reactionMargin: number;

@@ -27,7 +27,7 @@ export interface RunState {
   holdMetAtMs: number | null;
   /** Gauge readings taken as zero, mm, by channel key. */
   zeros: Record<string, number>;
-  /** Offsets added by gauge resets, mm, by channel key (DOMAIN C12). */
+  /** Offsets added by gauge resets, mm, by channel key (reference §C12). */
   resetOffsets: Record<string, number>;
   /** The one person whose station commands the run. */
   controller: { id: number; name: string } | null;

@@ -120,7 +120,7 @@ export function eventPrecedes(e: ModelEvent, at: SamplePosition): boolean {
   return after !== null ? at.seq > after : at.tMs >= e.atMs;
 }
 
-/** The jack branch a stage reads: its falling side while unloading (seal friction, DOMAIN §D.1). */
+/** The jack branch a stage reads: its falling side while unloading (seal friction, reference §D.1). */
 export const jackBranchOf = (setup: RunSetupSnapshot, stageIndex: number, state?: Pick<ModelState, 'stageBranches'>): 'rising' | 'falling' =>
   ((state?.stageBranches ?? setup.stageBranches)[stageIndex] === 'unloading' ? 'falling' : 'rising');
 

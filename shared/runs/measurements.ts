@@ -1,7 +1,7 @@
 /**
  * What the rig's latest calibrated readings mean for the test: each gauge's settlement (zero,
  * direction and reset offsets applied), their mean and tilt, and the mean pressure under the plate
- * from the jack's oil pressure through its calibration plus the apparatus weight (DOMAIN §B.1).
+ * from the jack's oil pressure through its calibration plus the apparatus weight (reference §B.1).
  */
 import { type Branch, applyCalibration, outsideCalibratedSpan } from '../calibration/evaluate';
 import { inverseCalibration, OutsideCalibratedRange } from '../calibration/inverse';
@@ -44,7 +44,7 @@ export interface MeasurementSetup {
 
 /**
  * `branch`: which side of the jack's calibration applies — 'falling' while unloading, when seal
- * friction makes the same oil pressure give a different force (DOMAIN §D.1).
+ * friction makes the same oil pressure give a different force (reference §D.1).
  */
 export function measure(setup: MeasurementSetup, latest: ReadonlyMap<string, number | null>, zeros: Record<string, number>, offsets: Record<string, number>, branch: Branch = 'rising'): Measurements {
   const gauges: GaugeNow[] = [];

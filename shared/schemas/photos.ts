@@ -6,7 +6,7 @@ import { idSchema, imageFileProblem, optionalText, trimmed } from './common';
 export const PHOTO_KINDS = ['site', 'pit'] as const;
 export type PhotoKind = (typeof PHOTO_KINDS)[number];
 
-/** Image types accepted, checked from the file's content on the server (QUALITY.md S6). */
+/** Image types accepted, checked from the file's content on the server (target S6). */
 export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'] as const;
 export const PHOTO_MAX_BYTES = 15 * 1024 * 1024;
 /** Photos kept per test location (its own and its runs' together). */

@@ -5,7 +5,7 @@ import { optionalText, patchOf, requiredText } from './common';
 const kpa = z.number().min(0).max(20000);
 const positiveMinutes = z.number().positive().max(60 * 24 * 14);
 
-/** How one increment's hold is judged satisfied (DOMAIN §A.3, §D.9). */
+/** How one increment's hold is judged satisfied (reference §A.3, §D.9). */
 export const holdRuleSchema = z.discriminatedUnion('kind', [
   z.object({
     kind: z.literal('rate'),
@@ -103,7 +103,7 @@ export const planInput = z.object({
    * before this setting existed have none and hold 0.5 min (see seatingHoldMin() in plans/stages).
    */
   seatingHoldMin: z.number().min(0).max(60).default(0.5),
-  /** Weight of column, spacers, jack body resting on the plate, kN (DOMAIN §B.1). */
+  /** Weight of column, spacers, jack body resting on the plate, kN (reference §B.1). */
   apparatusWeightKn: z.number().min(0).max(100).default(0),
   loading: loadingSchema,
   unloadReload: unloadReloadSchema,

@@ -23,7 +23,7 @@ export function weakPasswordReason(password: string): string | null {
   return null;
 }
 
-/** Password policy (QUALITY.md S3): 8 to 128 characters, not a common or trivially guessed one. */
+/** Password policy (target S3): 8 to 128 characters, not a common or trivially guessed one. */
 export const passwordSchema = z
   .string()
   .min(8, 'at least 8 characters')

@@ -8,7 +8,7 @@ import { initialSoilState, type SoilState, soilSettlementMm, stepSoil } from './
  * The loading rig around the soil: a hand-pumped hydraulic jack, its oil-pressure transducer and
  * the displacement gauges on a reference beam. Operator actions are method calls; the physics is
  * stepped lazily up to the injected clock's time whenever something is read or done.
- * Parameter ranges are common practice (DOMAIN §D.1, §D.3, §G).
+ * Parameter ranges are common practice (reference §D.1, §D.3, §G).
  */
 
 /** The jack: force = p × A_ram × efficiency; seal friction makes rising and falling branches differ. */

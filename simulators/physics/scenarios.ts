@@ -3,7 +3,7 @@ import type { SoilModel } from './soil';
 
 /**
  * Named demo grounds for the rig simulator. Ranges for a 300 mm plate are common practice
- * (DOMAIN §G); the single values picked inside them are ours. Clay drainage lengths are chosen
+ * (reference §G); the single values picked inside them are ours. Clay drainage lengths are chosen
  * (calc) so that 90 % consolidation takes 12–48 h, so a clay hold really lasts about a day.
  */
 export interface SoilScenario extends SoilModel {

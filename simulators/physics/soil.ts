@@ -1,6 +1,6 @@
 /*
  * Soil under a loaded plate, as pure functions of (state, pressure, time step). Published models
- * that give believable shapes (DOMAIN §G); parameters live in ./scenarios. This is a demo and test
+ * that give believable shapes (reference §G); parameters live in ./scenarios. This is a demo and test
  * rig, not a design tool.
  *
  * Settlement = Σ relaxation modes + creep. Each mode k carries a share w_k of the equilibrium
@@ -45,7 +45,7 @@ export interface ClayTime {
 
 export type TimeModel = GranularTime | ClayTime;
 
-/** Creep per log cycle of time (DOMAIN §B.8), growing as q nears q_ult. */
+/** Creep per log cycle of time (reference §B.8), growing as q nears q_ult. */
 export interface Creep {
   /** Creep per log cycle at q = q_ult/2, mm; it scales with x/(1 − x), x = q/q_ult. */
   mmPerLogCycleAtHalf: number;

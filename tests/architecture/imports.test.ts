@@ -1,5 +1,5 @@
 /**
- * The dependency rules of PRODUCT.md "Architecture": shared/ is pure and imports no other layer;
+ * The dependency rules of the architecture (DEVELOPERS.md, Layout): shared/ is pure and imports no other layer;
  * devices/ knows nothing of runs or storage; no production code imports the simulator; the client
  * reaches the server only over HTTP; client features do not import each other.
  */

@@ -1,5 +1,5 @@
 /**
- * `npm run bench`: measures the speed figures P1–P6 of QUALITY.md against a private MariaDB and an
+ * `npm run bench`: measures the speed figures P1–P6 of tests/README.md against a private MariaDB and an
  * in-process server, prints one table (figure, target, same-run baseline, verdict) and writes
  * .artifacts/bench/results.json. Every scenario is bounded in time; one that fails is reported, not fatal.
  */
@@ -23,7 +23,7 @@ import { processLoad } from './stats';
 import { type Row, renderTable, verdict } from './table';
 
 const OUT_DIR = path.join(ROOT_DIR, '.artifacts', 'bench');
-/** Scenario sizes (QUALITY.md's load envelope). */
+/** Scenario sizes (the load envelope of tests/README.md). */
 const SIZE = {
   archiveRows: 300_000,
   replayDays: 7,

@@ -244,12 +244,12 @@ async function recordedRun(): Promise<number> {
             : s <= 379
               ? 24.3 + ((s - 200) / 179) * 1.85
               : 30;
-  // Oil pressure, bar, that gives 7, 100 and 200 kPa: (q·A − 0.60 kN)/5 kN/MPa × 10 bar/MPa (DOMAIN §C10: 100 kPa ↔ 39.30 bar).
+  // Oil pressure, bar, that gives 7, 100 and 200 kPa: (q·A − 0.60 kN)/5 kN/MPa × 10 bar/MPa (reference §C10: 100 kPa ↔ 39.30 bar).
   const oilBar = (s: number) => (s < 70 ? 1.635 : s < 385 ? 39.3 : 79.8);
   const rows: number[][] = [];
   let seq = 0;
   for (let s = 0; s <= 450; s++) {
-    const g1 = s < 200 ? settlement(s) : settlement(s) - 23.15; // the gauge was reset at 200 s (DOMAIN §C12)
+    const g1 = s < 200 ? settlement(s) : settlement(s) - 23.15; // the gauge was reset at 200 s (reference §C12)
     const g2 = 10 - Math.max(0, settlement(s) - 0.5);
     for (const [channel, value] of [g1, g2, oilBar(s)].entries())
       rows.push([runId, ++seq, T + s * 1000, channel, Math.round(value * 1000), Math.round(value * 1000), 0]);
@@ -286,7 +286,7 @@ describe('a recorded run', () => {
     // t = 0 when the target was reached; the reading there holds the values read just before.
     expect(first.readings[0].tMin).toBe(0);
     expect(first.readings[0].gauges.g1).toBeCloseTo(0.1 + 0.9 * 19.9, 3);
-    // DOMAIN §C10: 450 mm square plate, 39.30 bar on a 50 cm² ram + 0.60 kN apparatus = 100 kPa.
+    // reference §C10: 450 mm square plate, 39.30 bar on a 50 cm² ram + 0.60 kN apparatus = 100 kPa.
     for (const r of first.readings) expect(r.pressureKpa).toBeCloseTo(100, 2);
     // (1.635 bar → 0.1635 MPa × 5 + 0.6) / 0.2025 m² = 7 kPa; 79.8 bar → 200 kPa (same conversion).
     expect(seating.readings[0].pressureKpa).toBeCloseTo(7, 2);
@@ -296,7 +296,7 @@ describe('a recorded run', () => {
     const times = first.readings.map((r) => Math.round(r.tMin * 60));
     expect(times).toEqual([...Array.from({ length: 60 }, (_, i) => i * 5), 299]);
 
-    // DOMAIN §C12: reset read 24.30 before and 1.15 after → offset 23.15 mm; a later raw 3.00 mm → 26.15 mm.
+    // reference §C12: reset read 24.30 before and 1.15 after → offset 23.15 mm; a later raw 3.00 mm → 26.15 mm.
     const last = first.readings.at(-1)!;
     expect(last.gauges.g1).toBeCloseTo(26.15, 4);
     // g2 falls as the plate settles: settlement = −1 × (reading − 10.00), 0.5 mm less than g1.

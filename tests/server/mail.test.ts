@@ -1,7 +1,7 @@
 /**
  * Delivery and the client portal: a signed report e-mailed through nodemailer to the local SMTP catcher,
  * captured with its attachments and listed in the admin's mailbox; the finish notice to engineers; and
- * client scoping (QUALITY.md S2) of the report list, the PDF and the readings CSV.
+ * client scoping (target S2) of the report list, the PDF and the readings CSV.
  */
 import { readFileSync } from 'node:fs';
 import path from 'node:path';

@@ -1,5 +1,5 @@
 /**
- * QUALITY.md S1: every registered route × every role and signed-out, generated from the route
+ * target S1: every registered route × every role and signed-out, generated from the route
  * table itself, so a new route cannot skip the matrix.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';

@@ -1,5 +1,5 @@
 /**
- * Site and pit photos: content-checked uploads (QUALITY.md S6), thumbnails, who may change what, the
+ * Site and pit photos: content-checked uploads (target S6), thumbnails, who may change what, the
  * lock of a signed report, and the photos printed in the PDF. Images are made with sharp; what the
  * server stored is read back with sharp and file-type (independent readers of the files).
  */

@@ -12,7 +12,7 @@ afterAll(() => t.stop());
 const sessionCookie = (res: { headers: Record<string, unknown> }) =>
   ((res.headers['set-cookie'] as string[] | undefined) ?? []).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
 
-describe('sign-in and session (QUALITY.md S3, S4)', () => {
+describe('sign-in and session (target S3, S4)', () => {
   it('stores no session before sign-in, then sets an httpOnly SameSite cookie with our own name', async () => {
     const sessions = () => t.sequelize.models.Session.count();
     const stored = await sessions();
@@ -89,7 +89,7 @@ describe('sign-in and session (QUALITY.md S3, S4)', () => {
   });
 });
 
-describe('CSRF (QUALITY.md S5)', () => {
+describe('CSRF (target S5)', () => {
   it('refuses a state-changing request without the token or with a wrong one', async () => {
     const c = await signedIn(t.app, 'engineer');
     const none = await c.agent.post('/api/organizations').send({ name: 'Forged Ltd' });
@@ -108,7 +108,7 @@ describe('CSRF (QUALITY.md S5)', () => {
   });
 });
 
-describe('security headers (QUALITY.md S8)', () => {
+describe('security headers (target S8)', () => {
   it('sends helmet headers and a content security policy', async () => {
     const res = await new Client(t.app).get('/api/health');
     expect(res.headers['content-security-policy']).toMatch(/default-src 'self'/);

@@ -1,5 +1,5 @@
 /**
- * Review and sign-off (QUALITY.md S7): re-authentication at signing, a second person signing, one
+ * Review and sign-off (target S7): re-authentication at signing, a second person signing, one
  * signature per revision, the SHA-256 of the sealed snapshot recorded and verified for every signature,
  * live drift reported apart, the lock on a run in review or signed, a reopened revision with its reason,
  * and the audit trail.

@@ -14,7 +14,7 @@ afterAll(() => t.stop());
 // Smallest valid PNG: 1×1 transparent pixel (signature 89 50 4E 47 per the PNG specification).
 const PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAQAAAC1HAwCAAAAC0lEQVR42mNkYAAAAAYAAjCB0C8AAAAASUVORK5CYII=', 'base64');
 
-describe('site-plan upload (QUALITY.md S6)', () => {
+describe('site-plan upload (target S6)', () => {
   it('stores a real image under a generated name outside the web root and serves it back', async () => {
     const res = await engineer.agent.post('/api/locations/1/site-plan').set('x-csrf-token', engineer.token).attach('file', PNG, 'plan.png');
     expect(res.status).toBe(200);

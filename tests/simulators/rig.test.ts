@@ -36,7 +36,7 @@ describe('jack and pressure', () => {
     expect(state.platePressureKpa).toBeGreaterThan(199);
     // Force from the jack plus the apparatus weight equals the plate force (shared plate geometry).
     expect(state.forceKn + 0.5).toBeCloseTo(plateForceKn(rig.scenario.plate, state.platePressureKpa), 6);
-    // F = p × A × efficiency (DOMAIN §D.1): 80 mm ram, 0.98 on the rising branch.
+    // F = p × A × efficiency (reference §D.1): 80 mm ram, 0.98 on the rising branch.
     expect(state.forceKn).toBeCloseTo((state.oilMpa * 5027 * 0.98) / 1000, 6);
   });
 

@@ -100,7 +100,7 @@ describe('Terzaghi one-dimensional consolidation', () => {
     for (const clay of clays) {
       if (clay.time.kind !== 'clay') continue;
       const hours = consolidationTimeS(clay.time, 0.9) / HOUR;
-      // "drainage length chosen so that 90 % takes 12–48 h" (DOMAIN §G, calc).
+      // "drainage length chosen so that 90 % takes 12–48 h" (reference §G, calc).
       expect(hours).toBeGreaterThanOrEqual(12);
       expect(hours).toBeLessThanOrEqual(48);
     }
@@ -217,7 +217,7 @@ describe('scenarios', () => {
     expect(() => scenarioById('moon-dust')).toThrow(/"scenario".*dense-sand/);
   });
 
-  it('keeps q_ult within the common-practice ranges for a 300 mm plate (DOMAIN §G)', () => {
+  it('keeps q_ult within the common-practice ranges for a 300 mm plate (reference §G)', () => {
     const ranges: Record<string, [number, number]> = {
       'dense-sand': [800, 1200],
       'loose-sand': [250, 400],

@@ -77,7 +77,7 @@ describe('export → import round trip', () => {
     expect(one.PLTG_SMOD).toMatch(/^\d+\.\d$/);
     expect(two.PLTG_EV2).toBe(two.PLTG_SMOD);
     expect(one.PLTG_EV2).toBe('');
-    expect(one.PLTG_SEAT).toBe('0.7'); // 10 kPa × π·0.3²/4 m² = 0.707 kN (plate area, DOMAIN formula A = πD²/4)
+    expect(one.PLTG_SEAT).toBe('0.7'); // 10 kPa × π·0.3²/4 m² = 0.707 kN (plate area, reference §B.1 formula A = πD²/4)
   });
 
   it('gives a square plate the equivalent-area diameter and keeps its shape and side in DICT headings', () => {

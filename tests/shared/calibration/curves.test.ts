@@ -148,8 +148,8 @@ describe('fitPolynomial', () => {
     expect(fitPolynomial(certificate, 1).maxResidual).toBeCloseTo(Math.max(...residuals), 9);
   });
 
-  it('DOMAIN C8 first-loading fit: a0 = 0.002010, a1 = 4.985552, a2 = −2.474271', () => {
-    // DOMAIN.md C8 [calc], DIN 18134 constructed data, s (mm) against σ0 (MN/m²); 0.1 % for fitted values.
+  it('reference §C8 first-loading fit: a0 = 0.002010, a1 = 4.985552, a2 = −2.474271', () => {
+    // reference §C8 [calc], DIN 18134 constructed data, s (mm) against σ0 (MN/m²); 0.1 % for fitted values.
     const sigma = [0, 0.08, 0.16, 0.24, 0.32, 0.4, 0.5];
     const s = [0, 0.39, 0.73, 1.06, 1.35, 1.59, 1.88];
     const { coefficients } = fitPolynomial(
@@ -161,8 +161,8 @@ describe('fitPolynomial', () => {
     expect(Math.abs(coefficients[2] / -2.474271 - 1)).toBeLessThan(1e-3);
   });
 
-  it('DOMAIN C8 exact parabola s = 0.2 + 4σ − 2σ² is recovered exactly', () => {
-    // DOMAIN.md C8 [calc].
+  it('reference §C8 exact parabola s = 0.2 + 4σ − 2σ² is recovered exactly', () => {
+    // reference §C8 [calc].
     const points = [0, 0.1, 0.2, 0.3, 0.4, 0.5].map((x) => ({ x, y: 0.2 + 4 * x - 2 * x * x }));
     const fit = fitPolynomial(points, 2);
     expect(fit.coefficients).toEqual([0.2, 4, -2].map((c) => expect.closeTo(c, 10)));

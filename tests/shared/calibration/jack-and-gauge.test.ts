@@ -12,7 +12,7 @@ const rel = (expected: number, digits = 1e-3) => expect.closeTo(expected, -Math.
 
 describe('pressure units', () => {
   it('1 bar = 100 kPa, 1 MPa = 10 bar = 1000 kPa', () => {
-    // DOMAIN.md §0 conversions [calc]: 1 bar = 100 kPa.
+    // reference §0 conversions [calc]: 1 bar = 100 kPa.
     expect(convertPressure(1, 'bar', 'kPa')).toBe(100);
     expect(convertPressure(3.93, 'MPa', 'bar')).toBeCloseTo(39.3, 12);
     expect(convertPressure(15434, 'kPa', 'MPa')).toBeCloseTo(15.434, 12);
@@ -20,8 +20,8 @@ describe('pressure units', () => {
   });
 });
 
-describe('DOMAIN C10: hydraulic conversion', () => {
-  // DOMAIN.md C10 [calc]: 450 mm square plate (0.2025 m²) at 100 kPa → 20.250 kN; apparatus 0.60 kN →
+describe('reference §C10: hydraulic conversion', () => {
+  // reference §C10 [calc]: 450 mm square plate (0.2025 m²) at 100 kPa → 20.250 kN; apparatus 0.60 kN →
   // jack 19.650 kN; ram 50 cm² → 3.9300 MPa = 39.30 bar; calibration F = 0.35 + 4.92·p → 3.9228 MPa.
   const total = plateForceKn({ shape: 'square', sizeMm: 450 }, 100);
 
@@ -43,7 +43,7 @@ describe('DOMAIN C10: hydraulic conversion', () => {
   });
 
   it('DIN 300 mm plate at 0.5 MN/m² → 35.343 kN; ram 22.9 cm² → 15.434 MPa (154 bar)', () => {
-    // DOMAIN.md C10 [calc].
+    // reference §C10 [calc].
     const force = plateForceKn({ shape: 'circular', sizeMm: 300 }, 500);
     expect(force).toEqual(rel(35.343));
     expect(idealJackPressure(force, 22.9, 'MPa')).toEqual(rel(15.434));
@@ -60,7 +60,7 @@ describe('DOMAIN C10: hydraulic conversion', () => {
   });
 
   it('uses the falling branch for unloading targets', () => {
-    // Seal friction: unloading gives more force per bar than loading (DOMAIN §D.1 [CP]); invented table.
+    // Seal friction: unloading gives more force per bar than loading (reference §D.1 [CP]); invented table.
     const jack = calibrationSchema.parse({
       inputUnit: 'bar',
       outputUnit: 'kN',
@@ -73,9 +73,9 @@ describe('DOMAIN C10: hydraulic conversion', () => {
   });
 });
 
-describe('DOMAIN C12: gauge reset and direction', () => {
+describe('reference §C12: gauge reset and direction', () => {
   it('reading 24.30 → 1.15 at reset gives offset 23.15 mm; later 3.00 mm → 26.15 mm settlement', () => {
-    // DOMAIN.md C12 [calc/CP].
+    // reference §C12 [calc/CP].
     const sign = settlementSign('retracts');
     const offset = resetOffset(24.3, 1.15, sign);
     expect(offset).toBeCloseTo(23.15, 12);

@@ -21,7 +21,7 @@ const polar = (radiusMm: number, degrees: number, settlementMm: number) => ({
   settlementMm,
 });
 
-describe('load drift (±2 % or a fixed kPa, whichever is larger — common practice, DOMAIN §D.1)', () => {
+describe('load drift (±2 % or a fixed kPa, whichever is larger — common practice, reference §D.1)', () => {
   it('uses the fixed tolerance at low pressure and 2 % at high pressure', () => {
     expect(loadDriftAlarm({ targetKpa: 100, actualKpa: 98.1 }).active).toBe(false);
     const low = loadDriftAlarm({ targetKpa: 100, actualKpa: 97.9 });
@@ -37,7 +37,7 @@ describe('load drift (±2 % or a fixed kPa, whichever is larger — common pract
   });
 });
 
-describe('plate tilt (DOMAIN §C11 check values, calc; thresholds DOMAIN §D.3, common practice)', () => {
+describe('plate tilt (reference §C11 check values, calc; thresholds reference §D.3, common practice)', () => {
   it('two gauges 280 mm apart at 4.20 and 3.40 mm: mean 3.800 mm, tilt 0.002857 rad = 0.1637° ≈ 1:350', () => {
     const state = plateTiltState([polar(140, 0, 4.2), polar(140, 180, 3.4)]);
     expect(state.meanSettlementMm).toBeCloseTo(3.8, 9);
@@ -81,7 +81,7 @@ describe('plate tilt (DOMAIN §C11 check values, calc; thresholds DOMAIN §D.3, 
   });
 });
 
-describe('gauge travel (warn at 85 % — common practice, DOMAIN §D.3)', () => {
+describe('gauge travel (warn at 85 % — common practice, reference §D.3)', () => {
   it('counts used travel in the direction the gauge moves', () => {
     expect(gaugeTravelAlarm({ gauge: 'G1', readingMm: 20, travelMm: 25, sign: 1 })).toMatchObject({ active: false, subject: 'G1', value: 80, limit: 85 });
     expect(gaugeTravelAlarm({ gauge: 'G1', readingMm: 21.5, travelMm: 25, sign: 1 })).toMatchObject({ active: true, severity: 'warning', value: 86 });
@@ -103,7 +103,7 @@ describe('stop limit', () => {
   });
 });
 
-describe('reaction capacity (90 % — common practice, DOMAIN §D.2)', () => {
+describe('reaction capacity (90 % — common practice, reference §D.2)', () => {
   it('warns at 90 % and is critical at 100 %', () => {
     expect(reactionCapacityAlarm({ jackForceKn: 89.9, capacityKn: 100 }).active).toBe(false);
     expect(reactionCapacityAlarm({ jackForceKn: 90, capacityKn: 100 })).toMatchObject({ active: true, severity: 'warning' });

@@ -9,7 +9,7 @@ const settled = sampleSeries((t) => 4 + 0.5 * (1 - Math.exp(-t)), 120, 0.5);
 const granularDefault = findProfile('bearing-granular')!.defaults.holdRule;
 
 describe('fixed-duration rule', () => {
-  // DIN 18134 family: each stage held about 120 s (from memory, DOMAIN §A.3).
+  // DIN 18134 family: each stage held about 120 s (from memory, reference §A.3).
   const rule: HoldRule = { kind: 'fixed', durationMin: 2 };
   it('counts down to the set duration', () => {
     expect(evaluateHold(rule, upTo(settled, 1.5), { nowMin: 1.5, stopLimitMm: 5 })).toMatchObject({

@@ -4,20 +4,20 @@ import { intervalChanges } from '@shared/hold/rule-consecutive';
 import type { HoldRule } from '@shared/schemas/plans';
 import { ONE_HZ_MIN, sampleSeries, upTo } from './synthetic';
 
-// ASTM D1196 / AASHTO T 222 family: at most 0.03 mm per minute for 3 consecutive minutes (from memory, DOMAIN §A.3).
+// ASTM D1196 / AASHTO T 222 family: at most 0.03 mm per minute for 3 consecutive minutes (from memory, reference §A.3).
 const rule: HoldRule = { kind: 'consecutive', maxChangeMm: 0.03, intervalMin: 1, intervals: 3 };
 const context = (nowMin: number) => ({ nowMin, stopLimitMm: 12.7 });
 
-// DOMAIN §C13 [calc]: readings at t = 5…9 min.
+// reference §C13 [calc]: readings at t = 5…9 min.
 const C13 = [5, 6, 7, 8, 9].map((tMin, i) => ({ tMin, settlementMm: [2.41, 2.45, 2.475, 2.498, 2.52][i] }));
 
 describe('consecutive-interval rule', () => {
-  it('is first satisfied at t = 9 min on the C13 readings (DOMAIN §C13, calc)', () => {
+  it('is first satisfied at t = 9 min on the C13 readings (reference §C13, calc)', () => {
     const verdicts = C13.map((p) => evaluateHold(rule, upTo(C13, p.tMin), context(p.tMin)).verdict);
     expect(verdicts).toEqual(['settling', 'settling', 'settling', 'settling', 'satisfied']);
   });
 
-  it('reports the 1-min increments 0.040, 0.025, 0.023, 0.022 mm (DOMAIN §C13, calc)', () => {
+  it('reports the 1-min increments 0.040, 0.025, 0.023, 0.022 mm (reference §C13, calc)', () => {
     const result = evaluateHold(rule, C13, context(9));
     const ev = result.evidence.kind === 'consecutive' ? result.evidence : null;
     expect(ev?.intervalsPassed).toBe(3);

@@ -6,7 +6,7 @@ import type { HoldRule } from '@shared/schemas/plans';
 import { quantise, sampleSeries, seededRandom, upTo } from './synthetic';
 
 // IS 1888 family for clay: 75 % of the stage's probable ultimate settlement, at least 60 min, 24 h cap
-// (bearing-cohesive profile; from memory / common practice). Hyperbolic time fit per DOMAIN §B.8.
+// (bearing-cohesive profile; from memory / common practice). Hyperbolic time fit per reference §B.8.
 const rule: HoldRule = { kind: 'percentOfUltimate', percent: 75, minHoldMin: 60, maxHoldMin: 1440 };
 const context = (nowMin: number) => ({ nowMin, stopLimitMm: 25, procedureId: 'bearing-cohesive' });
 

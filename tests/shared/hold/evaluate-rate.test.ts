@@ -7,13 +7,13 @@ import { ONE_HZ_MIN, quantise, sampleSeries, seededRandom, upTo } from './synthe
 type RateRule = Extract<HoldRule, { kind: 'rate' }>;
 const context = (nowMin: number) => ({ nowMin, stopLimitMm: 25 });
 
-// DOMAIN §C13 [calc]: readings on the IS 1888 schedule (schedule seen-2nd).
+// reference §C13 [calc]: readings on the IS 1888 schedule (schedule seen-2nd).
 const IS_TIMES = [0, 1, 2.25, 4, 6.25, 9, 16, 25, 60];
 const IS_SERIES = IS_TIMES.map((tMin, i) => ({ tMin, settlementMm: [3.1, 3.62, 3.8, 3.93, 4.03, 4.11, 4.23, 4.31, 4.45][i] }));
 const firstSatisfied = (rule: HoldRule) => IS_TIMES.find((t) => evaluateHold(rule, upTo(IS_SERIES, t), context(t)).verdict === 'satisfied');
 
 describe('rate rule on the C13 readings', () => {
-  it('is first satisfied at 16 min when the window is the 9→16 interval (DOMAIN §C13, calc: 0.01714 mm/min < 0.02)', () => {
+  it('is first satisfied at 16 min when the window is the 9→16 interval (reference §C13, calc: 0.01714 mm/min < 0.02)', () => {
     const rule: RateRule = { kind: 'rate', maxRateMmPerMin: 0.02, windowMin: 7, minHoldMin: 0 };
     expect(firstSatisfied(rule)).toBe(16);
     const at16 = evaluateHold(rule, IS_SERIES, context(16));

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { findUnmarkedJumps, gaugeSettlement, resetOffset } from '@shared/hold/gauge-reset';
 
 describe('gauge reset keeps settlement continuous', () => {
-  it('reproduces DOMAIN §C12 (calc/CP): 24.30 before, 1.15 after → offset 23.15 mm; later raw 3.00 → 26.15 mm', () => {
+  it('reproduces reference §C12 (calc/CP): 24.30 before, 1.15 after → offset 23.15 mm; later raw 3.00 → 26.15 mm', () => {
     const offset = resetOffset(24.3, 1.15, 1);
     expect(offset).toBeCloseTo(23.15, 12);
     expect(gaugeSettlement(24.3, 0, 1)).toBeCloseTo(24.3, 12);
@@ -11,7 +11,7 @@ describe('gauge reset keeps settlement continuous', () => {
     expect(gaugeSettlement(3, 0, 1, [offset])).toBeCloseTo(26.15, 12);
   });
 
-  it('applies the gauge sign: s = sign × (reading − zero) + Σ offsets (DOMAIN §B.1, common practice)', () => {
+  it('applies the gauge sign: s = sign × (reading − zero) + Σ offsets (reference §B.1, common practice)', () => {
     expect(gaugeSettlement(20.5, 24.0, -1)).toBeCloseTo(3.5, 12);
     expect(gaugeSettlement(22.0, 24.0, -1, [resetOffset(0.6, 24.0, -1)])).toBeCloseTo(25.4, 12);
   });

@@ -7,12 +7,12 @@ const stage = (targetKpa: number) => ({ index: 3, branch: 'loading' as const, ta
 const answer = (pressure: number) => ({ pressure, refusal: null });
 /** An ideal jack: p = F / A_ram; kN / cm² → MPa is × 10. */
 const idealRam = (ramCm2: number) => (forceKn: number) => answer((forceKn / ramCm2) * 10);
-/** The calibration line F (kN) = 0.35 + 4.92·p (MPa) of DOMAIN §C10, as a certificate valid 0–70 MPa. */
+/** The calibration line F (kN) = 0.35 + 4.92·p (MPa) of reference §C10, as a certificate valid 0–70 MPa. */
 const line = (range: [number, number] = [0, 70]): Calibration => ({ inputUnit: 'MPa', outputUnit: 'kN', curve: { kind: 'linear', c0: 0.35, c1: 4.92 }, range });
 const calibrationLine = jackGaugeFor(line()).pressureFor;
 
 describe('nextStepPrompt', () => {
-  it('converts the C10 target into plate force, jack force and ram pressure (DOMAIN §C10, calc)', () => {
+  it('converts the C10 target into plate force, jack force and ram pressure (reference §C10, calc)', () => {
     // 450 mm square plate (0.2025 m²), 100 kPa → 20.250 kN; apparatus 0.60 kN → jack 19.650 kN; ram 50 cm² → 3.9300 MPa.
     const prompt = nextStepPrompt({
       stage: stage(100),
@@ -27,7 +27,7 @@ describe('nextStepPrompt', () => {
     expect(prompt.gaugePressure).toBeCloseTo(3.93, 9);
   });
 
-  it('goes through the jack calibration passed in: F = 0.35 + 4.92·p → p = 3.9228 MPa (DOMAIN §C10, calc)', () => {
+  it('goes through the jack calibration passed in: F = 0.35 + 4.92·p → p = 3.9228 MPa (reference §C10, calc)', () => {
     const prompt = nextStepPrompt({
       stage: stage(100),
       plate: { shape: 'square', sizeMm: 450 },
@@ -38,7 +38,7 @@ describe('nextStepPrompt', () => {
     expect(prompt.gaugePressure).toBeCloseTo(3.9228, 4);
   });
 
-  it('gives the DIN 300 mm plate at 0.5 MN/m²: 35.343 kN, 15.434 MPa on a 22.9 cm² ram (DOMAIN §C10, calc)', () => {
+  it('gives the DIN 300 mm plate at 0.5 MN/m²: 35.343 kN, 15.434 MPa on a 22.9 cm² ram (reference §C10, calc)', () => {
     const prompt = nextStepPrompt({ stage: stage(500), plate: { shape: 'circular', sizeMm: 300 }, gaugePressureFor: idealRam(22.9), gaugeUnit: 'MPa' });
     expect(prompt.plateForceKn).toBeCloseTo(35.343, 3);
     expect(prompt.gaugePressure).toBeCloseTo(15.434, 3);

@@ -4,14 +4,14 @@ import { describe, expect, it } from 'vitest';
 import { trailingRate } from '@shared/hold/rate';
 import { seededRandom, upTo } from './synthetic';
 
-// DOMAIN §C13 [calc]: mean settlement read on the IS 1888 schedule (schedule seen-2nd).
+// reference §C13 [calc]: mean settlement read on the IS 1888 schedule (schedule seen-2nd).
 const IS_TIMES = [0, 1, 2.25, 4, 6.25, 9, 16, 25, 60];
 const IS_SETTLEMENT = [3.1, 3.62, 3.8, 3.93, 4.03, 4.11, 4.23, 4.31, 4.45];
 const IS_SERIES = IS_TIMES.map((tMin, i) => ({ tMin, settlementMm: IS_SETTLEMENT[i] }));
 
 describe('trailingRate', () => {
-  it('reproduces the C13 interval rates when the window equals the interval (DOMAIN §C13, calc)', () => {
-    // DOMAIN §C13 [calc]: 0.5200, 0.1440, 0.07429, 0.04444, 0.02909, 0.01714 (9→16 min), 0.00889, 0.00400 mm/min
+  it('reproduces the C13 interval rates when the window equals the interval (reference §C13, calc)', () => {
+    // reference §C13 [calc]: 0.5200, 0.1440, 0.07429, 0.04444, 0.02909, 0.01714 (9→16 min), 0.00889, 0.00400 mm/min
     const expected = [0.52, 0.144, 0.07429, 0.04444, 0.02909, 0.01714, 0.00889, 0.004];
     const rates = IS_TIMES.slice(1).map((t, i) => trailingRate(upTo(IS_SERIES, t), { windowMin: t - IS_TIMES[i] }).slopeMmPerMin);
     for (const [i, r] of rates.entries()) expect(r).toBeCloseTo(expected[i], 5);

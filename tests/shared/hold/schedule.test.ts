@@ -4,16 +4,16 @@ import { lateReadings, nextReadingDue, readingTimes } from '@shared/hold/schedul
 import { findProfile } from '@shared/procedures/profiles';
 import type { ReadingSchedule } from '@shared/schemas/plans';
 
-// IS 1888 family: 1, 2.25, 4, 6.25, 9, 16, 25 min, then hourly (seen-2nd, DOMAIN §A.3).
+// IS 1888 family: 1, 2.25, 4, 6.25, 9, 16, 25 min, then hourly (seen-2nd, reference §A.3).
 const IS_SCHEDULE = findProfile('bearing-granular')!.defaults.readingSchedule;
 const EVERY_MINUTE: ReadingSchedule = { kind: 'interval', everyMin: 1 };
 
 describe('readingTimes', () => {
-  it('lists the IS 1888 times then every hour, starting with the reading at the target (DOMAIN §A.3, §C13)', () => {
+  it('lists the IS 1888 times then every hour, starting with the reading at the target (reference §A.3, §C13)', () => {
     expect(readingTimes(IS_SCHEDULE, 180)).toEqual([0, 1, 2.25, 4, 6.25, 9, 16, 25, 60, 120, 180]);
   });
 
-  it('makes √t run 1, 1.5, 2, 2.5, 3, 4, 5 over the listed times (DOMAIN §A.3, calc)', () => {
+  it('makes √t run 1, 1.5, 2, 2.5, 3, 4, 5 over the listed times (reference §A.3, calc)', () => {
     expect(readingTimes(IS_SCHEDULE, 25).slice(1).map(Math.sqrt)).toEqual([1, 1.5, 2, 2.5, 3, 4, 5]);
   });
 

@@ -21,8 +21,8 @@ describe('shearAllowable', () => {
 describe('settlementAllowable', () => {
   const plateCurve = curve([0, 100, 200, 300, 400], [0, 2, 5, 9, 14]);
 
-  it('reads the plate curve at the scaled permissible settlement (DOMAIN C1 inverse [calc])', () => {
-    // DOMAIN C1: 25 mm on a 2.0 m footing ⇔ 8.2656 mm on the 0.3 m plate; on this curve it lies between
+  it('reads the plate curve at the scaled permissible settlement (reference §C1 inverse [calc])', () => {
+    // reference §C1: 25 mm on a 2.0 m footing ⇔ 8.2656 mm on the 0.3 m plate; on this curve it lies between
     // (200, 5) and (300, 9): q = 200 + 100·(8.2656 − 5)/4 = 281.64 kPa [calc].
     const r = settlementAllowable({ curve: plateCurve, plateWidthM: 0.3, footingWidthM: 2.0, scaling: { kind: 'terzaghiPeckSand' }, permissibleSettlementMm: 25 });
     expectRel(r.plateSettlementMm, 8.2656);

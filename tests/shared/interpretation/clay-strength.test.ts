@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { undrainedShearStrength } from '@shared/interpretation/clay-strength';
 import { expectRel } from './tolerance';
 
-// Computed by hand from c_u = (p_u − γz)/N_c with the N_c and γz rules of EN 1997-2 Annex K.1 (DOMAIN §B.2 item 6 [seen]).
+// Computed by hand from c_u = (p_u − γz)/N_c with the N_c and γz rules of EN 1997-2 Annex K.1 (reference §B.2 item 6 [seen]).
 describe('undrained shear strength from a plate in clay', () => {
   it('surface: N_c = 6, no overburden ⇒ 600/6 = 100 kPa', () => {
     const r = undrainedShearStrength({ ultimatePressureKpa: 600, plateDiameterMm: 300, setting: 'surface' });

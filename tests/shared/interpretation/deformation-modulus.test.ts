@@ -11,7 +11,7 @@ import {
 import type { StagePoint } from '@shared/interpretation/reduction';
 import { curve, expectRel, FITTED } from './tolerance';
 
-// DOMAIN C8, constructed data, 300 mm plate [calc]; stresses in MN/m², given here in kPa.
+// reference §C8, constructed data, 300 mm plate [calc]; stresses in MN/m², given here in kPa.
 const FIRST_SIGMA = [0.0, 0.08, 0.16, 0.24, 0.32, 0.4, 0.5];
 const FIRST_S = [0.0, 0.39, 0.73, 1.06, 1.35, 1.59, 1.88];
 const SECOND_SIGMA = [0.0, 0.08, 0.16, 0.24, 0.32, 0.4];
@@ -23,7 +23,7 @@ const SECOND = curve(kpa(SECOND_SIGMA), SECOND_S);
 describe('Ev1, Ev2 (DIN 18134)', () => {
   const result = deformationModuli({ firstLoading: FIRST, secondLoading: SECOND, plateDiameterMm: 300 });
 
-  it('first loading fit and Ev1 = 60.025 MN/m² (DOMAIN C8 [calc])', () => {
+  it('first loading fit and Ev1 = 60.025 MN/m² (reference §C8 [calc])', () => {
     expectRel(result.ev1.a0, 0.00201, FITTED);
     expectRel(result.ev1.a1, 4.985552, FITTED);
     expectRel(result.ev1.a2, -2.474271, FITTED);
@@ -31,7 +31,7 @@ describe('Ev1, Ev2 (DIN 18134)', () => {
     expect(result.ev1.sigma0maxMnM2).toBe(0.5);
   });
 
-  it('second loading fit, Ev2 = 134.877 MN/m², Ev2/Ev1 = 2.2470 (DOMAIN C8 [calc])', () => {
+  it('second loading fit, Ev2 = 134.877 MN/m², Ev2/Ev1 = 2.2470 (reference §C8 [calc])', () => {
     expectRel(result.ev2?.a0, 1.450357, FITTED);
     expectRel(result.ev2?.a1, 2.184375, FITTED);
     expectRel(result.ev2?.a2, -1.032366, FITTED);
@@ -41,7 +41,7 @@ describe('Ev1, Ev2 (DIN 18134)', () => {
     expect(result.ev2?.sigma0maxMnM2).toBe(0.5);
   });
 
-  it('the secant from 0.3 to 0.7 σ0max on the fitted curve gives the same Ev1 (DOMAIN C8 [calc])', () => {
+  it('the secant from 0.3 to 0.7 σ0max on the fitted curve gives the same Ev1 (reference §C8 [calc])', () => {
     const { a0, a1, a2 } = result.ev1;
     const s = (sigma: number) => a0 + a1 * sigma + a2 * sigma * sigma;
     expectRel(dinSecantModulus(300, 0.2, s(0.35) - s(0.15)), result.ev1.evMnM2 as number, 1e-12);
@@ -68,7 +68,7 @@ describe('Ev1, Ev2 (DIN 18134)', () => {
     expectRel(own.ev1.evMnM2, 60.025, FITTED);
   });
 
-  it('exact parabola s = 0.2 + 4σ − 2σ² gives Ev = 225/(4 − 1) = 75.000 (DOMAIN C8 [calc])', () => {
+  it('exact parabola s = 0.2 + 4σ − 2σ² gives Ev = 225/(4 − 1) = 75.000 (reference §C8 [calc])', () => {
     const sigma = [0, 0.1, 0.2, 0.3, 0.4, 0.5];
     const branch = evFromBranch(
       curve(
@@ -112,7 +112,7 @@ describe('Ev1, Ev2 (DIN 18134)', () => {
 describe('acceptance against requirement sets', () => {
   const result = deformationModuli({ firstLoading: FIRST, secondLoading: SECOND });
 
-  it('Ev2/Ev1 = 2.247 fails "≤ 2.2", passes "≤ 2.3" and "≤ 2.5"; Ev2 passes "≥ 120" (DOMAIN C8 [calc])', () => {
+  it('Ev2/Ev1 = 2.247 fails "≤ 2.2", passes "≤ 2.3" and "≤ 2.5"; Ev2 passes "≥ 120" (reference §C8 [calc])', () => {
     const verdict = (maxRatio: number) => checkEvRequirement(result, { name: `≤ ${maxRatio}`, minEv2MnM2: 120, maxRatio });
     expect(verdict(2.2).passed).toBe(false);
     expect(verdict(2.2).checks).toEqual([
@@ -124,7 +124,7 @@ describe('acceptance against requirement sets', () => {
     expect(checkEvRequirement(result, { name: 'Ev2 ≥ 150', minEv2MnM2: 150 }).passed).toBe(false);
   });
 
-  it('a higher ratio is accepted when Ev1 ≥ 0.6 × required Ev2 (DOMAIN §B.6 [mem]; arithmetic [calc])', () => {
+  it('a higher ratio is accepted when Ev1 ≥ 0.6 × required Ev2 (reference §B.6 [mem]; arithmetic [calc])', () => {
     // Ev1 = 60.025 ≥ 0.6·45 = 27 ⇒ relaxed; but 60.025 < 0.6·120 = 72 ⇒ not relaxed.
     const relaxed = checkEvRequirement(result, { name: 'formation', minEv2MnM2: 45, maxRatio: 2.2, relaxWhenEv1AtLeastFractionOfRequiredEv2: 0.6 });
     expect(relaxed.passed).toBe(true);
@@ -140,7 +140,7 @@ describe('acceptance against requirement sets', () => {
 });
 
 describe('ks from a 762 mm plate', () => {
-  it('σ0(1.25 mm) = 0.07350 MN/m² ⇒ ks = 58.80 MN/m³ (DOMAIN C8 [calc])', () => {
+  it('σ0(1.25 mm) = 0.07350 MN/m² ⇒ ks = 58.80 MN/m³ (reference §C8 [calc])', () => {
     const ks = ksFromFirstLoading(curve(kpa([0, 0.02, 0.04, 0.06, 0.08, 0.1]), [0, 0.3, 0.62, 0.98, 1.38, 1.84]));
     expectRel(ks.pressureKpa, 73.5);
     expectRel(ks.kMnM3, 58.8);

@@ -3,7 +3,7 @@ import { meanSettlement, planeFitTilt, reduceStages, type StageReadings, stageSe
 import { expectRel } from './tolerance';
 
 describe('gauge averaging and tilt', () => {
-  it('two opposite gauges: mean and tilt (DOMAIN C11, computed from the formula [calc])', () => {
+  it('two opposite gauges: mean and tilt (reference §C11, computed from the formula [calc])', () => {
     expectRel(meanSettlement([4.2, 3.4]), 3.8);
     const tilt = tiltBetweenGauges(4.2, 3.4, 280);
     expectRel(tilt.radians, 0.002857);
@@ -11,7 +11,7 @@ describe('gauge averaging and tilt', () => {
     expectRel(tilt.oneIn, 350);
   });
 
-  it('three gauges at 120°: plane-fit centre, gradient and tilt (DOMAIN C11, computed from the formula [calc])', () => {
+  it('three gauges at 120°: plane-fit centre, gradient and tilt (reference §C11, computed from the formula [calc])', () => {
     const at = (deg: number, s: number) => ({ xMm: 140 * Math.cos((deg * Math.PI) / 180), yMm: 140 * Math.sin((deg * Math.PI) / 180), settlementMm: s });
     const plane = planeFitTilt([at(90, 3.9), at(210, 3.6), at(330, 3.3)]);
     expectRel(plane.centreMm, 3.6);

@@ -12,38 +12,38 @@ import {
 import { expectRel } from './tolerance';
 
 describe('settlement scaling on sand (Terzaghi & Peck)', () => {
-  // DOMAIN C1, computed from the formula of Terzaghi & Peck (1948, 1967) / IS 1888 usage [calc].
+  // reference §C1, computed from the formula of Terzaghi & Peck (1948, 1967) / IS 1888 usage [calc].
   const rows: [number, number, number, number, number][] = [
     [0.3, 10.0, 1.5, 2.777778, 27.7778],
     [0.6, 5.0, 2.0, 1.701323, 8.5066],
     [0.3, 12.0, 3.0, 3.305785, 39.6694],
     [0.75, 6.0, 2.5, 1.5625, 9.375],
   ];
-  it.each(rows)('B_p %s m, S_p %s mm, B_f %s m → ratio %s, S_f %s mm (DOMAIN C1 [calc])', (bp, sp, bf, ratio, sf) => {
+  it.each(rows)('B_p %s m, S_p %s mm, B_f %s m → ratio %s, S_f %s mm (reference §C1 [calc])', (bp, sp, bf, ratio, sf) => {
     expectRel(terzaghiPeckSandRatio(bp, bf), ratio);
     const scaled = footingSettlement(sp, bp, bf, { kind: 'terzaghiPeckSand' });
     expectRel(scaled.settlementMm, sf);
     expect(scaled.source).toMatch(/Terzaghi & Peck/);
   });
 
-  it('tends to 4.0 as the footing grows, for a 0.3 m plate (DOMAIN C1 [calc])', () => {
+  it('tends to 4.0 as the footing grows, for a 0.3 m plate (reference §C1 [calc])', () => {
     expectRel(terzaghiPeckSandRatio(0.3, 1e6), 4.0);
   });
 
-  it('inverse: permissible 25 mm on a 2.0 m footing is 8.2656 mm on a 0.3 m plate (DOMAIN C1 [calc])', () => {
+  it('inverse: permissible 25 mm on a 2.0 m footing is 8.2656 mm on a 0.3 m plate (reference §C1 [calc])', () => {
     const back = plateSettlementForFooting(25, 0.3, 2.0, { kind: 'terzaghiPeckSand' });
     expectRel(back.ratio, 3.024575);
     expectRel(back.settlementMm, 8.2656);
   });
 
-  it('Das form: 2.762410 for B_p = 0.305 m, identical to Terzaghi & Peck at 0.3 m (DOMAIN C1 [calc])', () => {
+  it('Das form: 2.762410 for B_p = 0.305 m, identical to Terzaghi & Peck at 0.3 m (reference §C1 [calc])', () => {
     expectRel(dasSandRatio(0.305, 1.5), 2.76241);
     expectRel(dasSandRatio(0.3, 1.5), terzaghiPeckSandRatio(0.3, 1.5), 1e-12);
   });
 });
 
 describe('settlement scaling on clay and after Bond', () => {
-  it('clay: S_f = S_p·B_f/B_p gives 50.0 mm (DOMAIN C2 [calc])', () => {
+  it('clay: S_f = S_p·B_f/B_p gives 50.0 mm (reference §C2 [calc])', () => {
     expectRel(footingSettlement(10, 0.3, 1.5, { kind: 'clayLinear' }).settlementMm, 50.0);
   });
 
@@ -63,8 +63,8 @@ describe('settlement scaling on clay and after Bond', () => {
 });
 
 describe('ultimate pressure scaling', () => {
-  it('sand ∝ width, clay unchanged (DOMAIN C2 and §B.3 [calc])', () => {
-    // Sand: q_u,f = 400·1.5/0.3 = 2000 kPa. Clay: q_u,f = q_u,p (DOMAIN C2).
+  it('sand ∝ width, clay unchanged (reference §C2 and §B.3 [calc])', () => {
+    // Sand: q_u,f = 400·1.5/0.3 = 2000 kPa. Clay: q_u,f = q_u,p (reference §C2).
     expectRel(footingUltimatePressure(400, 0.3, 1.5, 'cohesionless').qUltKpa, 2000);
     expect(footingUltimatePressure(400, 0.3, 1.5, 'cohesive').qUltKpa).toBe(400);
     expect(() => footingUltimatePressure(400, 0.3, 1.5, 'mixed')).toThrow(/soil: a c–φ soil has no single-plate scaling/);

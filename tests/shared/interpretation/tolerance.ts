@@ -1,6 +1,6 @@
 import { expect } from 'vitest';
 
-/** DOMAIN §C tolerances: 1e-3 relative for closed forms, 0.1 % for fitted values. */
+/** Reference §C tolerances: 1e-3 relative for closed forms, 0.1 % for fitted values. */
 export const CLOSED_FORM = 1e-3;
 export const FITTED = 1e-3;
 

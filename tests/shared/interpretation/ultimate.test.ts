@@ -10,13 +10,13 @@ import {
 } from '@shared/interpretation/ultimate';
 import { curve, expectNoNonFinite, expectRel, FITTED } from './tolerance';
 
-// DOMAIN C5, computed from the formula [calc]: s = 0.02q up to 300 kPa, then 6(q/300)⁴.
+// reference §C5, computed from the formula [calc]: s = 0.02q up to 300 kPa, then 6(q/300)⁴.
 const C5 = curve([50, 100, 150, 200, 250, 300, 350, 400, 450], [1.0, 2.0, 3.0, 4.0, 5.0, 6.0, 11.1157, 18.963, 30.375]);
-// DOMAIN C6, computed from the published formula of Kondner (1963)/Chin (1970) [calc]: q = s/(0.01 + 0.002s).
+// reference §C6, computed from the published formula of Kondner (1963)/Chin (1970) [calc]: q = s/(0.01 + 0.002s).
 const C6 = curve([83.333, 142.857, 222.222, 272.727, 307.692, 352.941, 380.952, 400.0, 413.793, 432.432], [1, 2, 4, 6, 8, 12, 16, 20, 24, 32]);
 
 describe('log–log two-line intersection', () => {
-  it('finds the SSE-minimising split and the intersection (DOMAIN C5, computed from the formula [calc])', () => {
+  it('finds the SSE-minimising split and the intersection (reference §C5, computed from the formula [calc])', () => {
     const r = logLogIntersection(C5);
     expect(r.details?.chosenBy).toBe('leastSquares');
     expect(r.details?.firstLineEnd).toBe(4); // q = 50…250 on line 1, 300…450 on line 2
@@ -28,7 +28,7 @@ describe('log–log two-line intersection', () => {
     expect(r.details?.candidates.length).toBe(6);
   });
 
-  it('uses the engineer-chosen split when given (DOMAIN C5: 300 kPa lies on both lines, so either split gives it)', () => {
+  it('uses the engineer-chosen split when given (reference §C5: 300 kPa lies on both lines, so either split gives it)', () => {
     const r = logLogIntersection(C5, { firstLineEnd: 5 });
     expect(r.details?.chosenBy).toBe('engineer');
     expect(r.details?.candidates).toEqual([]);
@@ -82,7 +82,7 @@ describe('tangent intersection', () => {
 });
 
 describe('hyperbolic (Chin–Kondner)', () => {
-  it('regression, asymptote and the 10 %-of-width criterion (DOMAIN C6, computed from the published formula of Kondner (1963)/Chin (1970) [calc])', () => {
+  it('regression, asymptote and the 10 %-of-width criterion (reference §C6, computed from the published formula of Kondner (1963)/Chin (1970) [calc])', () => {
     const r = hyperbolicUltimate(C6, 30);
     expectRel(r.details?.a, 0.01, FITTED);
     expectRel(r.details?.b, 0.002, FITTED);
@@ -104,7 +104,7 @@ describe('hyperbolic (Chin–Kondner)', () => {
 });
 
 describe('settlement criterion', () => {
-  it('reads q at 10 % of the plate width by linear interpolation (DOMAIN C6 [calc])', () => {
+  it('reads q at 10 % of the plate width by linear interpolation (reference §C6 [calc])', () => {
     const r = settlementCriterionUltimate(C6, 300);
     expectRel(r.qUltKpa, 427.773);
     expect(r.sUltMm).toBe(30);
@@ -112,7 +112,7 @@ describe('settlement criterion', () => {
   });
 
   it('interpolates on the C5 curve', () => {
-    // DOMAIN C5 data [calc]: 30 mm lies between (400, 18.963) and (450, 30.375):
+    // reference §C5 data [calc]: 30 mm lies between (400, 18.963) and (450, 30.375):
     // q = 400 + 50·(30 − 18.963)/(30.375 − 18.963) = 448.357 kPa.
     expectRel(settlementCriterionUltimate(C5, 300).qUltKpa, 448.357);
   });

@@ -11,7 +11,7 @@ function planFor(profileId: string, over: Partial<PlanInput> = {}): PlanInput {
 }
 
 describe('plate geometry', () => {
-  // DOMAIN §B.1 areas [calc]: Ø300 0.070686 m², Ø762 0.456037, □450 0.2025.
+  // reference §B.1 areas [calc]: Ø300 0.070686 m², Ø762 0.456037, □450 0.2025.
   it.each([
     ['circular', 300, 0.070686],
     ['circular', 762, 0.456037],
@@ -19,7 +19,7 @@ describe('plate geometry', () => {
   ] as const)('%s %d mm has area %f m²', (shape, sizeMm, area) => {
     expect(plateAreaM2({ shape, sizeMm })).toBeCloseTo(area, 6);
   });
-  // DOMAIN C10 [calc]: DIN 300 mm plate at 0.5 MN/m² → 35.343 kN; 750 mm circular to 600 kPa → 265.07 kN.
+  // reference §C10 [calc]: DIN 300 mm plate at 0.5 MN/m² → 35.343 kN; 750 mm circular to 600 kPa → 265.07 kN.
   it('gives the force of a pressure', () => {
     expect(plateForceKn({ shape: 'circular', sizeMm: 300 }, 500)).toBeCloseTo(35.343, 3);
     expect(plateForceKn({ shape: 'circular', sizeMm: 750 }, 600)).toBeCloseTo(265.07, 2);
@@ -28,7 +28,7 @@ describe('plate geometry', () => {
 
 describe('stage sequence', () => {
   it('follows the two-cycle modulus test: six stages to σ0max, three unloading stages, reload to the penultimate', () => {
-    // DOMAIN §A.3/§A.4, DIN 18134 family (from memory): 0.08…0.50 MN/m², unload 0.25/0.125/0, reload to 0.40.
+    // reference §A.3/§A.4, DIN 18134 family (from memory): 0.08…0.50 MN/m², unload 0.25/0.125/0, reload to 0.40.
     const stages = buildStageSequence(planFor('modulus-two-cycle'));
     expect(stages.map((s) => `${s.branch[0]}${s.targetKpa}`)).toEqual([
       's10', 'l80', 'l160', 'l240', 'l320', 'l400', 'l500', 'u250', 'u125', 'u0', 'r80', 'r160', 'r240', 'r320', 'r400',
@@ -58,7 +58,7 @@ describe('plan self-check', () => {
   });
 
   it('sizes the reaction with a 20 % margin (common practice)', () => {
-    // DOMAIN C10 [calc]: 750 mm circular plate to 600 kPa → 265.07 kN; +20 % → 318.1 kN.
+    // reference §C10 [calc]: 750 mm circular plate to 600 kPa → 265.07 kN; +20 % → 318.1 kN.
     const base = { plate: { shape: 'circular' as const, sizeMm: 750, thicknessMm: 25 }, loading: { mode: 'list' as const, pressuresKpa: [100, 200, 300, 400, 500, 600] } };
     const short = checkPlan(planFor('bearing-granular', { ...base, reaction: { kind: 'kentledge', capacityKn: 318, description: '' } }), findProfile('bearing-granular'));
     expect(short.map((c) => c.code)).toContain('reaction_capacity');
@@ -67,7 +67,7 @@ describe('plan self-check', () => {
   });
 
   it('wants the pit five plate widths wide for a bearing test', () => {
-    // IS 1888:1982 pit width ≥ 5 Bp (DOMAIN §A.2, seen in secondary texts). 450 mm plate → 2.25 m.
+    // IS 1888:1982 pit width ≥ 5 Bp (reference §A.2, seen in secondary texts). 450 mm plate → 2.25 m.
     const plan = planFor('bearing-granular');
     const codes = (w: number | null) => checkPlan(plan, findProfile(plan.procedureId), { pitWidthM: w, waterTableDepthM: null, testDepthM: 1 }).map((c) => c.code);
     expect(codes(2.2)).toContain('pit_width');

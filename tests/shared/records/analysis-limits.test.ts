@@ -44,7 +44,7 @@ describe('a straight load–settlement line never fails', () => {
     }
   });
 
-  it('an exact two-line curve is a significant break (DOMAIN C5, constructed from the formula [calc])', () => {
+  it('an exact two-line curve is a significant break (reference §C5, constructed from the formula [calc])', () => {
     const qs = [50, 100, 150, 200, 250, 300, 350, 400, 450];
     const ss = [1, 2, 3, 4, 5, 6, 11.1157, 18.963, 30.375];
     const r = logLogIntersection(qs.map((q, i) => ({ pressureKpa: q, settlementMm: ss[i] })));

@@ -199,8 +199,8 @@ describe('analyzeRecord on the two-cycle modulus test (300 mm circular plate)', 
   });
 });
 
-describe('analyzeRecord against DOMAIN §C check values, through a record', () => {
-  it('Ev1 = 60.025, Ev2 = 134.877 MN/m², ratio 2.2470 (DOMAIN C8, constructed from the DIN 18134 formula [calc])', () => {
+describe('analyzeRecord against the reference §C check values, through a record', () => {
+  it('Ev1 = 60.025, Ev2 = 134.877 MN/m², ratio 2.2470 (reference §C8, constructed from the DIN 18134 formula [calc])', () => {
     const record = curveRecord({ shape: 'circular', sizeMm: 300 }, [
       ['seating', 0, 0],
       ...[80, 160, 240, 320, 400, 500].map((q, i) => ['loading', q, [0.39, 0.73, 1.06, 1.35, 1.59, 1.88][i]] as [Branch, number, number]),
@@ -215,7 +215,7 @@ describe('analyzeRecord against DOMAIN §C check values, through a record', () =
     expectRel(moduli.ratio, 2.247, FITTED);
   });
 
-  it('k = 57.684 MN/m³ = 212.51 pci at 1.25 mm on a 762 mm plate (DOMAIN C7 [calc])', () => {
+  it('k = 57.684 MN/m³ = 212.51 pci at 1.25 mm on a 762 mm plate (reference §C7 [calc])', () => {
     const settlements = [0.32, 0.66, 1.02, 1.4, 1.82];
     const record = curveRecord({ shape: 'circular', sizeMm: 762 }, [
       ['seating', 0, 0],
@@ -226,7 +226,7 @@ describe('analyzeRecord against DOMAIN §C check values, through a record', () =
     expectRel(k.kPci, 212.51);
   });
 
-  it('log–log intersection at q = 300 kPa, s = 6 mm (DOMAIN C5 [calc])', () => {
+  it('log–log intersection at q = 300 kPa, s = 6 mm (reference §C5 [calc])', () => {
     const qs = [50, 100, 150, 200, 250, 300, 350, 400, 450];
     const ss = [1, 2, 3, 4, 5, 6, 11.1157, 18.963, 30.375];
     const record = curveRecord(
@@ -238,7 +238,7 @@ describe('analyzeRecord against DOMAIN §C check values, through a record', () =
     expectRel(logLog?.sUltMm, 6, FITTED);
   });
 
-  it('hyperbolic q_ult = 500 kPa; 10 % of a 300 mm plate: 428.571 kPa on the hyperbola, 427.773 kPa by interpolation (DOMAIN C6 [calc])', () => {
+  it('hyperbolic q_ult = 500 kPa; 10 % of a 300 mm plate: 428.571 kPa on the hyperbola, 427.773 kPa by interpolation (reference §C6 [calc])', () => {
     const ss = [1, 2, 4, 6, 8, 12, 16, 20, 24, 32];
     const qs = [83.333, 142.857, 222.222, 272.727, 307.692, 352.941, 380.952, 400, 413.793, 432.432];
     const record = curveRecord(

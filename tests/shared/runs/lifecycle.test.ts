@@ -84,7 +84,7 @@ describe('run lifecycle', () => {
     expect(run(r.state, { type: 'start' }, c).phase).toBe('pumping');
   });
 
-  it('keeps settlement continuous across a gauge reset (DOMAIN C12 [calc/CP])', () => {
+  it('keeps settlement continuous across a gauge reset (reference §C12 [calc/CP])', () => {
     let s = run(run(initialRunState(), { type: 'zero' }), { type: 'start' });
     s = applyObservation(s, { type: 'target-reached' }, 5)!.state;
     s = run(s, { type: 'gauge-reset', channel: 'g1', beforeMm: 24.3, afterMm: 1.15 });
