@@ -12,6 +12,9 @@ function renderForm(props: Partial<Parameters<typeof DeviceProfileForm>[0]> = {}
   return { onSaved, ...renderWithProviders(<DeviceProfileForm onSaved={onSaved} {...props} />) };
 }
 
+/** Tests that type into many boxes: slow on a loaded machine. */
+const TYPING_MS = 30_000;
+
 async function retype(user: ReturnType<typeof renderForm>['user'], label: string, text: string) {
   const box = screen.getByLabelText(label);
   await user.clear(box);
@@ -54,7 +57,7 @@ describe('device profile form', () => {
       pollIntervalMs: 250,
       timeoutMs: 500,
     });
-  });
+  }, TYPING_MS);
 
   it('names the boxes the shared schema refuses and sends nothing', async () => {
     const fetchMock = stubFetch({});
@@ -68,7 +71,7 @@ describe('device profile form', () => {
     expect(describedText(screen.getByLabelText('Slave id'))).toContain('at most 247');
     expect(describedText(screen.getByLabelText('Register'))).toContain('required');
     expect(fetchMock).not.toHaveBeenCalled();
-  });
+  }, TYPING_MS);
 
   it("puts the server's refusal beside the box it names", async () => {
     stubFetch({
@@ -117,7 +120,7 @@ describe('trying a profile on a port', () => {
     const sent = requests(fetchMock).find((r) => r.key === 'POST /api/device-profiles/preview')?.body as { profile: { id: string; register: number; wordOrder: string }; port: string };
     expect(sent).toMatchObject({ port: '/dev/ttyUSB3', profile: { id: 'preview', register: 10, wordOrder: 'high-first' } });
     expect(onSaved).not.toHaveBeenCalled(); // trying saves nothing
-  });
+  }, TYPING_MS);
 
   it('says so when the port never opened', async () => {
     stubFetch({
