@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { findProfile } from '../../shared/procedures/profiles';
 import type { RunView } from '../../shared/schemas/runs';
 import { type Client, type TestApp, signedIn, startTestApp } from '../support/api';
+import { instrumentIdBySerial, sendRunCommand } from '../support/run-commands';
 
 let t: TestApp;
 let engineer: Client;
@@ -14,12 +15,8 @@ beforeAll(async () => {
 });
 afterAll(() => t.stop());
 
-const serial = async (s: string) => (await engineer.get('/api/instruments')).body.items.find((i: { serialNumber: string }) => i.serialNumber === s).id;
-
-async function send(runId: number, cmd: object) {
-  const v = (await operator.get(`/api/runs/${runId}`)).body as RunView;
-  return operator.post(`/api/runs/${runId}/commands`, { version: v.version, command: cmd });
-}
+const serial = (s: string) => instrumentIdBySerial(engineer, s);
+const send = (runId: number, cmd: object) => sendRunCommand(operator, runId, cmd);
 
 /** A typed-in run of a plan with this seating hold, taken to the end of the seating pump. */
 async function seatedRun(name: string, seatingHoldMin: number | undefined): Promise<number> {
