@@ -6,7 +6,7 @@ import { type AppParts, createApp } from './app';
 import type { ServerConfig } from './config';
 import { migrate } from './db/migrator';
 import { initModels } from './db/models';
-import { startMailFake } from './ops/mail-fake';
+import { mailTarget } from './ops/mail-fake';
 import { configureMailer } from './services/mail';
 import { createSequelize } from './db/sequelize';
 import { runRoom, socketEvents } from './realtime/events';
@@ -29,9 +29,9 @@ export async function startServer(config: ServerConfig): Promise<RunningServer> 
   const sequelize = createSequelize(config.db);
   initModels(sequelize);
   await migrate(sequelize);
-  // The local mail catcher: outgoing mail lands in the app's mailbox (SSCOPE_SMTP_PORT, default any free port).
-  const mail = await startMailFake(Number(process.env.SSCOPE_SMTP_PORT ?? 0));
-  const releaseMailer = configureMailer({ host: mail.host, port: mail.port });
+  // Mail goes to the configured SMTP server; without one, to the local catcher (the app's mailbox).
+  const { smtp, catcher } = await mailTarget(config.mail);
+  const releaseMailer = configureMailer({ ...smtp, from: config.mail.from });
   let sockets: ReturnType<typeof createSocketServer> | null = null;
   const runs = new RunManager({
     sequelize,
@@ -63,7 +63,7 @@ export async function startServer(config: ServerConfig): Promise<RunningServer> 
       await runs.stopAll();
       await sockets?.close();
       releaseMailer();
-      await mail.close();
+      await catcher?.close();
       parts.close();
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));

@@ -1,6 +1,7 @@
 import { recordToReadingsCsv } from '../../shared/records/csv';
 import { idParams } from '../../shared/schemas/common';
 import { EVERYONE } from '../auth/permissions';
+import { notFound } from '../http/errors';
 import { route } from '../http/route';
 import { listReports, reportRunFor } from '../services/report-access';
 import { loadReportData } from '../services/report-data';
@@ -49,4 +50,10 @@ export const reportRoutes = (dataDir: string) => [
     type: 'text/csv',
     body: recordToReadingsCsv((await sealedReport(id))?.record ?? (await loadRunRecord(id))),
   })),
+  // What a signature's hash covers, for anyone to check: SHA-256 of this file's RFC 8785 canonical form.
+  reportFileRoute('/api/reports/:id/signed-data.json', 'The signed data of a signed run as sealed (its SHA-256 is the signature’s hash; clients: their organisation’s only)', async (id) => {
+    const sealed = await sealedReport(id);
+    if (!sealed) throw notFound(`A signed report of run ${id}`);
+    return { name: `run-${id}-signed-data-rev${sealed.revision}.json`, type: 'application/json', body: sealed.snapshot };
+  }),
 ];

@@ -1,22 +1,17 @@
 import { createHash } from 'node:crypto';
+import canonicalize from 'canonicalize';
 
 /**
- * JSON with every object's keys in sorted order (code-unit order) and no whitespace, so that equal data
- * always gives the same text. Values JSON drops (undefined, functions) are dropped here too; non-finite
- * numbers become null as in JSON.stringify.
+ * RFC 8785 (JSON Canonicalization Scheme) text of a value, by the `canonicalize` package: object keys
+ * sorted by UTF-16 code units at every depth, no whitespace, numbers and strings as ECMAScript's
+ * JSON.stringify writes them. The value is taken through JSON first (toJSON, undefined members dropped,
+ * non-finite numbers null), so the text hashed is that of the JSON an export carries: anyone who
+ * canonicalises the exported file gets the same bytes. Byte for byte what signatures made before the
+ * package were hashed over (tests/server/canonical-json.test.ts).
  */
 export function canonicalJson(value: unknown): string {
-  if (value === null || typeof value !== 'object') return JSON.stringify(value) ?? 'null';
-  if (Array.isArray(value)) return `[${value.map((v) => (v === undefined || typeof v === 'function' ? 'null' : canonicalJson(v))).join(',')}]`;
-  if (typeof (value as { toJSON?: unknown }).toJSON === 'function') return canonicalJson((value as { toJSON(): unknown }).toJSON());
-  const entries = Object.keys(value)
-    .sort()
-    .filter((k) => {
-      const v = (value as Record<string, unknown>)[k];
-      return v !== undefined && typeof v !== 'function';
-    })
-    .map((k) => `${JSON.stringify(k)}:${canonicalJson((value as Record<string, unknown>)[k])}`);
-  return `{${entries.join(',')}}`;
+  const json = JSON.stringify(value);
+  return json === undefined ? 'null' : (canonicalize(JSON.parse(json)) ?? 'null');
 }
 
 /** Lower-case hex SHA-256 of a value's canonical JSON (UTF-8). */

@@ -3,8 +3,10 @@
  * when a run finishes or is submitted for review. The SMTP server is set once at start-up ({@link configureMailer}).
  */
 import nodemailer, { type Transporter } from 'nodemailer';
+import type SMTPTransport from 'nodemailer/lib/smtp-transport';
 import { Op } from 'sequelize';
 import { recordToReadingsCsv } from '../../shared/records/csv';
+import type { SmtpServer } from '../config';
 import { HttpError } from '../http/errors';
 import { Run } from '../models/run';
 import { User } from '../models/user';
@@ -15,27 +17,41 @@ import { renderReportPdf } from './report-pdf';
 import { loadRunRecord } from './run-record';
 import { sealedReport } from './signoff';
 
-/** Where mail goes. */
-export interface MailerOptions {
-  host: string;
-  /** SMTP port. */
-  port: number;
-  /** Sender address. Default reports@settlescope.local. */
-  from?: string;
+/** Where mail goes: the SMTP server and the sender (from `ServerConfig.mail`). */
+export interface MailerOptions extends SmtpServer {
+  /** Sender address. */
+  from: string;
 }
 
 let transport: Transporter | null = null;
 let sender = 'reports@settlescope.local';
 
+/** nodemailer's connection options for a server: implicit TLS, STARTTLS required (never plain after a failed upgrade), or plain. */
+export function transportOptions(server: SmtpServer): SMTPTransport.Options {
+  return {
+    host: server.host,
+    port: server.port,
+    secure: server.security === 'tls',
+    requireTLS: server.security === 'starttls',
+    ignoreTLS: server.security === 'none',
+    ...(server.auth ? { auth: { user: server.auth.user, pass: server.auth.password } } : {}),
+    ...(server.ca ? { tls: { ca: server.ca } } : {}),
+    // Fail a send in seconds, not the library's minutes, so the person sending hears why.
+    connectionTimeout: 15_000,
+    greetingTimeout: 15_000,
+    socketTimeout: 60_000,
+  };
+}
+
 /**
- * Points outgoing mail at an SMTP server (plain SMTP, no TLS: the local catcher). Returns a release that
- * turns mail off again unless someone configured another server since (tests run several servers in turn).
+ * Points outgoing mail at an SMTP server. Returns a release that turns mail off again unless someone
+ * configured another server since (tests run several servers in turn).
  */
 export function configureMailer(options: MailerOptions): () => void {
   transport?.close();
-  const mine = nodemailer.createTransport({ host: options.host, port: options.port, secure: false, ignoreTLS: true });
+  const mine = nodemailer.createTransport(transportOptions(options));
   transport = mine;
-  sender = options.from ?? 'reports@settlescope.local';
+  sender = options.from;
   return () => {
     mine.close();
     if (transport === mine) transport = null;
@@ -43,6 +59,24 @@ export function configureMailer(options: MailerOptions): () => void {
 }
 
 const mailUnavailable = () => new HttpError(503, 'mail_unavailable', 'No mail server is configured on this server.');
+
+/**
+ * 502 with the mail server's reason (wrong credentials, untrusted certificate, unreachable…) for the
+ * person who sent, instead of an internal error; the server's own words are kept, the password never is.
+ */
+function mailRefused(err: Error & { code?: string }): HttpError {
+  const why: Record<string, string> = {
+    EAUTH: 'the mail server refused the sign-in (check SSCOPE_SMTP_USER and SSCOPE_SMTP_PASSWORD)',
+    ETLS: 'the secure connection to the mail server failed (check SSCOPE_SMTP_SECURITY and SSCOPE_SMTP_CA_FILE)',
+    ECONNECTION: 'the mail server could not be reached or closed the connection (check SSCOPE_SMTP_HOST, SSCOPE_SMTP_PORT and SSCOPE_SMTP_SECURITY)',
+    ESOCKET: 'the connection to the mail server failed (check SSCOPE_SMTP_HOST, SSCOPE_SMTP_PORT, SSCOPE_SMTP_SECURITY and SSCOPE_SMTP_CA_FILE)',
+    ETIMEDOUT: 'the mail server did not answer in time',
+    EENVELOPE: 'the mail server refused a sender or recipient address',
+    EMESSAGE: 'the mail server refused the message',
+  };
+  const reason = why[err.code ?? ''] ?? 'the mail server did not take the message';
+  return new HttpError(502, 'mail_failed', `Not sent: ${reason}. The server said: ${err.message}`);
+}
 
 export interface OutgoingMail {
   to: string[];
@@ -53,7 +87,9 @@ export interface OutgoingMail {
 
 export async function sendMail(mail: OutgoingMail): Promise<{ messageId: string; accepted: string[] }> {
   if (!transport) throw mailUnavailable();
-  const info = await transport.sendMail({ from: sender, ...mail });
+  const info = await transport.sendMail({ from: sender, ...mail }).catch((err: Error & { code?: string }) => {
+    throw mailRefused(err);
+  });
   return { messageId: info.messageId, accepted: (info.accepted ?? []).map(String) };
 }
 

@@ -216,14 +216,17 @@ export async function signRun(user: User, runId: number, input: SignInput, setti
   return signoffView(runId);
 }
 
-/** The sealed report of the run's current revision when it is signed: its PDF and its record as signed; else null. */
-export async function sealedReport(runId: number): Promise<{ revision: number; pdf: Buffer; record: SealedContent['record'] } | null> {
+/**
+ * The sealed report of the run's current revision when it is signed: its PDF, its record as signed and the
+ * snapshot text itself (what the signature's hash is the SHA-256 of); else null.
+ */
+export async function sealedReport(runId: number): Promise<{ revision: number; pdf: Buffer; record: SealedContent['record']; snapshot: string } | null> {
   const s = await Signoff.findByPk(runId);
   if (s?.state !== 'signed') return null;
   const sig = await Signature.findOne({ where: { runId, revision: s.revision }, order: [['id', 'DESC']] });
   const sealed = sig && (await SignedReport.findByPk(sig.id));
   if (!sealed) return null;
-  return { revision: s.revision, pdf: sealed.pdf, record: (JSON.parse(sealed.snapshot) as SealedContent).record };
+  return { revision: s.revision, pdf: sealed.pdf, record: (JSON.parse(sealed.snapshot) as SealedContent).record, snapshot: sealed.snapshot };
 }
 
 /**

@@ -9,7 +9,6 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { RunningServer } from '../../server/main';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
 import { notifyRunFinished } from '../../server/services/mail';
-import { decodeQuotedPrintable, decodeWords, summarizeMime } from '../../server/services/mime-summary';
 import { demoEmail } from '../support/api';
 import { httpSignIn, startLiveServer } from '../support/live-server';
 
@@ -75,38 +74,6 @@ beforeAll(async () => {
   ownContacts = orgs.find((o) => o.name === 'Harrowgate Freight Ltd')!.contactEmails;
 }, 180_000);
 afterAll(() => server?.close());
-
-describe('MIME summary', () => {
-  it('decodes RFC 2047 encoded words and quoted-printable (RFC 2045 examples)', () => {
-    // RFC 2047 §8 examples (with UTF-8 for ISO-8859-1): "=?ISO-8859-1?Q?Andr=E9?= Pirard" is "André Pirard";
-    // "(=?ISO-8859-1?Q?a?= =?ISO-8859-1?Q?b?=)" is "(ab)": space between encoded words is dropped.
-    expect(decodeWords('=?UTF-8?Q?Andr=C3=A9?= Pirard')).toBe('André Pirard');
-    expect(decodeWords('(=?UTF-8?Q?a?= =?UTF-8?Q?b?=)')).toBe('(ab)');
-    expect(decodeWords('(=?UTF-8?Q?a_b?=)')).toBe('(a b)');
-    expect(decodeWords('=?UTF-8?B?U2V0dGxlbWVudA==?=')).toBe('Settlement');
-    expect(decodeQuotedPrintable('caf=C3=A9 =\r\nline')).toBe('café line');
-  });
-  it('lists attachments with their decoded sizes', () => {
-    const raw = [
-      'Subject: Test',
-      'Content-Type: multipart/mixed; boundary="b1"',
-      '',
-      '--b1',
-      'Content-Type: text/plain; charset=utf-8',
-      '',
-      'Hello',
-      '--b1',
-      'Content-Type: application/pdf; name=a.pdf',
-      'Content-Transfer-Encoding: base64',
-      'Content-Disposition: attachment; filename=a.pdf',
-      '',
-      Buffer.from('0123456789').toString('base64'),
-      '--b1--',
-      '',
-    ].join('\r\n');
-    expect(summarizeMime(raw)).toEqual({ subject: 'Test', text: 'Hello', attachments: [{ fileName: 'a.pdf', contentType: 'application/pdf', sizeBytes: 10 }] });
-  });
-});
 
 describe('sending a report', () => {
   it('refuses an unsigned run (409) and callers other than engineers and admins (403)', async () => {

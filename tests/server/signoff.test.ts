@@ -5,6 +5,7 @@
  * and the audit trail.
  */
 import { createHash } from 'node:crypto';
+import canonicalize from 'canonicalize';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -15,8 +16,11 @@ import { SignedReport } from '../../server/models/signoff';
 import { TestLocation } from '../../server/models/test-location';
 import { TestPlan } from '../../server/models/test-plan';
 import { canonicalJson } from '../../server/services/canonical-json';
+import { loadReportData, sealedContent } from '../../server/services/report-data';
+import { loadRunRecord } from '../../server/services/run-record';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
 import { type Client, signedIn, startTestApp, type TestApp } from '../support/api';
+import { earlierCanonicalJson } from './canonical-json-earlier';
 
 const sandJson = readFileSync(path.join(import.meta.dirname, '../fixtures/records/sand-bearing-450-square.json'), 'utf8');
 
@@ -93,6 +97,12 @@ describe('sign-off of a run', () => {
     expect(sig.dataHash).toBe(createHash('sha256').update(sealed.snapshot).digest('hex'));
     const snapshot = JSON.parse(sealed.snapshot);
     expect(canonicalJson(snapshot)).toBe(sealed.snapshot);
+    // The RFC 8785 package writes byte for byte what signatures before it were hashed over, for today's data as for the sealed text.
+    const live = sealedContent(await loadReportData(runId, t.config.dataDir), 1);
+    expect(canonicalJson(live)).toBe(earlierCanonicalJson(live));
+    expect(earlierCanonicalJson(snapshot)).toBe(sealed.snapshot);
+    const record = await loadRunRecord(runId);
+    expect(canonicalJson(record)).toBe(earlierCanonicalJson(record));
     expect(snapshot.record).toEqual((await engineer.get(`/api/runs/${runId}/record`)).body);
     const v1 = (await Interpretation.findOne({ where: { runId, version: 1 } }))!;
     expect(snapshot.interpretation).toMatchObject({ version: 1, options: v1.options, chosenMethod: v1.chosenMethod, reason: v1.reason });
@@ -111,6 +121,30 @@ describe('sign-off of a run', () => {
     expect(res.status).toBe(409);
     expect(res.body.error.code).toBe('run_signed');
     expect(await Interpretation.count({ where: { runId } })).toBe(1);
+  });
+
+  it('lets anyone re-compute the signature’s hash from the signed-data export: RFC 8785 canonical form, SHA-256', async () => {
+    // The recipe in DEVELOPERS.md ("Checking a signature's hash"), with nothing of the server's own code.
+    const res = await engineer.get(`/api/reports/${runId}/signed-data.json`);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/^application\/json/);
+    expect(res.headers['content-disposition']).toContain(`run-${runId}-signed-data-rev1.json`);
+    const exported = res.text;
+    const recompute = (text: string) => createHash('sha256').update(canonicalize(JSON.parse(text)) as string, 'utf8').digest('hex');
+    const [sig] = (await engineer.get(`/api/runs/${runId}/signoff`)).body.signatures;
+    expect(recompute(exported)).toBe(sig.dataHash);
+    // Re-formatted on the way (indented, keys in another order), it still gives the signed hash…
+    const reordered = JSON.stringify(Object.fromEntries(Object.entries(JSON.parse(exported)).reverse()), null, 2);
+    expect(reordered).not.toBe(exported);
+    expect(recompute(reordered)).toBe(sig.dataHash);
+    // …and one changed figure does not.
+    expect(recompute(exported.replace(/"revision":1/, '"revision":2'))).not.toBe(sig.dataHash);
+  });
+
+  it('has no signed-data export for a run not signed (404)', async () => {
+    const res = await engineer.post('/api/imports', { locationId: 1, format: 'json', content: sandJson });
+    expect(res.status).toBe(201);
+    expect((await engineer.get(`/api/reports/${res.body.runId}/signed-data.json`)).status).toBe(404);
   });
 
   it('refuses a second signature on a signed revision; reports drift of live data apart from the sealed snapshot', async () => {
