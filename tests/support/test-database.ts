@@ -21,6 +21,8 @@ function configFor(name: string, overrides: Partial<ServerConfig>): ServerConfig
     dataDir: `${baseDir}/files-${name}`,
     sessionSecret: 'test-secret',
     db: { host: '127.0.0.1', port, database: name, user: 'sscope_test', password: 'sscope-test' },
+    // Always the local catcher, whatever SSCOPE_SMTP_* the shell has: tests never send real mail.
+    mail: { smtp: null, catcherPort: 0, from: 'reports@settlescope.local' },
     ...overrides,
   });
 }
