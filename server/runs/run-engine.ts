@@ -12,10 +12,11 @@ import { type AlarmAction, reduceAlarm } from '../../shared/hold/alarm-lifecycle
 import { type Alarm, gaugeTravelAlarm, loadDriftAlarm, reactionCapacityAlarm, readingsUnsecuredAlarm, signalLostAlarm, stopLimitAlarm, stopLimitMm, tiltAlarm } from '../../shared/hold/alarms';
 import { evaluateHold } from '../../shared/hold/evaluate';
 import { emptyInstrumentWatch, gaugeResolutionMm, gaugeTravelMm, instrumentAlarms, type Kit, rigResolutionMm, watchReading, watchReset } from '../../shared/hold/instrument-alarms';
-import { nextStepPrompt } from '../../shared/hold/next-step';
+import { nextStepPrompt, promptBlocksLoading } from '../../shared/hold/next-step';
 import { lateReadings, nextReadingDue } from '../../shared/hold/schedule';
 import type { HoldEvaluation } from '../../shared/hold/verdict';
 import { type PlannedStage, seatingHoldMin } from '../../shared/plans/stages';
+import { stagesAfterEvents, unloadingRuleOf } from '../../shared/plans/unloading';
 import { reconcileAlarms } from '../../shared/runs/alarm-board';
 import { type Actor, type RunEventDraft, type RunState, applyCommand, applyObservation, needsCurrentVersion } from '../../shared/runs/lifecycle';
 import { HoldSeriesTracker } from '../../shared/runs/hold-series';
@@ -84,6 +85,8 @@ const EVALUATE_MS = 500;
 /** The target counts as reached within max(2 %, 2 kPa) (common practice, as the load-drift rule). */
 const reached = (actual: number, target: number) => Math.abs(actual - target) <= Math.max(0.02 * target, 2);
 const NO_KIT: Kit = new Map();
+/** The settlement stop limit ends the loading: it has no say once the plate is being unloaded or reloaded. */
+const stopLimitApplies = (stage: PlannedStage) => stage.branch === 'seating' || stage.branch === 'loading';
 
 export class RunEngine {
   private persisted: PersistedRun;
@@ -123,6 +126,8 @@ export class RunEngine {
    * every sample up to it, and a restart after a crash does not skip seqs that were never secured.
    */
   private securedSeq: number;
+  /** The stages the run follows: the plan's, with the tail that going to unloading replaced. */
+  private stages: PlannedStage[];
 
   constructor(
     private readonly setup: EngineSetup,
@@ -131,6 +136,7 @@ export class RunEngine {
     this.persisted = structuredClone(setup.persisted);
     this.securer = new SampleSecurer(io.journal);
     this.securedSeq = this.persisted.lastSeq;
+    this.stages = stagesAfterEvents(setup.stages, setup.history?.events ?? []);
     this.clock = io.clock ?? systemClock;
     this.runClock = new RunClock(this.persisted.clock, this.clock);
     this.calibrations = snapshotCalibrations(setup.snapshot);
@@ -291,7 +297,7 @@ export class RunEngine {
     const now = this.nowMs();
     this.measurements = this.measure();
     const s = this.state;
-    const stage = this.setup.stages[s.stageIndex];
+    const stage = this.stages[s.stageIndex];
     const q = this.measurements.pressureKpa;
     const events: RunEventDraft[] = [];
     const observe = (o: Parameters<typeof applyObservation>[1]) => {
@@ -313,7 +319,8 @@ export class RunEngine {
       try {
         this.hold = evaluateHold(rule, this.tracker.points, {
           nowMin: Math.max(0, (now - this.state.holdStartedAtMs) / 60_000),
-          stopLimitMm: this.stopLimit(),
+          // Unloading and reloading holds are judged on time and rate only: the stop limit ends the first loading.
+          stopLimitMm: stopLimitApplies(stage) ? this.stopLimit() : Number.MAX_VALUE,
           maxHoldMin: this.setup.plan.termination.maxHoldMin,
           procedureId: this.setup.plan.procedureId,
           resolutionMm: rigResolutionMm(this.channels, this.kit),
@@ -335,8 +342,15 @@ export class RunEngine {
   private prompt(stage: PlannedStage) {
     const { jack, pressureUnit } = this.measurer.modelState;
     // Never beyond the jack calibration's range: the prompt then says why instead of giving a pressure.
-    const gauge = jackGaugeFor(jack, { branch: jackBranchOf(this.setup.snapshot, stage.index), unit: pressureUnit, ratedPressureMpa: this.setup.rig.jack?.ratedPressureMpa });
+    const gauge = jackGaugeFor(jack, { branch: jackBranchOf(this.setup.snapshot, stage.index, this.measurer.modelState), unit: pressureUnit, ratedPressureMpa: this.setup.rig.jack?.ratedPressureMpa });
     return nextStepPrompt({ stage, plate: this.setup.plan.plate, apparatusWeightKn: this.setup.plan.apparatusWeightKn, gaugePressureFor: gauge.pressureFor, gaugeUnit: gauge.unit });
+  }
+
+  /** Why the stage after the current one must not be applied (its prompt is beyond the jack's limits), or null. */
+  private nextStageRefusal(): string | null {
+    const following = this.stages[this.state.stageIndex + 1];
+    const prompt = following && this.state.phase !== 'preparing' ? this.prompt(following) : null;
+    return promptBlocksLoading(prompt) ? prompt?.problem ?? null : null;
   }
 
   /** With the jack released the plate still carries the apparatus: no target can be below that pressure. */
@@ -352,7 +366,7 @@ export class RunEngine {
   private currentAlarms(nowMono: number): Alarm[] {
     const m = this.measurements;
     const s = this.state;
-    const stage = this.setup.stages[s.stageIndex];
+    const stage = this.stages[s.stageIndex];
     const alarms: Alarm[] = [];
     const during = s.phase === 'holding' || s.phase === 'hold-met';
     if (during && stage && m.pressureKpa !== null) alarms.push(loadDriftAlarm({ targetKpa: this.effectiveTarget(stage.targetKpa), actualKpa: m.pressureKpa }));
@@ -368,7 +382,7 @@ export class RunEngine {
         alarms.push(signalLostAlarm({ channel: c.key, lastSampleAtMs: this.lastOkMonoMs.get(c.key) ?? null, nowMs: nowMono, portLost: this.portLost.has(c.key) }));
       }
     }
-    if (m.meanSettlementMm !== null && s.phase !== 'preparing') alarms.push(stopLimitAlarm({ meanSettlementMm: m.meanSettlementMm, stopLimitMm: this.stopLimit() }));
+    if (m.meanSettlementMm !== null && s.phase !== 'preparing' && (!stage || stopLimitApplies(stage))) alarms.push(stopLimitAlarm({ meanSettlementMm: m.meanSettlementMm, stopLimitMm: this.stopLimit() }));
     if (m.jackForceKn !== null) alarms.push(reactionCapacityAlarm({ jackForceKn: m.jackForceKn, capacityKn: this.setup.plan.reaction.capacityKn }));
     alarms.push(readingsUnsecuredAlarm({ failure: this.securer.failure, maxWaiting: this.securer.maxWaiting }));
     alarms.push(...this.instrumentAlarms());
@@ -415,8 +429,18 @@ export class RunEngine {
     if (command.type === 'acknowledge-alarm' || command.type === 'shelve-alarm') this.alarmCommand(command, actor, now);
     const gaugeReadings = Object.fromEntries(this.channels.flatMap((c) => (c.role === 'gauge' && this.measurer.latestOf(c.key) != null ? [[c.key, this.measurer.latestOf(c.key) as number]] : [])));
     const gaugeSigns = Object.fromEntries(this.channels.flatMap((c) => (c.gauge ? [[c.key, c.gauge.direction]] : [])));
-    const r = applyCommand(this.state, command, { nowMs: now, actor, stages: this.setup.stages, gaugeReadings, overdueInstruments: this.setup.overdueInstruments, gaugeSigns });
+    const r = applyCommand(this.state, command, {
+      nowMs: now,
+      actor,
+      stages: this.stages,
+      gaugeReadings,
+      overdueInstruments: this.setup.overdueInstruments,
+      gaugeSigns,
+      unloading: { rule: unloadingRuleOf(this.setup.plan), planUnloadKpa: this.setup.plan.unloadReload.unloadKpa },
+      nextStageRefusal: this.nextStageRefusal(),
+    });
     if (!r.ok) throw new CommandRefused(r.code, r.message);
+    this.stages = stagesAfterEvents(this.stages, r.events);
     if (command.type === 'gauge-reset') this.watch = watchReset(this.watch, command.channel, now);
     const before = this.state;
     // A finished hold's point on the curve is measured as the hold ended, before the command's events apply.
@@ -451,7 +475,7 @@ export class RunEngine {
 
   /** The point a finished stage leaves on the load–settlement curve (its end of hold). */
   private recordStagePoint(stageIndex: number, atMs: number): void {
-    const stage = this.setup.stages[stageIndex];
+    const stage = this.stages[stageIndex];
     const m = this.measure();
     if (!stage || m.pressureKpa === null || m.meanSettlementMm === null) return;
     this.persisted.stagePoints = [...(this.persisted.stagePoints ?? []), { stageIndex, branch: stage.branch, targetKpa: stage.targetKpa, pressureKpa: m.pressureKpa, settlementMm: m.meanSettlementMm, atMs }];
@@ -469,8 +493,8 @@ export class RunEngine {
   private drive(command: RunCommand, state: RunState): void {
     const sim = this.io.simulator;
     if (!sim) return;
-    const stage = this.setup.stages[state.stageIndex];
-    if ((command.type === 'start' || command.type === 'advance') && stage) {
+    const stage = this.stages[state.stageIndex];
+    if ((command.type === 'start' || command.type === 'advance' || command.type === 'unload') && stage) {
       if (stage.targetKpa === 0) sim('release', {});
       else sim('pump', { pressureKpa: stage.targetKpa });
     } else if (command.type === 'top-up') sim('top-up', {});
@@ -524,7 +548,7 @@ export class RunEngine {
     const s = this.state;
     const m = this.measurements;
     const now = this.nowMs();
-    const stages = this.setup.stages;
+    const stages = this.stages;
     const promptStage = s.phase === 'pumping' || s.phase === 'preparing' ? stages[s.stageIndex] : s.phase === 'hold-met' ? stages[s.stageIndex + 1] : undefined;
     const prompt = promptStage ? this.prompt(promptStage) : null;
     const holdMin = s.holdStartedAtMs === null ? null : (now - s.holdStartedAtMs) / 60_000;
