@@ -1,19 +1,26 @@
-import type { NextStepPrompt } from '@shared/hold/next-step';
+import { type NextStepPrompt, promptBlocksLoading } from '@shared/hold/next-step';
+import { useState } from 'react';
 import type { RunCommand, RunView } from '@shared/schemas/runs';
 import { formatPlanned, formatValue } from '@shared/units/format';
 import { formatNumber } from '../../../components/readout';
 import { BRANCH_LABELS, stageLabel } from '../utils/run-format';
 import { CommandButton, ReasonForm } from './command-button';
 import type { MainAction } from './run-bar';
+import { UnloadForm } from './unload-form';
 
 /** Which of the stage actions apply to a run as it stands. */
 export function stageActions(view: RunView) {
   const { phase } = view;
   const isLast = view.stageIndex >= view.stages.length - 1;
   const holding = phase === 'holding' || phase === 'hold-met';
+  // A next stage beyond the jack's calibration or rating is never applied: the server refuses it too.
+  const nextRefused = phase === 'hold-met' && promptBlocksLoading(view.prompt);
   return {
-    applyNext: phase === 'hold-met' && !isLast,
+    applyNext: phase === 'hold-met' && !isLast && !nextRefused,
     applyEarly: phase === 'holding' && !isLast,
+    nextRefused,
+    // Loading can end at any loading stage; the server derives the unloading stages from the one reached.
+    unload: (phase === 'pumping' || holding) && view.stages[view.stageIndex]?.branch === 'loading',
     finish: phase === 'hold-met' && isLast, // the server finishes only once the last hold is met
     stageReached: phase === 'pumping' && (view.manual || view.live.pressureKpa === null),
     // The server records top-ups during a hold only.
@@ -73,6 +80,7 @@ function noPromptText(view: RunView, actions: StageActions): string {
 export function StepPanel({ view, actions, send, busy, disabled, askingEarly, setAskingEarly, main }: StepPanelProps) {
   const { prompt } = view;
   const pumping = view.phase === 'pumping' || view.phase === 'preparing';
+  const [askingUnload, setAskingUnload] = useState(false);
   return (
     <section aria-labelledby="step-heading" className="flex flex-col gap-3 rounded-md border-2 border-neutral-800 p-3">
       <h2 id="step-heading" className="text-xl font-bold">
@@ -115,12 +123,25 @@ export function StepPanel({ view, actions, send, busy, disabled, askingEarly, se
             Stage reached
           </CommandButton>
         )}
+        {actions.unload && !askingUnload && (
+          <CommandButton variant={actions.nextRefused ? 'primary' : 'secondary'} size="glove" disabled={disabled} onClick={() => setAskingUnload(true)}>
+            Go to unloading…
+          </CommandButton>
+        )}
         {actions.topUp && main !== 'top-up' && (
           <CommandButton shortcut="T" variant="secondary" size="glove" busy={busy} disabled={disabled} onClick={() => void send({ type: 'top-up' })}>
             Top up recorded
           </CommandButton>
         )}
       </div>
+      {askingUnload && actions.unload && (
+        <UnloadForm
+          reason={actions.nextRefused ? 'jack-limit' : undefined}
+          busy={busy}
+          onCancel={() => setAskingUnload(false)}
+          onSubmit={(command) => void send(command).then((ok) => ok && setAskingUnload(false))}
+        />
+      )}
       {askingEarly && actions.applyEarly && (
         <ReasonForm
           label="The hold is not met yet. Why apply the next stage now?"
