@@ -1,11 +1,11 @@
 import { screen, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { ImportForm } from '../../../client/src/features/imports/components/import-form';
-import { getLocations } from '../../../client/src/features/locations/api/get-locations';
+import { locationsQueryOptions } from '../../../client/src/features/locations/api/get-locations';
 import { useProjects } from '../../../client/src/features/projects/api/get-projects';
 
 /** The form as the import page composes it. */
-const Form = () => <ImportForm projects={useProjects()} fetchLocations={getLocations} />;
+const Form = () => <ImportForm projects={useProjects()} locationsQuery={locationsQueryOptions} />;
 
 import { json, requests, stubFetch } from '../support/fetch-stub';
 import { aProject } from '../support/fixtures';

@@ -3,7 +3,7 @@ import type { LoaderFunctionArgs } from 'react-router-dom';
 import { PageHeader } from '../../components/page-header';
 import { Ags4ImportForm } from '../../features/imports/components/ags4-import-form';
 import { ImportForm } from '../../features/imports/components/import-form';
-import { getLocations } from '../../features/locations/api/get-locations';
+import { locationsQueryOptions } from '../../features/locations/api/get-locations';
 import { projectsQueryOptions, useProjects } from '../../features/projects/api/get-projects';
 import { requirePermission } from '../route-guards';
 
@@ -24,7 +24,7 @@ export function ImportsRoute() {
         A test recorded elsewhere becomes a completed run of the chosen location, with a plan that describes it, ready to interpret and report. The whole file
         is checked first: if anything is wrong, nothing is imported and every problem is listed with its line or field.
       </p>
-      <ImportForm projects={projects} fetchLocations={getLocations} />
+      <ImportForm projects={projects} locationsQuery={locationsQueryOptions} />
       <section aria-labelledby="ags4-title" className="mt-10">
         <h2 id="ags4-title" className="mb-2 text-xl font-bold">
           From an AGS4 file

@@ -1,5 +1,5 @@
 import type { Project, TestLocation } from '@shared/schemas/projects';
-import { type UseQueryResult, useQuery } from '@tanstack/react-query';
+import { type QueryKey, type UseQueryOptions, type UseQueryResult, useQuery } from '@tanstack/react-query';
 import { type FormEvent, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { Button } from '../../../components/button';
@@ -22,20 +22,19 @@ export function importFileProblem(file: Pick<File, 'name' | 'size'>): string | n
   return null;
 }
 
-/** Where an import can go: the projects, and a query for a project's test locations (the page composes them). */
-export interface ImportTargets {
+/**
+ * Where an import can go: the projects, and the query of a project's test locations (the page composes
+ * them from the locations feature, so the list shares that feature's cache key and refreshes with it).
+ */
+export interface ImportTargets<K extends QueryKey> {
   projects: UseQueryResult<Project[]>;
-  fetchLocations: (projectId: number, signal?: AbortSignal) => Promise<TestLocation[]>;
+  locationsQuery: (projectId: number) => UseQueryOptions<TestLocation[], Error, TestLocation[], K>;
 }
 
 /** Imports a test recorded elsewhere into a chosen test location, as a completed run ready to interpret. */
-export function ImportForm({ projects, fetchLocations }: ImportTargets) {
+export function ImportForm<K extends QueryKey>({ projects, locationsQuery }: ImportTargets<K>) {
   const [projectId, setProjectId] = useState('');
-  const locations = useQuery({
-    queryKey: ['imports', 'locations-of', projectId],
-    queryFn: ({ signal }) => fetchLocations(Number(projectId), signal),
-    enabled: projectId !== '',
-  });
+  const locations = useQuery({ ...locationsQuery(Number(projectId)), enabled: projectId !== '' });
   const [locationId, setLocationId] = useState('');
   const [source, setSource] = useState<'file' | 'paste'>('file');
   const [file, setFile] = useState<File | null>(null);

@@ -1,7 +1,7 @@
 import type { TestLocation } from '@shared/schemas/projects';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { locationKeys } from './location-keys';
+import { locationKeys } from '../../../lib/location-keys';
 
 export function deleteLocation(id: number): Promise<void> {
   return api.delete(`/api/locations/${id}`);

@@ -1,7 +1,7 @@
 import type { TestLocation } from '@shared/schemas/projects';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { locationKeys } from './location-keys';
+import { locationKeys } from '../../../lib/location-keys';
 
 export function getLocation(id: number, signal?: AbortSignal): Promise<TestLocation> {
   return api.get<TestLocation>(`/api/locations/${id}`, signal);

@@ -2,7 +2,7 @@ import type { ListResponse } from '@shared/schemas/common';
 import type { TestLocation } from '@shared/schemas/projects';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { locationKeys } from './location-keys';
+import { locationKeys } from '../../../lib/location-keys';
 
 export async function getLocations(projectId: number, signal?: AbortSignal): Promise<TestLocation[]> {
   return (await api.get<ListResponse<TestLocation>>(`/api/projects/${projectId}/locations`, signal)).items;

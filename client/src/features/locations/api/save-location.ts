@@ -1,7 +1,7 @@
 import type { LocationInput, TestLocation } from '@shared/schemas/projects';
 import { type QueryClient, useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { locationKeys } from './location-keys';
+import { locationKeys } from '../../../lib/location-keys';
 
 export function createLocation(projectId: number, input: LocationInput): Promise<TestLocation> {
   return api.post<TestLocation>(`/api/projects/${projectId}/locations`, input);

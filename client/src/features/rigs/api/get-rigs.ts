@@ -3,7 +3,7 @@ import type { ListResponse } from '@shared/schemas/common';
 import type { Rig } from '@shared/schemas/instruments';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { rigKeys } from './rig-keys';
+import { rigKeys } from '../../../lib/rig-keys';
 
 export async function getRigs(signal?: AbortSignal): Promise<Rig[]> {
   return (await api.get<ListResponse<Rig>>('/api/rigs', signal)).items;

@@ -1,7 +1,7 @@
 import type { LabProfileInput, ListedDeviceProfile } from '@shared/devices/schema';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { rigKeys } from './rig-keys';
+import { rigKeys } from '../../../lib/rig-keys';
 
 export function createDeviceProfile(input: LabProfileInput): Promise<ListedDeviceProfile> {
   return api.post<ListedDeviceProfile>('/api/device-profiles', input);

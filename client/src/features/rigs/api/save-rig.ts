@@ -1,7 +1,7 @@
 import type { Rig, RigInput } from '@shared/schemas/instruments';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { rigKeys } from './rig-keys';
+import { rigKeys } from '../../../lib/rig-keys';
 
 export function createRig(input: RigInput): Promise<Rig> {
   return api.post<Rig>('/api/rigs', input);
