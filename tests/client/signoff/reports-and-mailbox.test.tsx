@@ -41,6 +41,7 @@ describe('reports list', () => {
     renderWithProviders(<ReportsList reports={[REPORT]} showClient={false} />);
     expect(screen.getByRole('link', { name: 'Report (PDF)' }).getAttribute('href')).toBe('/api/runs/41/report.pdf');
     expect(screen.getByRole('link', { name: 'Readings (CSV)' }).getAttribute('href')).toBe('/api/reports/41/readings.csv');
+    expect(screen.getByRole('link', { name: 'Signed data (JSON)' }).getAttribute('href')).toBe('/api/reports/41/signed-data.json');
     expect(screen.queryByText('Wrenfield Haulage')).toBeNull();
     expect(screen.queryByRole('link', { name: 'Sign-off' })).toBeNull();
   });

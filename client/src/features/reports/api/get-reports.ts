@@ -11,4 +11,9 @@ export const reportsQueryOptions = () =>
 
 export const useReports = () => useQuery(reportsQueryOptions());
 
-export const reportFiles = (runId: number) => ({ pdf: `/api/runs/${runId}/report.pdf`, csv: `/api/reports/${runId}/readings.csv` });
+export const reportFiles = (runId: number) => ({
+  pdf: `/api/runs/${runId}/report.pdf`,
+  csv: `/api/reports/${runId}/readings.csv`,
+  // What the signature's hash covers, for anyone to re-compute it (DEVELOPERS.md, "Checking a signature's hash").
+  signedData: `/api/reports/${runId}/signed-data.json`,
+});

@@ -42,6 +42,9 @@ export function ReportsList({ reports, showClient }: { reports: ReportListItem[]
                   <a href={files.csv} className="mr-3 font-semibold">
                     Readings (CSV)
                   </a>
+                  <a href={files.signedData} className="mr-3 font-semibold" title="The signed data; its SHA-256 in RFC 8785 canonical form is the hash printed on the signed PDF">
+                    Signed data (JSON)
+                  </a>
                   {showClient && (
                     <Link to={paths.signoff.href(r.runId)} className="font-semibold">
                       Sign-off
