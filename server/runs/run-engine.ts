@@ -17,7 +17,7 @@ import { lateReadings, nextReadingDue } from '../../shared/hold/schedule';
 import type { HoldEvaluation } from '../../shared/hold/verdict';
 import { type PlannedStage, seatingHoldMin } from '../../shared/plans/stages';
 import { stagesAfterEvents, unloadingRuleOf } from '../../shared/plans/unloading';
-import { reconcileAlarms } from '../../shared/runs/alarm-board';
+import { type AlarmPending, reconcileAlarms } from '../../shared/runs/alarm-board';
 import { type Actor, type RunEventDraft, type RunState, applyCommand, applyObservation, needsCurrentVersion } from '../../shared/runs/lifecycle';
 import { HoldSeriesTracker } from '../../shared/runs/hold-series';
 import { type CalibrationVersion, MODEL_EVENT_KINDS, type ModelEvent, type ModelSample, RunMeasurer, type RunSetupSnapshot, jackBranchOf, oilForPlatePressure } from '../../shared/runs/measurement-model';
@@ -107,6 +107,8 @@ export class RunEngine {
   private readonly portLost = new Set<string>();
   /** What the instrument alarms remember between readings: last readings, gauge jumps, recorded resets. */
   private watch = emptyInstrumentWatch();
+  /** Since when each alarm's rule has disagreed with its record (the board's on- and off-delays); memory only. */
+  private alarmPending: AlarmPending = {};
   private pending: SampleRow[] = [];
   /** Journals new rows; keeps (bounded) what a refusing journal cannot take. */
   private readonly securer: SampleSecurer;
@@ -325,7 +327,7 @@ export class RunEngine {
           procedureId: this.setup.plan.procedureId,
           resolutionMm: rigResolutionMm(this.channels, this.kit),
         });
-        if (this.hold.verdict === 'satisfied') observe({ type: 'hold-met' });
+        if (this.hold.verdict === 'satisfied') observe({ type: 'hold-met', underDrift: this.standingDrift() });
       } catch (err) {
         debug('hold evaluation: %s', (err as Error).message);
       }
@@ -369,7 +371,7 @@ export class RunEngine {
     const stage = this.stages[s.stageIndex];
     const alarms: Alarm[] = [];
     const during = s.phase === 'holding' || s.phase === 'hold-met';
-    if (during && stage && m.pressureKpa !== null) alarms.push(loadDriftAlarm({ targetKpa: this.effectiveTarget(stage.targetKpa), actualKpa: m.pressureKpa }));
+    if (during && stage && m.pressureKpa !== null) alarms.push(loadDriftAlarm({ targetKpa: stage.targetKpa, actualKpa: m.pressureKpa, deadWeightKpa: this.effectiveTarget(0) }));
     const placed = this.channels.flatMap((c) => {
       const g = m.gauges.find((x) => x.key === c.key);
       return c.gauge && g?.settlementMm != null ? [{ xMm: c.gauge.xMm, yMm: c.gauge.yMm, settlementMm: g.settlementMm }] : [];
@@ -414,9 +416,16 @@ export class RunEngine {
     this.io.pushView(this.runId, this.view());
   }
 
+  /** The standing load-drift alarm's words, or null: a hold met meanwhile is recorded as met under drift. */
+  private standingDrift(): string | null {
+    const drift = this.persisted.alarms['load-drift'];
+    return drift && drift.state !== 'cleared' ? drift.alarm.message : null;
+  }
+
   private updateAlarms(now: number, events: RunEventDraft[]): void {
-    const { records, changes } = reconcileAlarms(this.persisted.alarms, this.currentAlarms(this.clock.now()), now);
+    const { records, changes, pending } = reconcileAlarms(this.persisted.alarms, this.currentAlarms(this.clock.now()), now, this.alarmPending);
     this.persisted.alarms = records;
+    this.alarmPending = pending;
     events.push(...this.record(changes.map((c) => ({ kind: `alarm-${c.action}`, atMs: now, userId: null, payload: { key: c.key, message: c.message } }))));
   }
 

@@ -78,6 +78,8 @@ function recordEvent(e: TimedEvent): { kind: (typeof RECORD_EVENT_KINDS)[number]
   const p = e.payload;
   if (e.kind === 'note') return { kind: p.topic === 'weather' ? 'weather' : 'note', text: String(p.text ?? '').slice(0, 2000) };
   if (e.kind === 'top-up') return { kind: 'top-up', text: 'Load topped up' };
+  // The criterion was met while the load stood outside its tolerance: the record says so beside the stage.
+  if (e.kind === 'hold-met' && typeof p.underDrift === 'string') return { kind: 'alarm', text: `Hold met under drift: ${p.underDrift}`.slice(0, 2000) };
   if (e.kind === 'gauge-reset') return { kind: 'gauge-reset', text: `Gauge ${p.channel} reset: read ${p.beforeMm} mm before, ${p.afterMm} mm after` };
   return null;
 }

@@ -3,6 +3,7 @@ import type { Calibration } from '../calibration/schema';
 import { InterpretationInputError, requireFinite, requireInRange, requireNonNegative, requirePositive } from '../interpretation/input-checks';
 import { type GaugeAtPosition, meanSettlement, planeFitTilt, type Tilt, tiltBetweenGauges } from '../interpretation/reduction';
 import type { Termination } from '../schemas/plans';
+import { formatPlanned, formatQuantity } from '../units/format';
 import type { GaugeJump } from './gauge-reset';
 import type { RuleSource } from './verdict';
 
@@ -34,6 +35,12 @@ export interface Alarm {
   source: RuleSource;
   /** What the rule saw, where a figure is not enough (e.g. the readings either side of a jump). */
   evidence?: AlarmEvidence;
+  /**
+   * Inactive, but not yet back inside the narrower band a raised alarm must return to before it clears
+   * (the deadband): the alarm board keeps a raised alarm standing while this holds, so a figure hovering
+   * at its limit does not raise and clear over and over.
+   */
+  inDeadband?: boolean;
 }
 
 /** Two readings and their times (run clock ms) that show what the alarm is about. */
@@ -43,7 +50,10 @@ export interface AlarmEvidence {
   unit: string;
 }
 
-const pct = (fraction: number) => `${Math.round(fraction * 1000) / 10} %`;
+const pct = (fraction: number) => formatQuantity(fraction * 100, '%');
+
+/** Share of a limit a raised tilt, travel or capacity alarm must come back under before it clears. */
+const CLEAR_SHARE = 0.8;
 
 /** Options of {@link loadDriftAlarm}. */
 export interface LoadDriftInput {
@@ -53,33 +63,48 @@ export interface LoadDriftInput {
   tolerancePercent?: number;
   /** Smallest tolerance, kPa (one gauge division, roughly); the larger of the two applies. Default 2. */
   toleranceKpa?: number;
+  /**
+   * The pressure the apparatus puts on the plate by its own weight, kPa. With the jack released the plate
+   * still carries it, so a target at or below it is no load the jack holds: there is no drift to watch
+   * (and never a "let some pressure off" with the valve open). Default 0.
+   */
+  deadWeightKpa?: number;
+  /** Share of the tolerance a raised alarm must come back inside before it clears. Default 0.5. */
+  clearFraction?: number;
 }
 
-/** Load drifting from its target during a hold beyond ±max(2 % of target, fixed kPa) (reference §D.1, common practice), with a top-up prompt. */
+/**
+ * Load drifting from its target during a hold beyond ±max(2 % of target, fixed kPa) (reference §D.1, common
+ * practice), with a top-up prompt. Once raised it clears only back within half that band (`inDeadband`).
+ */
 export function loadDriftAlarm(input: LoadDriftInput): Alarm {
-  const target = requireNonNegative(input.targetKpa, 'targetKpa');
-  const deviation = requireFinite(input.actualKpa, 'actualKpa') - target;
+  const planned = requireNonNegative(input.targetKpa, 'targetKpa');
+  const deadWeight = requireNonNegative(input.deadWeightKpa ?? 0, 'deadWeightKpa');
+  const actual = requireFinite(input.actualKpa, 'actualKpa');
   const limit = Math.max(
-    (requireNonNegative(input.tolerancePercent ?? 2, 'tolerancePercent') / 100) * target,
+    (requireNonNegative(input.tolerancePercent ?? 2, 'tolerancePercent') / 100) * planned,
     requireNonNegative(input.toleranceKpa ?? 2, 'toleranceKpa'),
   );
+  const source: RuleSource = { tag: 'common practice', text: 'Hold the load within ±2 % of the target or a fixed tolerance, whichever is larger; re-pump when it drifts' };
+  const base = { code: 'load-drift', subject: null, severity: 'warning', limit, unit: 'kPa', source } as const;
+  if (planned <= deadWeight) {
+    return {
+      ...base,
+      active: false,
+      message: `No load drift to watch: the ${formatPlanned(planned, 'kPa')} kPa target is at or below the ${formatQuantity(deadWeight, 'kPa')} the apparatus puts on the plate by its own weight.`,
+      value: null,
+    };
+  }
+  const deviation = actual - planned;
+  const clearBand = requireInRange(input.clearFraction ?? 0.5, 0, 1, 'clearFraction') * limit;
   const active = Math.abs(deviation) > limit;
+  const target = `${formatPlanned(planned, 'kPa')} kPa target`;
   const message = !active
-    ? `Pressure within ±${limit.toFixed(1)} kPa of the ${target} kPa target.`
+    ? `Pressure within ±${formatQuantity(limit, 'kPa')} of the ${target}.`
     : deviation < 0
-      ? `Pressure ${input.actualKpa.toFixed(1)} kPa is ${(-deviation).toFixed(1)} kPa below the ${target} kPa target: top up the pump.`
-      : `Pressure ${input.actualKpa.toFixed(1)} kPa is ${deviation.toFixed(1)} kPa above the ${target} kPa target: let some pressure off.`;
-  return {
-    code: 'load-drift',
-    subject: null,
-    severity: 'warning',
-    active,
-    message,
-    value: deviation,
-    limit,
-    unit: 'kPa',
-    source: { tag: 'common practice', text: 'Hold the load within ±2 % of the target or a fixed tolerance, whichever is larger; re-pump when it drifts' },
-  };
+      ? `Pressure ${formatQuantity(actual, 'kPa')} is ${formatQuantity(-deviation, 'kPa')} below the ${target}: top up the pump.`
+      : `Pressure ${formatQuantity(actual, 'kPa')} is ${formatQuantity(deviation, 'kPa')} above the ${target}: let some pressure off.`;
+  return { ...base, active, message, value: deviation, inDeadband: !active && Math.abs(deviation) > clearBand };
 }
 
 /** Options of {@link tiltAlarm}. */
@@ -129,16 +154,18 @@ export function tiltAlarm(input: TiltInput): Alarm {
   const slope = Math.tan(tilt.radians);
   const bySpread = spreadMm / spreadLimit >= slope / slopeLimit;
   const active = spreadMm > spreadLimit || slope > slopeLimit;
+  const inDeadband = !active && (spreadMm > CLEAR_SHARE * spreadLimit || slope > CLEAR_SHARE * slopeLimit);
   const oneIn = tilt.oneIn === null ? 'level' : `1:${Math.round(tilt.oneIn)}`;
   return {
     code: 'plate-tilt',
     subject: null,
     severity: 'warning',
     active,
-    message: `${active ? 'Plate tilting' : 'Plate tilt acceptable'}: gauges differ by ${spreadMm.toFixed(2)} mm (limit ${spreadLimit.toFixed(2)} mm), tilt ${oneIn} (limit 1:${Math.round(1 / slopeLimit)}).${active ? ' Check for eccentric load, a leaning jack, uneven bedding or a sticking gauge.' : ''}`,
+    message: `${active ? 'Plate tilting' : 'Plate tilt acceptable'}: gauges differ by ${formatQuantity(spreadMm, 'mm')} (limit ${formatQuantity(spreadLimit, 'mm')}), tilt ${oneIn} (limit 1:${Math.round(1 / slopeLimit)}).${active ? ' Check for eccentric load, a leaning jack, uneven bedding or a sticking gauge.' : ''}`,
     value: bySpread ? spreadMm : tilt.radians,
     limit: bySpread ? spreadLimit : Math.atan(slopeLimit),
     unit: bySpread ? 'mm' : 'rad',
+    inDeadband,
     source: {
       tag: 'common practice',
       text: 'Opposite gauges differing by more than about 20 % of the mean settlement (and 0.5 mm), or tilt beyond about 1:100',
@@ -166,6 +193,8 @@ export function gaugeTravelAlarm(input: GaugeTravelInput): Alarm {
   const warnAt = requireInRange(input.warnFraction ?? 0.85, 0, 1, 'warnFraction');
   const used = input.sign === 1 ? reading / travel : 1 - reading / travel;
   const atEnd = used >= 1;
+  // Once raised, it stands until the gauge is back under the warning level less 5 points (a reset).
+  const inDeadband = used < warnAt && used >= warnAt - 0.05;
   return {
     code: 'gauge-travel',
     subject: input.gauge,
@@ -177,6 +206,7 @@ export function gaugeTravelAlarm(input: GaugeTravelInput): Alarm {
     value: used * 100,
     limit: warnAt * 100,
     unit: '%',
+    inDeadband,
     source: { tag: 'common practice', text: 'Warn at about 80–90 % of gauge travel; reset only under a constant load, one gauge at a time' },
   };
 }
@@ -201,8 +231,8 @@ export function stopLimitAlarm(input: { meanSettlementMm: number; stopLimitMm: n
     severity: 'critical',
     active,
     message: active
-      ? `Settlement ${value.toFixed(2)} mm has reached the ${limit} mm stop limit: end the loading.`
-      : `Settlement ${value.toFixed(2)} mm of the ${limit} mm stop limit.`,
+      ? `Settlement ${formatQuantity(value, 'mm')} has reached the ${formatPlanned(limit, 'mm')} mm stop limit: end the loading.`
+      : `Settlement ${formatQuantity(value, 'mm')} of the ${formatPlanned(limit, 'mm')} mm stop limit.`,
     value,
     limit,
     unit: 'mm',
@@ -224,11 +254,12 @@ export function reactionCapacityAlarm(input: ReactionInput): Alarm {
   const used = requireFinite(input.jackForceKn, 'jackForceKn') / capacity;
   const warnAt = requireInRange(input.warnFraction ?? 0.9, 0, 1, 'warnFraction');
   return {
+    inDeadband: used < warnAt && used >= warnAt - 0.05,
     code: 'reaction-capacity',
     subject: null,
     severity: used >= 1 ? 'critical' : 'warning',
     active: used >= warnAt,
-    message: `Jack force ${input.jackForceKn.toFixed(1)} kN is ${pct(used)} of the ${capacity} kN reaction${used >= warnAt ? ': do not load further without more reaction' : ''}.`,
+    message: `Jack force ${formatQuantity(input.jackForceKn, 'kN')} is ${pct(used)} of the ${formatPlanned(capacity, 'kN')} kN reaction${used >= warnAt ? ': do not load further without more reaction' : ''}.`,
     value: used * 100,
     limit: warnAt * 100,
     unit: '%',
@@ -264,7 +295,7 @@ export function signalLostAlarm(input: SignalInput): Alarm {
         : input.portLost
           ? `The port of ${input.channel} is gone: check the cable and the instrument.`
           : active
-          ? `No sample from ${input.channel} for ${gapS.toFixed(1)} s: check the cable and the instrument.`
+          ? `No sample from ${input.channel} for ${formatQuantity(gapS, 's')}: check the cable and the instrument.`
           : `${input.channel} live.`,
     value: gapS,
     limit,
@@ -334,14 +365,14 @@ export function calibratedRangeAlarm(input: CalibratedRangeInput): Alarm | null 
   const outside = outsideCalibratedSpan(input.calibration, reading, requireNonNegative(input.marginFraction ?? 0.01, 'marginFraction'));
   const below = outside?.side === 'below';
   const active = outside !== null;
-  const span = `${lo}–${hi} ${unit}`;
+  const span = `${formatPlanned(lo, unit)}–${formatPlanned(hi, unit)} ${unit}`;
   return {
     code: 'outside-calibration',
     subject: input.subject,
     severity: 'critical',
     active,
     message: active
-      ? `${input.label} reads ${reading} ${unit}, ${below ? 'below' : 'beyond'} its calibration (${span}): values worked out from it are extrapolated, not measured. ${below ? 'Check the instrument and its zero' : 'Let pressure off to within the calibration'}, or use an instrument calibrated for this range.`
+      ? `${input.label} reads ${formatQuantity(reading, unit)}, ${below ? 'below' : 'beyond'} its calibration (${span}): values worked out from it are extrapolated, not measured. ${below ? 'Check the instrument and its zero' : 'Let pressure off to within the calibration'}, or use an instrument calibrated for this range.`
       : `${input.label} within its calibration (${span}).`,
     value: reading,
     limit: below ? lo : hi,
@@ -380,7 +411,7 @@ export function unexplainedJumpAlarm(input: JumpAlarmInput): Alarm {
     severity: 'warning',
     active: last !== undefined,
     message: last
-      ? `Gauge ${input.gauge} jumped from ${last.fromMm.toFixed(3)} mm at ${clockTime(last.fromMs)} to ${last.toMm.toFixed(3)} mm at ${clockTime(last.toMs)} (${jumpMm! > 0 ? '+' : ''}${jumpMm!.toFixed(3)} mm) with no reset recorded${unexplained.length > 1 ? ` (${unexplained.length} jumps this stage)` : ''}: if it was reset, record the reset; otherwise check it is seated and its stem free, and mark the reading faulty.`
+      ? `Gauge ${input.gauge} jumped from ${formatQuantity(last.fromMm, 'mm')} at ${clockTime(last.fromMs)} to ${formatQuantity(last.toMm, 'mm')} at ${clockTime(last.toMs)} (${jumpMm! > 0 ? '+' : ''}${formatQuantity(jumpMm, 'mm')}) with no reset recorded${unexplained.length > 1 ? ` (${unexplained.length} jumps this stage)` : ''}: if it was reset, record the reset; otherwise check it is seated and its stem free, and mark the reading faulty.`
       : `Gauge ${input.gauge}: no unexplained jump this stage.`,
     value: jumpMm,
     limit: 0,

@@ -85,7 +85,7 @@ export function describeRunEvent(event: EventLike): { title: string; detail: str
         detail: `${stageNumber(p.stageIndex)}${p.by === 'operator' ? ', confirmed by the operator' : ', from the pressure reading'}`,
       };
     case 'hold-met':
-      return { title: 'Hold met', detail: stageNumber(p.stageIndex) };
+      return text(p.underDrift) ? { title: 'Hold met under drift', detail: `${stageNumber(p.stageIndex)}: ${text(p.underDrift)}` } : { title: 'Hold met', detail: stageNumber(p.stageIndex) };
     case 'stage-advanced':
       return {
         title: p.early ? 'Next stage applied early' : 'Next stage applied',

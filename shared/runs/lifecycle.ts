@@ -216,7 +216,8 @@ function goToUnloading(
   ]);
 }
 
-export type Observation = { type: 'target-reached' } | { type: 'hold-met' };
+/** `underDrift`: the load-drift alarm's words when the hold's criterion was met while that alarm stood. */
+export type Observation = { type: 'target-reached' } | { type: 'hold-met'; underDrift?: string | null };
 
 /** Changes the engine makes from what it measures; an observation that no longer fits is ignored (null). */
 export function applyObservation(state: RunState, observation: Observation, nowMs: number): { state: RunState; events: RunEventDraft[] } | null {
@@ -228,6 +229,6 @@ export function applyObservation(state: RunState, observation: Observation, nowM
       return { state: bump({ phase: 'holding', holdStartedAtMs: nowMs }), events: [event('target-reached', { stageIndex: state.stageIndex, by: 'pressure reading' })] };
     case 'hold-met':
       if (state.phase !== 'holding') return null;
-      return { state: bump({ phase: 'hold-met', holdMetAtMs: nowMs }), events: [event('hold-met', { stageIndex: state.stageIndex })] };
+      return { state: bump({ phase: 'hold-met', holdMetAtMs: nowMs }), events: [event('hold-met', { stageIndex: state.stageIndex, ...(observation.underDrift ? { underDrift: observation.underDrift } : {}) })] };
   }
 }

@@ -149,7 +149,7 @@ describe('reading outside its calibrated range', () => {
   it('fires beyond the range, naming the reading, the span and what to do', () => {
     const alarm = calibratedRangeAlarm({ subject: 'p1', label: 'Jack JK-1', reading: 55, calibration: jack });
     expect(alarm).toMatchObject({ code: 'outside-calibration', subject: 'p1', severity: 'critical', active: true, value: 55, limit: 50, unit: 'MPa' });
-    expect(alarm!.message).toMatch(/reads 55 MPa, beyond its calibration \(0–50 MPa\): values worked out from it are extrapolated/);
+    expect(alarm!.message).toMatch(/reads 55\.00 MPa, beyond its calibration \(0–50 MPa\): values worked out from it are extrapolated/);
     expect(calibratedRangeAlarm({ subject: 'p1', label: 'Jack JK-1', reading: -2, calibration: jack })).toMatchObject({ active: true, limit: 0 });
   });
 
@@ -185,7 +185,7 @@ describe('unexplained jump (a gauge knocked or reset without a record — common
     expect(alarm).toMatchObject({ code: 'unexplained-jump', subject: 'g1', active: true, unit: 'mm' });
     expect(alarm.value).toBeCloseTo(2.25, 9);
     expect(alarm.evidence).toEqual({ before: { atMs: t0 + 200, value: 12.31 }, after: { atMs: t0 + 300, value: 14.56 }, unit: 'mm' });
-    expect(alarm.message).toMatch(/jumped from 12\.310 mm at 10:00:00 to 14\.560 mm at 10:00:00 \(\+2\.250 mm\) with no reset recorded/);
+    expect(alarm.message).toMatch(/jumped from 12\.31 mm at 10:00:00 to 14\.56 mm at 10:00:00 \(\+2\.25 mm\) with no reset recorded/);
   });
 
   it('is explained by a reset of the gauge recorded within the grace time after the jump, not by one long after', () => {

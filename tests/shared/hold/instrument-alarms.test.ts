@@ -114,7 +114,7 @@ describe('instrument alarms', () => {
     expect(active(alarms)).toEqual(['outside-calibration:jack']);
     const jack = alarms.find((a) => a.subject === 'jack')!;
     expect(jack).toMatchObject({ value: 55, limit: 50, unit: 'MPa' });
-    expect(jack.message).toMatch(/Oil pressure on jack JK-1 reads 55 MPa, beyond its calibration \(0–50 MPa\)/);
+    expect(jack.message).toMatch(/Oil pressure on jack JK-1 reads 55\.00 MPa, beyond its calibration \(0–50 MPa\)/);
   });
 
   it("flag a channel's raw reading beyond its own calibration", () => {
