@@ -27,6 +27,7 @@ import { reportRoutes } from './routes/reports';
 import { runRoutes } from './routes/runs';
 import { signoffRoutes } from './routes/signoff';
 import type { RunManager } from './runs/run-manager';
+import type { DomainEvents } from './services/domain-events';
 import { sitePlanRoutes } from './routes/site-plans';
 import { userRoutes } from './routes/users';
 
@@ -52,6 +53,8 @@ function loginLimiter(config: ServerConfig): RequestHandler[] {
 
 export interface AppDeps {
   runs: RunManager;
+  /** Where sign-off publishes; the run manager's bus when not given. */
+  events?: DomainEvents;
   onSignOut?: (sid: string) => void;
 }
 
@@ -104,7 +107,7 @@ export function createApp(sequelize: Sequelize, config: ServerConfig, deps: AppD
     ...interpretationRoutes,
     ...importRoutes,
     ...ags4Routes,
-    ...signoffRoutes(config),
+    ...signoffRoutes(config, deps.events ?? deps.runs.events),
     ...reportRoutes(config.dataDir),
     ...mailboxRoutes(config.dataDir),
   ];

@@ -7,11 +7,12 @@ import type { ServerConfig } from './config';
 import { migrate } from './db/migrator';
 import { initModels } from './db/models';
 import { mailTarget } from './ops/mail-fake';
-import { configureMailer } from './services/mail';
+import { DomainEvents } from './services/domain-events';
+import { configureMailer, subscribeMailNotices } from './services/mail';
 import { createSequelize } from './db/sequelize';
 import { runRoom, socketEvents } from './realtime/events';
 import { RunManager } from './runs/run-manager';
-import { toBatch } from './runs/samples-query';
+import { buildRollups, toBatch } from './runs/samples-query';
 import { type SocketEventSpec, createSocketServer } from './realtime/socket-server';
 
 export interface RunningServer {
@@ -33,13 +34,19 @@ export async function startServer(config: ServerConfig): Promise<RunningServer> 
   const { smtp, catcher } = await mailTarget(config.mail);
   const releaseMailer = configureMailer({ ...smtp, from: config.mail.from });
   let sockets: ReturnType<typeof createSocketServer> | null = null;
+  // What happens to runs (closed, submitted for review, signed), and who hears it.
+  const domainEvents = new DomainEvents();
+  const unsubscribe = [subscribeMailNotices(domainEvents)];
   const runs = new RunManager({
     sequelize,
     dataDir: config.dataDir,
+    events: domainEvents,
     pushView: (runId, view) => sockets?.io.to(runRoom(runId)).emit('run:view', view),
     pushSamples: (runId, rows) => sockets?.io.to(runRoom(runId)).emit('run:samples', toBatch(runId, rows)),
   });
-  const parts = createApp(sequelize, config, { runs, onSignOut: (sid) => sockets?.disconnectSession(sid) });
+  // A closed run's per-minute rollups, once its samples are archived, make its replay fast.
+  unsubscribe.push(domainEvents.on('run-closed', ({ runId }) => runs.archiver.drain().then(() => buildRollups(sequelize, runId))));
+  const parts = createApp(sequelize, config, { runs, events: domainEvents, onSignOut: (sid) => sockets?.disconnectSession(sid) });
   const server = http.createServer(parts.app);
   sockets = createSocketServer(server, parts.sessionMiddleware);
   const monitor = new RigMonitor(sockets.io, (rigId) => runs.rigBusy(rigId));
@@ -61,6 +68,7 @@ export async function startServer(config: ServerConfig): Promise<RunningServer> 
     close: async () => {
       await monitor.closeAll();
       await runs.stopAll();
+      for (const off of unsubscribe) off();
       await sockets?.close();
       releaseMailer();
       await catcher?.close();

@@ -13,6 +13,7 @@ import { createSequelize } from '../db/sequelize';
 import { startServer } from '../main';
 import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../seed/demo';
 import { seedDemoMedia } from '../seed/demo-media';
+import { startAutoOperator } from './auto-operator';
 import { clientBuildIsCurrent } from './client-build';
 import { loadOrCreateSecrets } from './local-state';
 import { ensureDatabase, ensureMariadbInstalled, startMariadb } from './mariadb';
@@ -63,13 +64,25 @@ async function startDemoRig(): Promise<SimulatorProcess | null> {
   return sim;
 }
 
-/** Demo data once into an empty database, and the demo rig pointed at this start's simulator. */
-async function seedDemoData(sim: SimulatorProcess | null): Promise<void> {
+/** Demo data once into an empty database, and the demo rig pointed at this start's simulator (its id). */
+async function seedDemoData(sim: SimulatorProcess | null): Promise<number | null> {
   if (await seedDemo()) {
     await seedDemoMedia(config.dataDir);
     console.log('Demo data seeded.');
   }
-  if (sim) await upsertDemoRig(sim);
+  return sim ? (await upsertDemoRig(sim)).id : null;
+}
+
+/**
+ * The demo's automatic operator at the simulated rig: it follows the rig's runs through the API as
+ * the demo operator and pumps to each prompted target (SSCOPE_AUTO_OPERATOR=0 leaves that to you,
+ * through the simulator's control port).
+ */
+function startDemoOperator(sim: SimulatorProcess | null, rigId: number | null): void {
+  if (!sim || rigId === null || process.env.SSCOPE_AUTO_OPERATOR === '0') return;
+  const email = DEMO_USERS.find((u) => u.role === 'operator')!.email;
+  const operator = startAutoOperator({ serverUrl: `http://${config.host}:${config.port}`, controlUrl: sim.controlUrl, rigId, email, password: DEMO_PASSWORD });
+  shutdown.add('the automatic operator', () => operator.stop());
 }
 
 try {
@@ -91,7 +104,7 @@ try {
     try {
       initModels(sequelize);
       await migrate(sequelize);
-      await seedDemoData(sim);
+      startDemoOperator(sim, await seedDemoData(sim));
     } finally {
       await sequelize.close();
     }
@@ -112,7 +125,7 @@ try {
     }
     const server = await startServer(config);
     shutdown.add('the server', () => server.close());
-    await seedDemoData(sim);
+    startDemoOperator(sim, await seedDemoData(sim));
     url = `${server.url}/`;
   }
 

@@ -4,7 +4,7 @@ import { SIGNATURE_MEANINGS } from '../../shared/schemas/signoff';
 import { EDITORS, STAFF } from '../auth/permissions';
 import type { ServerConfig } from '../config';
 import { route } from '../http/route';
-import { notifyReviewRequested } from '../services/mail';
+import type { DomainEvents } from '../services/domain-events';
 import { reopenRun, signoffView, signRun, submitForReview, verifyRun } from '../services/signoff';
 
 export const signInput = z.strictObject({
@@ -16,8 +16,8 @@ export const reopenInput = z.strictObject({
   reason: z.string().trim().min(1, 'required: say why the run is reopened').max(500),
 });
 
-/** Review and sign-off; signing seals the report with the uploads under `dataDir`. */
-export const signoffRoutes = (config: Pick<ServerConfig, 'dataDir' | 'secondSigner'>) => [
+/** Review and sign-off; signing seals the report with the uploads under `dataDir`. Submitting and signing are published as events. */
+export const signoffRoutes = (config: Pick<ServerConfig, 'dataDir' | 'secondSigner'>, events: DomainEvents) => [
   route({
     method: 'get',
     path: '/api/runs/:id/signoff',
@@ -35,7 +35,7 @@ export const signoffRoutes = (config: Pick<ServerConfig, 'dataDir' | 'secondSign
     params: idParams,
     handler: async ({ params, user }) => {
       const view = await submitForReview(user!, params.id);
-      void notifyReviewRequested(params.id, user!);
+      events.publish('submitted-for-review', { runId: params.id, submitter: { id: user!.id, name: user!.name } });
       return view;
     },
   }),
@@ -47,7 +47,11 @@ export const signoffRoutes = (config: Pick<ServerConfig, 'dataDir' | 'secondSign
     status: 200,
     params: idParams,
     body: signInput,
-    handler: ({ params, body, user }) => signRun(user!, params.id, body, { dataDir: config.dataDir, secondSigner: config.secondSigner }),
+    handler: async ({ params, body, user }) => {
+      const view = await signRun(user!, params.id, body, { dataDir: config.dataDir, secondSigner: config.secondSigner });
+      events.publish('signed', { runId: params.id, revision: view.revision, signer: { id: user!.id, name: user!.name } });
+      return view;
+    },
   }),
   route({
     method: 'post',

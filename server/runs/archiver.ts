@@ -55,9 +55,9 @@ export class Archiver {
     this.kick();
   }
 
-  /** Resolves when everything queued so far is in the database. */
+  /** Resolves when everything queued so far is in the database (or at once once stopped: nothing more will be written). */
   async drain(): Promise<void> {
-    while (this.queue.length > 0 || this.running) {
+    while ((this.queue.length > 0 && !this.stopped) || this.running) {
       this.kick();
       await this.running;
     }

@@ -38,13 +38,14 @@ const debug = createDebug('sscope:runs:engine');
 /** How the engine reaches the outside world; the run manager provides these. */
 export interface EngineIo {
   archiver: Archiver;
-  journal: Journal;
+  /** Where new samples are secured first (a closed run's engine is given one that refuses). */
+  journal: Pick<Journal, 'append'>;
   /** Saves the persisted state and the new events in one transaction. */
   save(runId: number, persisted: PersistedRun, events: RunEventDraft[]): Promise<void>;
   pushView(runId: number, view: RunView): void;
   pushSamples(runId: number, rows: SampleRow[]): void;
-  /** Sends an operator action to a simulated rig's control channel (demo rigs only). */
-  simulator?: (action: 'pump' | 'top-up' | 'release' | 'gauge-reset', body: object) => void;
+  /** Told once a command has closed the run and the engine has stopped (the manager then lets it go). */
+  released?(runId: number): void;
   /** Time source (monotonic for intervals, wall for anchoring the run clock). Default: the system clock. */
   clock?: WallClock;
   /** Opens the rig's ports (tests pass a fake). Default: a RigConnection. */
@@ -217,9 +218,15 @@ export class RunEngine {
     this.timers.push(setInterval(() => this.flush(), FLUSH_MS), setInterval(() => this.evaluate(), EVALUATE_MS));
   }
 
-  /** Stops reading and waits until every sample is journaled, archived and the state saved. */
-  async stop(): Promise<void> {
+  /**
+   * Stops reading and waits until every sample is journaled, and, within `deadlineMs`, the state saved
+   * and the samples archived; what the database has not taken by then stays in the journal for the
+   * next start.
+   */
+  async stop(deadlineMs = 10_000): Promise<void> {
     if (this.closed) return;
+    const until = Date.now() + deadlineMs;
+    const left = () => new Promise((r) => setTimeout(r, Math.max(0, until - Date.now())).unref());
     this.closed = true;
     for (const t of this.timers) clearInterval(t);
     this.flush(); // now, so the view of the command that closed the run already counts every sample (lastSeq)
@@ -227,8 +234,8 @@ export class RunEngine {
     this.flush();
     await this.queueSave([]);
     // Bounded, so a shutdown with the database away still ends; the journal keeps the samples.
-    await Promise.race([this.saved(), new Promise((r) => setTimeout(r, 10_000).unref())]);
-    await this.io.archiver.drain();
+    await Promise.race([this.saved(), left()]);
+    await Promise.race([this.io.archiver.drain(), left()]);
   }
 
   /** The current hold's settlement–time series (the hold rules judge it). */
@@ -461,7 +468,6 @@ export class RunEngine {
     if (command.type === 'manual-reading') this.recordManual(command);
     if (r.state.stageIndex !== before.stageIndex || (before.phase === 'preparing' && r.state.phase === 'pumping')) this.manualTimes = [];
     this.measurements = this.measure();
-    this.drive(command, r.state);
     await this.queueSave(events);
     if (!this.isActive) void this.closeAfterCommand();
     const view = this.view();
@@ -498,20 +504,9 @@ export class RunEngine {
     this.persisted.alarms[command.key] = r.record;
   }
 
-  /** A simulated rig does what the operator's hands would do. */
-  private drive(command: RunCommand, state: RunState): void {
-    const sim = this.io.simulator;
-    if (!sim) return;
-    const stage = this.stages[state.stageIndex];
-    if ((command.type === 'start' || command.type === 'advance' || command.type === 'unload') && stage) {
-      if (stage.targetKpa === 0) sim('release', {});
-      else sim('pump', { pressureKpa: stage.targetKpa });
-    } else if (command.type === 'top-up') sim('top-up', {});
-    else if (command.type === 'finish' || command.type === 'stop') sim('release', {});
-  }
-
   private async closeAfterCommand(): Promise<void> {
     await this.stop();
+    this.io.released?.(this.runId);
   }
 
   /** Saves state and events in order; while the database is away they wait here and are retried. */

@@ -1,8 +1,11 @@
 /**
  * Keeps one engine per active run: creates runs from a plan and a rig, resumes unfinished runs after
  * a restart (state from the database, samples from the journal, the outage marked as a gap), routes
- * commands, and hands live data to the realtime layer.
+ * commands, and hands live data to the realtime layer. A run that closes is published ('run-closed')
+ * for whoever subscribed, and let go: its engine leaves the table and its journal is deleted once the
+ * database holds every sample in it.
  */
+import { existsSync, readdirSync } from 'node:fs';
 import path from 'node:path';
 import createDebug from 'debug';
 import { QueryTypes, type Sequelize } from 'sequelize';
@@ -18,9 +21,8 @@ import { badRequest, conflict, notFound } from '../http/errors';
 import { type PersistedRun, Run } from '../models/run';
 import { RunEvent } from '../models/run-event';
 import { TestPlan } from '../models/test-plan';
-import { notifyRunFinished } from '../services/mail';
+import { DomainEvents } from '../services/domain-events';
 import { Archiver } from './archiver';
-import { buildRollups } from './samples-query';
 import { Journal } from './journal';
 import { newRunClock, runTime } from './run-clock';
 import { type EngineIo, RunEngine } from './run-engine';
@@ -32,7 +34,21 @@ export interface RunManagerOptions {
   dataDir: string;
   pushView: (runId: number, view: RunView) => void;
   pushSamples: (runId: number, rows: SampleRow[]) => void;
+  /** Where 'run-closed' is published (the server's bus); a private one when not given. */
+  events?: DomainEvents;
+  /** Samples per journal segment file (tests make it small). Default the journal's. */
+  journalSegmentSize?: number;
 }
+
+/** Closed runs whose console view is kept ready (their engines hold no rig and no journal). */
+const CLOSED_VIEWS = 8;
+
+/** The journal a closed run's engine gets: it takes no readings. */
+const NO_READINGS = {
+  append(): never {
+    throw new Error('a closed run takes no readings');
+  },
+};
 
 function overdue(rig: RigContext): string[] {
   const ids = [...rig.rig.channels.map((c) => c.instrumentId), rig.rig.jackInstrumentId].filter((id): id is number => id != null);
@@ -41,13 +57,29 @@ function overdue(rig: RigContext): string[] {
 
 export class RunManager {
   private readonly engines = new Map<number, RunEngine>();
+  /** Recently viewed closed runs, oldest first (bounded: memory does not grow with the runs ever shown). */
+  private readonly closedViews = new Map<number, RunEngine>();
   readonly archiver: Archiver;
+  readonly events: DomainEvents;
   private readonly journals = new Map<number, Journal>();
+  /** Closed runs whose journal is deleted as soon as the archive holds all of it. */
+  private readonly retiring = new Set<number>();
   private readonly stopListening: () => void;
 
   constructor(private readonly o: RunManagerOptions) {
-    this.archiver = new Archiver(o.sequelize, { onArchived: (runId, seq) => this.journals.get(runId)?.markArchived(seq) });
+    this.events = o.events ?? new DomainEvents();
+    this.archiver = new Archiver(o.sequelize, {
+      onArchived: (runId, seq) => {
+        this.journals.get(runId)?.markArchived(seq);
+        this.releaseJournal(runId);
+      },
+    });
     this.stopListening = onCalibrationRecorded((id) => void this.calibrationRecorded(id));
+  }
+
+  /** Runs with a journal still open (tests: closed runs leave none behind). */
+  get openJournals(): number[] {
+    return [...this.journals.keys()];
   }
 
   /** A new calibration of an instrument: every active run using it applies it from now. */
@@ -73,7 +105,7 @@ export class RunManager {
    * still be shown. Undefined for unknown runs and for imported ones (they have no rig).
    */
   async load(runId: number): Promise<RunEngine | undefined> {
-    const loaded = this.engines.get(runId);
+    const loaded = this.engines.get(runId) ?? this.closedViews.get(runId);
     if (loaded) return loaded;
     const run = await Run.findByPk(runId);
     if (!run || run.rigId == null || ACTIVE_PHASES.includes(run.status)) return undefined;
@@ -84,7 +116,10 @@ export class RunManager {
       'SELECT s.seq, s.t_ms AS tMs, s.channel, s.value FROM samples s JOIN (SELECT channel, MAX(seq) AS seq FROM samples WHERE run_id = ? AND value IS NOT NULL GROUP BY channel) m ON m.seq = s.seq WHERE s.run_id = ? ORDER BY s.seq',
       { replacements: [runId, runId], type: QueryTypes.SELECT },
     )) as ModelSample[];
-    return this.launch(run, plan, await loadRigContext(run.rigId, run.createdAt), run.state, { events: await this.events(runId), samples: last.map(modelSample) });
+    const engine = this.launch(run, plan, await loadRigContext(run.rigId, run.createdAt), run.state, { events: await this.runEvents(runId), samples: last.map(modelSample) }, false);
+    this.closedViews.set(runId, engine);
+    for (const id of this.closedViews.keys()) if (this.closedViews.size > CLOSED_VIEWS) this.closedViews.delete(id);
+    return engine;
   }
 
   /** Why a rig's ports are taken, or null. */
@@ -117,9 +152,13 @@ export class RunManager {
     return engine.view();
   }
 
-  /** Resumes every unfinished run (after a crash or restart). */
+  /**
+   * Resumes every unfinished run (after a crash or restart), and archives what closed runs left in
+   * their journals (a stop whose deadline came before the database took everything).
+   */
   async resumeAll(): Promise<number> {
     const runs = await Run.findAll({ where: { status: [...ACTIVE_PHASES] } });
+    this.recoverClosedJournals(new Set(runs.map((r) => r.id)));
     for (const run of runs) {
       try {
         await this.resume(run);
@@ -146,33 +185,68 @@ export class RunManager {
     persisted.lastSeq = Math.max(persisted.lastSeq, dbMax);
     const now = runTime(persisted.clock, Date.now());
     await this.saveEvents(run.id, [{ kind: 'outage', atMs: now, userId: null, payload: { fromMs: persisted.lastSampleMs, toMs: now, note: 'server restarted; no samples in this gap' } }]);
-    const engine = this.launch(run, plan, rig, persisted, { events: await this.events(run.id), samples: await this.stageSamples(run.id, persisted) });
+    const engine = this.launch(run, plan, rig, persisted, { events: await this.runEvents(run.id), samples: await this.stageSamples(run.id, persisted) });
     engine.start();
   }
 
-  private launch(run: Run, plan: TestPlan, rig: RigContext, persisted: PersistedRun, history?: { events: ModelEvent[]; samples: ModelSample[] }): RunEngine {
+  /** Every journal folder of a run that is not active: its unarchived rows go to the archive, then the journal goes. */
+  private recoverClosedJournals(active: Set<number>): void {
+    const dir = path.join(this.o.dataDir, 'journal');
+    if (!existsSync(dir)) return;
+    for (const name of readdirSync(dir)) {
+      const runId = Number(/^run-(\d+)$/.exec(name)?.[1]);
+      if (!Number.isSafeInteger(runId) || active.has(runId) || this.engines.has(runId)) continue;
+      const backlog = this.journal(runId).unarchived();
+      this.retiring.add(runId);
+      if (backlog.length > 0) this.archiver.enqueue(runId, backlog);
+      else this.releaseJournal(runId);
+    }
+  }
+
+  /**
+   * An engine for a run: `live` for an active run (its journal, told when a command closes it), else
+   * one that only shows a closed run's console view.
+   */
+  private launch(run: Run, plan: TestPlan, rig: RigContext, persisted: PersistedRun, history?: { events: ModelEvent[]; samples: ModelSample[] }, live = true): RunEngine {
     const input = plan.toInput();
     const stages = buildStageSequence(input);
     // A run created before snapshots were kept gets one from its rig (calibrations recorded by its creation).
     persisted.setup ??= setupSnapshot(input, stages, rig);
-    const sim = rig.rig.simulator;
     const io: EngineIo = {
       archiver: this.archiver,
-      journal: this.journal(run.id),
+      journal: live ? this.journal(run.id) : NO_READINGS,
       save: (runId, state, events) => this.save(runId, state, events),
       pushView: this.o.pushView,
       pushSamples: this.o.pushSamples,
-      simulator: sim ? (action, body) => void tellSimulator(sim.controlUrl, action, body) : undefined,
+      released: (runId) => this.release(runId),
     };
     const engine = new RunEngine({ runId: run.id, planId: plan.id, planName: plan.name, plan: input, stages, rig, persisted, overdueInstruments: overdue(rig), snapshot: persisted.setup, history }, io);
-    this.engines.set(run.id, engine);
+    if (live) this.engines.set(run.id, engine);
     return engine;
+  }
+
+  /** A run a command closed, its engine stopped: the engine leaves the table, the journal follows once archived. */
+  private release(runId: number): void {
+    const engine = this.engines.get(runId);
+    if (!engine || engine.isActive) return;
+    this.engines.delete(runId);
+    this.retiring.add(runId);
+    this.releaseJournal(runId);
+  }
+
+  /** Deletes a retiring run's journal when the archive queue holds none of its rows (so the database has them all). */
+  private releaseJournal(runId: number): void {
+    if (!this.retiring.has(runId) || this.engines.has(runId) || this.archiver.queued(runId, 0).length > 0) return;
+    this.journals.get(runId)?.destroy();
+    this.journals.delete(runId);
+    this.retiring.delete(runId);
+    debug('run %d released: its journal is archived and deleted', runId);
   }
 
   private journal(runId: number): Journal {
     let j = this.journals.get(runId);
     if (!j) {
-      j = new Journal({ dir: path.join(this.o.dataDir, 'journal'), runId });
+      j = new Journal({ dir: path.join(this.o.dataDir, 'journal'), runId, segmentSize: this.o.journalSegmentSize });
       this.journals.set(runId, j);
     }
     return j;
@@ -197,14 +271,8 @@ export class RunManager {
       );
       if (events.length) await RunEvent.bulkCreate(events.map((e) => ({ runId, at: new Date(e.atMs), kind: e.kind, userId: e.userId, payload: e.payload })), { transaction: t });
     });
-    if (justClosed) {
-      // The engineers hear that a run needs interpreting and review; the rollups make its replay fast.
-      void notifyRunFinished(runId, phase === 'completed' ? 'completed' : 'stopped', persisted.lifecycle.closedReason ?? undefined);
-      void this.archiver
-        .drain()
-        .then(() => buildRollups(this.o.sequelize, runId))
-        .catch((err) => debug('rollups of run %d: %s', runId, (err as Error).message));
-    }
+    // Mail notices, replay rollups and the like subscribe to this (the run layer knows none of them).
+    if (justClosed) this.events.publish('run-closed', { runId, phase: phase === 'completed' ? 'completed' : 'stopped', reason: persisted.lifecycle.closedReason ?? null });
   }
 
   private saveEvents(runId: number, events: RunEventDraft[]) {
@@ -217,7 +285,7 @@ export class RunManager {
   }
 
   /** Every event of a run, oldest first, as the measurement model reads them. */
-  private async events(runId: number): Promise<ModelEvent[]> {
+  private async runEvents(runId: number): Promise<ModelEvent[]> {
     return (await RunEvent.findAll({ where: { runId }, order: [['id', 'ASC']] })).map((e) => ({ kind: e.kind, atMs: e.at.getTime(), payload: e.payload }));
   }
 
@@ -254,12 +322,25 @@ export class RunManager {
     return { archived, queued: waiting.filter((r) => r.seq > afterSeq) };
   }
 
-  async stopAll(): Promise<void> {
+  /**
+   * Stops every run and drains the archive within `deadlineMs`, never longer: whatever the database
+   * has not taken by then stays in the journals, and the next start archives it.
+   */
+  async stopAll({ deadlineMs = 10_000 }: { deadlineMs?: number } = {}): Promise<void> {
+    const until = Date.now() + deadlineMs;
     this.stopListening();
-    await Promise.all([...this.engines.values()].map((e) => e.stop()));
+    await Promise.all([...this.engines.values()].map((e) => e.stop(Math.max(0, until - Date.now()))));
     this.engines.clear();
-    await this.archiver.drain();
+    this.closedViews.clear();
+    let timer: NodeJS.Timeout | undefined;
+    const deadline = new Promise<'deadline'>((r) => {
+      timer = setTimeout(() => r('deadline'), Math.max(0, until - Date.now()));
+    });
+    if ((await Promise.race([this.archiver.drain().then(() => 'drained' as const), deadline])) === 'deadline') debug('stopped with %d samples left in the journals for the next start', this.archiver.backlog);
+    clearTimeout(timer);
     this.archiver.stop();
+    for (const j of this.journals.values()) j.close();
+    this.journals.clear();
   }
 }
 
@@ -267,21 +348,3 @@ export const runNotFound = () => notFound('Run');
 
 /** A sample row as the database driver returns it (BIGINT columns may come as strings). */
 const modelSample = (r: ModelSample): ModelSample => ({ seq: Number(r.seq), tMs: Number(r.tMs), channel: Number(r.channel), value: r.value === null ? null : Number(r.value) });
-
-/**
- * Sends an operator action to a simulated rig, retrying a few times: a pooled keep-alive connection
- * the simulator has just closed fails once, and a lost "pump" would leave the demo rig idle.
- */
-async function tellSimulator(controlUrl: string, action: string, body: object): Promise<void> {
-  for (let attempt = 1; attempt <= 4; attempt++) {
-    try {
-      const res = await fetch(`${controlUrl}/${action}`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
-      if (res.ok) return;
-      debug('simulator refused %s: %s', action, await res.text());
-      return;
-    } catch (err) {
-      debug('simulator %s, attempt %d: %s', action, attempt, (err as Error).message);
-      await new Promise((r) => setTimeout(r, 100 * attempt));
-    }
-  }
-}

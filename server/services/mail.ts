@@ -11,6 +11,7 @@ import { HttpError } from '../http/errors';
 import { Run } from '../models/run';
 import { User } from '../models/user';
 import { audit } from './audit';
+import type { DomainEvents } from './domain-events';
 import { clientContacts } from './report-access';
 import { loadReportData } from './report-data';
 import { renderReportPdf } from './report-pdf';
@@ -149,7 +150,7 @@ async function notifyStaff(
   }
 }
 
-/** Tells the engineers (active users with role engineer) that a run finished; for the run manager to call when a run reaches 'completed' or 'stopped'. */
+/** Tells the engineers (active users with role engineer) that a run finished ('completed' or 'stopped'). */
 export const notifyRunFinished = (runId: number, phase: 'completed' | 'stopped', reason?: string) =>
   notifyStaff(
     runId,
@@ -162,7 +163,7 @@ export const notifyRunFinished = (runId: number, phase: 'completed' | 'stopped',
   );
 
 /** Tells the other engineers and admins (who may sign) that a run was submitted for review. */
-export const notifyReviewRequested = (runId: number, submitter: User) =>
+export const notifyReviewRequested = (runId: number, submitter: { id: number; name: string }) =>
   notifyStaff(
     runId,
     'review request',
@@ -172,3 +173,14 @@ export const notifyReviewRequested = (runId: number, submitter: User) =>
       text: `${submitter.name} submitted run ${runId} at pit ${c.pitId} (${c.projectCode}) for review.\nOpen its review page in Settlescope to check the interpretation and sign it.`,
     }),
   );
+
+/** The staff notices, heard from the run and sign-off events (subscribed once at start-up); returns the unsubscribe. */
+export function subscribeMailNotices(events: DomainEvents): () => void {
+  const off = [
+    events.on('run-closed', (e) => notifyRunFinished(e.runId, e.phase, e.reason ?? undefined)),
+    events.on('submitted-for-review', (e) => notifyReviewRequested(e.runId, e.submitter)),
+  ];
+  return () => {
+    for (const f of off) f();
+  };
+}

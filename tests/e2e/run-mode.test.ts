@@ -34,7 +34,7 @@ let rigName: string;
 beforeAll(async () => {
   server = await startLiveServer({ clientDir: path.join(ROOT_DIR, 'dist', 'client') });
   browser = await launchChromium();
-  const started = await simulatedRig('dense-sand', SPEED, 'Run-mode rig (simulated)');
+  const started = await simulatedRig('dense-sand', SPEED, 'Run-mode rig (simulated)', server.url);
   sim = started.sim;
   rigName = started.rig.name;
 }, 120_000);

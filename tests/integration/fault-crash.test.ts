@@ -24,7 +24,7 @@ const PORT = await freePort();
 
 beforeAll(async () => {
   initModels(sequelize);
-  ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', 100, 'Crash rig'));
+  ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', 100, 'Crash rig', `http://127.0.0.1:${PORT}`));
 }, 120_000);
 afterAll(async () => {
   await sim?.stop();

@@ -31,7 +31,7 @@ beforeAll(async () => {
   await ensureDatabase(db, 'sscope_r2', 'sscope_r2', 'r2-pass');
   server = await startServer(config);
   await seedDemo();
-  ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', 20, 'R2 rig'));
+  ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', 20, 'R2 rig', server.url));
 }, 120_000);
 /** Samples of a run with seq ≤ upTo: count, distinct seqs, lowest and highest (exactly once and contiguous when n = d = hi = upTo, lo = 1). */
 async function archived(runId: number, upTo: number) {

@@ -23,7 +23,7 @@ const SPEED = 20;
 
 beforeAll(async () => {
   server = await startLiveServer();
-  ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', SPEED, 'Fault rig'));
+  ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', SPEED, 'Fault rig', server.url));
 }, 120_000);
 afterAll(async () => {
   await server?.close();

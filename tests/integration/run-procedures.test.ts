@@ -24,7 +24,7 @@ afterAll(async () => {
 });
 
 async function runPlan(plan: object, scenario: string, speed: number, timeoutPerStageMs: number, maintain?: number) {
-  const { sim, rig } = await simulatedRig(scenario, speed, `${scenario} rig`);
+  const { sim, rig } = await simulatedRig(scenario, speed, `${scenario} rig`, server.url);
   sims.push(sim);
   if (maintain) await fetch(`${sim.controlUrl}/maintain`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ tolerance: maintain }) });
   const engineer = await new Client(server.url).signIn(demoEmail('engineer'));

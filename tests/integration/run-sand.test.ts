@@ -20,7 +20,7 @@ let operator: Client;
 
 beforeAll(async () => {
   server = await startLiveServer();
-  ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', 200));
+  ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', 200, undefined, server.url));
   operator = await new Client(server.url).signIn(demoEmail('operator'));
 }, 120_000);
 afterAll(async () => {

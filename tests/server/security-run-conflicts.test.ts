@@ -16,7 +16,7 @@ let sim: SimulatorProcess;
 let rigId: number;
 beforeAll(async () => {
   server = await startLiveServer();
-  ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', 100, 'R7 rig'));
+  ({ sim, rig: { id: rigId } } = await simulatedRig('dense-sand', 100, 'R7 rig', server.url));
 }, 120_000);
 afterAll(async () => {
   await server?.close();

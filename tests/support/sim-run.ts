@@ -1,17 +1,31 @@
 import { mkdirSync, mkdtempSync } from 'node:fs';
 import path from 'node:path';
 import { ROOT_DIR } from '../../server/config';
+import { startAutoOperator } from '../../server/ops/auto-operator';
 import { type SimulatorProcess, startSimulator, upsertDemoRig } from '../../server/ops/simulated-rig';
+import { DEMO_PASSWORD } from '../../server/seed/demo';
 import { findProfile } from '../../shared/procedures/profiles';
 import type { RunView } from '../../shared/schemas/runs';
-import type { Client } from './api';
+import { type Client, demoEmail } from './api';
 
-/** A simulated rig on its own pseudo-terminals (a private folder per test file) and its rig record. */
-export async function simulatedRig(scenario: string, speed: number, name = 'Test rig (simulated)') {
+/**
+ * A simulated rig on its own pseudo-terminals (a private folder per test file) and its rig record.
+ * With `serverUrl`, the automatic operator stands at it: it follows the rig's runs through that
+ * server's API and pumps to each prompted target through the rig's control port (stopped with the rig).
+ */
+export async function simulatedRig(scenario: string, speed: number, name = 'Test rig (simulated)', serverUrl?: string) {
   mkdirSync(path.join(ROOT_DIR, '.data'), { recursive: true }); // a fresh clone has none yet
   const dir = path.relative(ROOT_DIR, mkdtempSync(path.join(ROOT_DIR, '.data', 'test-pty-')));
   const sim: SimulatorProcess = await startSimulator({ scenario, speed, gauges: 3, controlPort: 0, dir, name: 't' });
   const rig = await upsertDemoRig(sim, name);
+  if (serverUrl) {
+    const operator = startAutoOperator({ serverUrl, controlUrl: sim.controlUrl, rigId: rig.id, email: demoEmail('operator'), password: DEMO_PASSWORD });
+    const stopRig = sim.stop;
+    sim.stop = async () => {
+      await operator.stop();
+      await stopRig();
+    };
+  }
   return { sim, rig };
 }
 
