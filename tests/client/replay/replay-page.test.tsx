@@ -21,10 +21,15 @@ describe('replay page', () => {
       'Stage 2, target 100 kPa, from 0:10:00',
       'Stage 3, target 200 kPa, from 0:33:20',
     ]);
-    const marks = screen.getByRole('list', { name: 'Events and alarms' });
+    const marks = screen.getByRole('list', { name: 'Events' });
     expect(within(marks).getByRole('button', { name: 'Note: Kentledge settled at 0:15:00' })).toBeTruthy();
-    const alarm = within(marks).getByRole('button', { name: 'Alarm raised: Gauge travel low at 0:20:00' });
-    expect(alarm.className).toContain('bg-alarm-700');
+    expect(within(marks).queryByRole('button', { name: /Alarm/ })).toBeNull(); // alarms are episodes, not marks
+    // The alarm raised at 20 min never cleared: its band runs from its raise to the end of the run (1 h).
+    const band = within(screen.getByRole('list', { name: 'Alarm episodes' })).getByRole('button', { name: 'Alarm: Gauge travel low from 0:20:00 still standing' });
+    expect(band.className).toContain('bg-alarm-700');
+    const item = band.closest('li') as HTMLElement;
+    expect(Number.parseFloat(item.style.left)).toBeCloseTo(33.333, 2); // 20 min of the run's 1 h
+    expect(Number.parseFloat(item.style.width.replace('calc(', ''))).toBeCloseTo(66.667, 2);
     expect(screen.getByRole('img', { name: /Mean settlement and oil pressure over the run/ })).toBeTruthy();
   });
 

@@ -1,4 +1,5 @@
 import { runEventLine } from '@shared/runs/event-text';
+import { alarmEpisodes } from '@shared/runs/alarm-episodes';
 import type { RunView } from '@shared/schemas/runs';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { Link } from 'react-router-dom';
@@ -7,7 +8,7 @@ import { EmptyState, ErrorState, LoadingState } from '../../../components/query-
 import { paths } from '../../../config/paths';
 import { useUser } from '../../../lib/auth';
 import { type ReplayEvent, type SampleSummary, type Span, useCorrections, useReadingsAt, useReplayEvents, useReplayView, useSampleSummary } from '../api/replay-api';
-import { envelopeData, eventsUntil, runSpan, stageAt, stageSpans, stateFromReadings, timelineMarks } from '../utils/timeline';
+import { envelopeData, episodeBands, eventsUntil, runSpan, stageAt, stageSpans, stateFromReadings, timelineMarks } from '../utils/timeline';
 import { usePlayback } from '../utils/use-playback';
 import { CorrectionForm, CorrectionsList } from './corrections-panel';
 import { ReplayChart } from './replay-chart';
@@ -92,6 +93,7 @@ function LoadedReplay({ runId, view, events, overview, live, buckets }: LoadedRe
       return event ? { ...m, label: runEventLine(event) } : m;
     });
   }, [events]);
+  const episodes = useMemo(() => episodeBands(alarmEpisodes(events), span.toMs), [events, span.toMs]);
   const chartData = useMemo(() => envelopeData(view, shown), [view, shown]);
 
   // Readings are asked for at most once per second of run time, coarser while playing fast.
@@ -112,6 +114,7 @@ function LoadedReplay({ runId, view, events, overview, live, buckets }: LoadedRe
         tMs={playback.tMs}
         stages={stages}
         marks={marks}
+        episodes={episodes}
         playing={playback.playing}
         speed={playback.speed}
         onSeek={playback.seek}

@@ -1,7 +1,7 @@
 import { formatPlanned } from '@shared/units/format';
 import { Button } from '../../../components/button';
 import { REPLAY_SPEEDS, type ReplaySpeed } from '../utils/use-playback';
-import { formatElapsed, type StageSpan, type TimelineMark } from '../utils/timeline';
+import { type EpisodeBand, formatElapsed, type StageSpan, type TimelineMark } from '../utils/timeline';
 
 export interface ReplayTimelineProps {
   fromMs: number;
@@ -9,6 +9,8 @@ export interface ReplayTimelineProps {
   tMs: number;
   stages: readonly StageSpan[];
   marks: readonly TimelineMark[];
+  /** Alarm episodes, raise to clear (see `episodeBands`). */
+  episodes: readonly EpisodeBand[];
   playing: boolean;
   speed: ReplaySpeed;
   onSeek: (tMs: number) => void;
@@ -18,10 +20,18 @@ export interface ReplayTimelineProps {
 
 const pct = (t: number, fromMs: number, toMs: number) => `${((Math.min(toMs, Math.max(fromMs, t)) - fromMs) / (toMs - fromMs)) * 100}%`;
 
-/** The whole run as a bar: stages as spans, events and alarms as marks (each a jump), a scrubber and the playback controls. */
-export function ReplayTimeline({ fromMs, toMs, tMs, stages, marks, playing, speed, onSeek, onToggle, onSpeed }: ReplayTimelineProps) {
-  const previous = marks.findLast((m) => m.atMs < tMs);
-  const next = marks.find((m) => m.atMs > tMs);
+/** Height of one alarm row, px: each alarm key keeps its own row so overlapping episodes stay apart. */
+const ROW_PX = 14;
+
+/**
+ * The whole run as a bar: stages as spans, alarm episodes as bands from raise to clear, other events as
+ * marks (each a jump), a scrubber and the playback controls.
+ */
+export function ReplayTimeline({ fromMs, toMs, tMs, stages, marks, episodes, playing, speed, onSeek, onToggle, onSpeed }: ReplayTimelineProps) {
+  const jumps = [...marks.map((m) => m.atMs), ...episodes.map((e) => e.raisedAtMs)].sort((a, b) => a - b);
+  const previous = jumps.findLast((t) => t < tMs);
+  const next = jumps.find((t) => t > tMs);
+  const rows = episodes.reduce((n, e) => Math.max(n, e.row + 1), 0);
   return (
     <section aria-label="Timeline" className="flex flex-col gap-2">
       <ol aria-label="Stages" className="relative h-8 rounded-md border-2 border-neutral-300 bg-neutral-100">
@@ -37,7 +47,29 @@ export function ReplayTimeline({ fromMs, toMs, tMs, stages, marks, playing, spee
           </li>
         ))}
       </ol>
-      <ol aria-label="Events and alarms" className="relative h-6">
+      {rows > 0 && (
+        <ol aria-label="Alarm episodes" className="relative" style={{ height: rows * ROW_PX }}>
+          {episodes.map((e) => {
+            const until = e.clearedAtMs === null ? 'still standing' : `to ${formatElapsed(e.clearedAtMs - fromMs)}`;
+            return (
+              <li
+                key={e.raiseEventId}
+                className="absolute"
+                style={{ top: e.row * ROW_PX, height: ROW_PX - 2, left: pct(e.raisedAtMs, fromMs, toMs), width: `calc(${pct(e.toMs, fromMs, toMs)} - ${pct(e.raisedAtMs, fromMs, toMs)})` }}
+              >
+                <button
+                  type="button"
+                  aria-label={`Alarm: ${e.message} from ${formatElapsed(e.raisedAtMs - fromMs)} ${until}`}
+                  title={e.message}
+                  onClick={() => onSeek(e.raisedAtMs)}
+                  className={`block h-full w-full min-w-1.5 rounded-sm ${e.clearedAtMs === null ? 'bg-alarm-700' : 'bg-alarm-700/70'}`}
+                />
+              </li>
+            );
+          })}
+        </ol>
+      )}
+      <ol aria-label="Events" className="relative h-6">
         {marks.map((m) => (
           <li key={m.id} className="absolute top-0" style={{ left: pct(m.atMs, fromMs, toMs) }}>
             <button
@@ -45,7 +77,7 @@ export function ReplayTimeline({ fromMs, toMs, tMs, stages, marks, playing, spee
               aria-label={`${m.label} at ${formatElapsed(m.atMs - fromMs)}`}
               title={m.label}
               onClick={() => onSeek(m.atMs)}
-              className={`-ml-1 block h-5 w-2 rounded-sm ${m.alarm ? 'bg-alarm-700' : 'bg-neutral-700'}`}
+              className="-ml-1 block h-5 w-2 rounded-sm bg-neutral-700"
             />
           </li>
         ))}
@@ -68,11 +100,11 @@ export function ReplayTimeline({ fromMs, toMs, tMs, stages, marks, playing, spee
         <Button variant="secondary" onClick={() => onSeek(fromMs)}>
           Start
         </Button>
-        <Button variant="secondary" disabled={!previous} onClick={() => previous && onSeek(previous.atMs)}>
+        <Button variant="secondary" disabled={previous === undefined} onClick={() => previous !== undefined && onSeek(previous)}>
           Previous event
         </Button>
         <Button onClick={onToggle}>{playing ? 'Pause' : 'Play'}</Button>
-        <Button variant="secondary" disabled={!next} onClick={() => next && onSeek(next.atMs)}>
+        <Button variant="secondary" disabled={next === undefined} onClick={() => next !== undefined && onSeek(next)}>
           Next event
         </Button>
         <Button variant="secondary" onClick={() => onSeek(toMs)}>

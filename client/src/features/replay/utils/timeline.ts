@@ -1,4 +1,5 @@
 import type { PlannedStage } from '@shared/plans/stages';
+import type { AlarmEpisode } from '@shared/runs/alarm-episodes';
 import { RunMeasurer, settlementOf, stateAtTime } from '@shared/runs/measurement-model';
 import type { RunView } from '@shared/schemas/runs';
 import type { ReadingAt, ReplayEvent, SampleSummary } from '../api/replay-api';
@@ -13,13 +14,12 @@ export interface StageSpan {
   toMs: number;
 }
 
-/** A point on the timeline worth a mark: an event or an alarm. */
+/** A point on the timeline worth a mark: an event other than an alarm's (alarms are drawn as episodes). */
 export interface TimelineMark {
   /** The event's id. */
   id: number;
   atMs: number;
   kind: string;
-  alarm: boolean;
   label: string;
 }
 
@@ -65,9 +65,27 @@ export function eventLabel(e: ReplayEvent): string {
   return text ? `${title}: ${text}` : title;
 }
 
-/** Every event and alarm as a timeline mark (stage boundaries are drawn as spans, so they are left out). */
+/**
+ * Every event as a timeline mark, except stage boundaries (drawn as spans) and alarm changes (drawn as
+ * episodes, raise to clear, by `alarmEpisodes` in shared/runs/alarm-episodes).
+ */
 export function timelineMarks(events: readonly ReplayEvent[]): TimelineMark[] {
-  return events.filter((e) => e.kind !== 'stage-advanced' && e.kind !== 'target-reached').map((e) => ({ id: e.id, atMs: e.atMs, kind: e.kind, alarm: e.kind.startsWith('alarm-'), label: eventLabel(e) }));
+  return events
+    .filter((e) => e.kind !== 'stage-advanced' && e.kind !== 'target-reached' && !e.kind.startsWith('alarm-'))
+    .map((e) => ({ id: e.id, atMs: e.atMs, kind: e.kind, label: eventLabel(e) }));
+}
+
+/** An alarm episode on the timeline: one row per alarm key, so overlapping alarms do not hide each other. */
+export interface EpisodeBand extends AlarmEpisode {
+  row: number;
+  /** Where the band ends: its clear, or the end of the timeline while it still stands. */
+  toMs: number;
+}
+
+/** Episodes as bands, one row per key in the order keys first appear. */
+export function episodeBands(episodes: readonly AlarmEpisode[], endMs: number): EpisodeBand[] {
+  const rows = [...new Set(episodes.map((e) => e.key))];
+  return episodes.map((e) => ({ ...e, row: rows.indexOf(e.key), toMs: e.clearedAtMs ?? Math.max(e.raisedAtMs, endMs) }));
 }
 
 /** The run's time span on the replay: its first event (or sample) to its last event, sample or — while live — now. */
