@@ -152,4 +152,35 @@ describe('a run lets go of what it holds', () => {
     await runs.archiver.drain();
     expect(await seqsInDb(sequelize, runId)).toEqual([1, 2, 3, 4, 5, 6, 7, 8]);
   }, 60_000);
+
+  it('a run closed while its samples wait for the archive: the next start archives them and deletes its journal', async () => {
+    // The run manager on a connection of its own, closed below: the archive cannot write, while the
+    // commands (the models' connection) still reach the database and the run closes properly.
+    await runs.stopAll({ deadlineMs: 1000 });
+    const archiveDb = createSequelize(config.db);
+    runs = startManager(archiveDb);
+    const { app } = createApp(sequelize, config, { runs });
+    operator = await new Client(app).signIn(demoEmail('operator'));
+    engineer = await new Client(app).signIn(demoEmail('engineer'));
+    const runId = await manualRun('Closed outage rig');
+    await runs.archiver.drain();
+    await archiveDb.close();
+    for (let i = 1; i <= 2; i++) await send(runId, { type: 'manual-reading', gauges: { d1: 14 + i / 10, d2: 12 + i / 10 } });
+    expect((await send(runId, { type: 'stop', reason: 'closed during an archive outage' })).phase).toBe('stopped');
+    await vi.waitFor(() => expect(runs.engine(runId)).toBeUndefined(), { timeout: 15_000, interval: 50 });
+    // Released, but its journal stays: the database has not got its last readings.
+    expect(runs.openJournals).toContain(runId);
+    expect(await seqsInDb(sequelize, runId)).toEqual([1, 2]);
+    const t0 = performance.now();
+    await runs.stopAll({ deadlineMs: 1000 });
+    expect(performance.now() - t0).toBeLessThan(1500);
+    expect(segments(runId).length).toBeGreaterThan(0);
+
+    runs = startManager(sequelize);
+    await runs.resumeAll(); // the run is closed: nothing to resume, but its journal is archived
+    await runs.archiver.drain();
+    expect(await seqsInDb(sequelize, runId)).toEqual([1, 2, 3, 4, 5, 6]);
+    expect(existsSync(journalDir(runId))).toBe(false);
+    expect(runs.openJournals).not.toContain(runId);
+  }, 60_000);
 });
