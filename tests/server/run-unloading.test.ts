@@ -121,6 +121,10 @@ describe('the unloading path in a run', () => {
     await ok(runId, { type: 'advance' });
     await holdStage(runId, 6, 0, 24.2);
     expect((await ok(runId, { type: 'finish' })).phase).toBe('completed');
+    // Once the closed run's engine has let go, its view is rebuilt from the database: the stages come from its events.
+    for (let i = 0; i < 40 && t.runs.engine(runId); i++) await new Promise((r) => setTimeout(r, 250));
+    expect(t.runs.engine(runId)).toBeUndefined();
+    expect((await view(runId)).stages.map((s) => `${s.branch} ${s.targetKpa}`).slice(4)).toEqual(['unloading 200', 'unloading 100', 'unloading 0']);
 
     const events = (await operator.get(`/api/runs/${runId}/events`)).body.items as { kind: string; payload: Record<string, unknown> }[];
     const begun = events.find((e) => e.kind === 'unloading-begun');
