@@ -10,6 +10,7 @@ import path from 'node:path';
 import createDebug from 'debug';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { buildStageSequence } from '../../shared/plans/stages';
+import { UNLOADING_EVENT, unloadingReasonText } from '../../shared/plans/unloading';
 import { type Actor, type RunEventDraft, initialRunState } from '../../shared/runs/lifecycle';
 import type { ModelEvent, ModelSample } from '../../shared/runs/measurement-model';
 import type { SampleRow } from '../../shared/runs/samples';
@@ -21,6 +22,7 @@ import { badRequest, conflict, notFound } from '../http/errors';
 import { type PersistedRun, Run } from '../models/run';
 import { RunEvent } from '../models/run-event';
 import { TestPlan } from '../models/test-plan';
+import { type AuditInput, audit } from '../services/audit';
 import { DomainEvents } from '../services/domain-events';
 import { Archiver } from './archiver';
 import { Journal } from './journal';
@@ -270,6 +272,8 @@ export class RunManager {
         { transaction: t },
       );
       if (events.length) await RunEvent.bulkCreate(events.map((e) => ({ runId, at: new Date(e.atMs), kind: e.kind, userId: e.userId, payload: e.payload })), { transaction: t });
+      // Going to unloading changes the stages the run follows: audited with its reason, with the event.
+      for (const e of events) if (e.kind === UNLOADING_EVENT) await audit(unloadingAudit(runId, e), t);
     });
     // Mail notices, replay rollups and the like subscribe to this (the run layer knows none of them).
     if (justClosed) this.events.publish('run-closed', { runId, phase: phase === 'completed' ? 'completed' : 'stopped', reason: persisted.lifecycle.closedReason ?? null });
@@ -345,6 +349,12 @@ export class RunManager {
 }
 
 export const runNotFound = () => notFound('Run');
+
+/** The audit entry of going to unloading: the stages it replaced and those derived, with the reason. */
+function unloadingAudit(runId: number, e: RunEventDraft): AuditInput {
+  const p = e.payload;
+  return { userId: e.userId, entity: 'run', entityId: runId, action: 'unloading-begun', before: { stages: p.replaced ?? null }, after: { stages: p.stages ?? null }, reason: unloadingReasonText(p) };
+}
 
 /** A sample row as the database driver returns it (BIGINT columns may come as strings). */
 const modelSample = (r: ModelSample): ModelSample => ({ seq: Number(r.seq), tMs: Number(r.tMs), channel: Number(r.channel), value: r.value === null ? null : Number(r.value) });

@@ -102,3 +102,9 @@ export function stagesAfterEvents(planned: readonly PlannedStage[], events: read
   }
   return stages;
 }
+
+/** The reason of an 'unloading-begun' event in words, with the operator's note: "settlement stop limit reached: plate tilting". */
+export function unloadingReasonText(payload: Record<string, unknown>): string {
+  const label = UNLOAD_REASON_LABELS[payload.reason as UnloadReason] ?? String(payload.reason ?? '');
+  return typeof payload.note === 'string' && payload.note ? `${label}: ${payload.note}` : label;
+}

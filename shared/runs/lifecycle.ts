@@ -5,7 +5,7 @@
  */
 import { type GaugeSign, resetOffset } from '../hold/gauge-reset';
 import type { PlannedStage } from '../plans/stages';
-import { UNLOAD_REASON_LABELS, UNLOADING_EVENT, type UnloadingRule, unloadingStages } from '../plans/unloading';
+import { UNLOADING_EVENT, type UnloadingRule, unloadingReasonText, unloadingStages } from '../plans/unloading';
 import type { RunCommand, RunPhase } from '../schemas/runs';
 import type { Role } from '../schemas/users';
 
@@ -201,7 +201,7 @@ function goToUnloading(
   const stages = unloadingStages({ stages: ctx.stages, reachedIndex, currentIndex: state.stageIndex, rule, planUnloadKpa });
   const fromIndex = held ? state.stageIndex + 1 : state.stageIndex;
   const first = stages[fromIndex];
-  const reasonText = `${UNLOAD_REASON_LABELS[command.reason]}${command.note ? `: ${command.note}` : ''}`;
+  const reasonText = unloadingReasonText(command);
   return next({ phase: 'pumping', stageIndex: fromIndex, stageStartedAtMs: ctx.nowMs, holdStartedAtMs: null, holdMetAtMs: null }, [
     event(UNLOADING_EVENT, {
       reason: command.reason,
@@ -211,6 +211,8 @@ function goToUnloading(
       maxKpa: reachedIndex === null ? null : ctx.stages[reachedIndex].targetKpa,
       fromIndex,
       stages: stages.slice(fromIndex),
+      // What the change replaced, for the audit trail.
+      replaced: ctx.stages.slice(fromIndex),
     }),
     event('stage-advanced', { from: state.stageIndex, to: fromIndex, targetKpa: first.targetKpa, branch: first.branch, early: state.phase !== 'hold-met', reason: `Unloading: ${reasonText}` }),
   ]);

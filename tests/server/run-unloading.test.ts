@@ -4,6 +4,7 @@
  * calibration cannot be applied while going to unloading can.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { AuditEntry } from '../../server/models/audit-entry';
 import { findProfile } from '../../shared/procedures/profiles';
 import type { TestRecord } from '../../shared/records/schema';
 import type { RunView } from '../../shared/schemas/runs';
@@ -129,6 +130,13 @@ describe('the unloading path in a run', () => {
     const events = (await operator.get(`/api/runs/${runId}/events`)).body.items as { kind: string; payload: Record<string, unknown> }[];
     const begun = events.find((e) => e.kind === 'unloading-begun');
     expect(begun?.payload).toMatchObject({ reason: 'stop-limit', rule: 'rebound', reachedIndex: 3, maxKpa: 300, fromIndex: 4 });
+    // The plan change is audited with its reason: the planned stages it replaced and the derived ones.
+    const entries = await AuditEntry.findAll({ where: { entity: 'run', entityId: String(runId), action: 'unloading-begun' } });
+    expect(entries).toHaveLength(1);
+    expect(entries[0].reason).toBe('settlement stop limit reached');
+    const changes = entries[0].changes as { stages: { from: { targetKpa: number }[]; to: { targetKpa: number }[] } };
+    expect(changes.stages.from.map((s) => s.targetKpa)).toEqual([400]);
+    expect(changes.stages.to.map((s) => s.targetKpa)).toEqual([200, 100, 0]);
 
     const record = (await operator.get(`/api/runs/${runId}/record`)).body as TestRecord;
     expect(record.stages.map((s) => `${s.branch} ${s.targetKpa}`)).toEqual([
