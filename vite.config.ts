@@ -95,6 +95,8 @@ export default defineConfig({
           name: 'client',
           environment: 'jsdom',
           maxWorkers: 2,
+          // A rendered form typed into by user-event takes seconds while the other worker runs a browser or a whole run.
+          testTimeout: 20_000,
           include: ['tests/client/**/*.test.{ts,tsx}'],
           setupFiles: ['tests/client/setup.ts'],
         },

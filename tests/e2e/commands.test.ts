@@ -9,9 +9,9 @@ import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import net from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { ROOT_DIR } from '../../server/config';
-import { freePort } from '../support/global-mariadb';
+import { freePort } from '../support/free-port';
 
 let dataDir: string;
 let ports: { http: number; db: number; sim: number; dev: number };
@@ -31,6 +31,16 @@ beforeAll(async () => {
   };
 });
 
+/** Process groups of every launch, so a case that failed midway can be cleaned up after. */
+const groups: number[] = [];
+
+afterEach(async () => {
+  // A case that failed midway leaves its processes (and its ports) behind: end them so the next case starts clean.
+  for (const pgid of groups.splice(0)) if (groupAlive(pgid)) killQuietly(-pgid, 'SIGKILL');
+  for (const pid of processesNaming(dataDir)) killQuietly(pid, 'SIGKILL');
+  for (const until = Date.now() + 10_000; processesNaming(dataDir).length > 0 && Date.now() < until; ) await sleep(100);
+});
+
 afterAll(async () => {
   // Whatever a failed case left behind: the data folder names every process of ours.
   for (const pid of processesNaming(dataDir)) killQuietly(pid, 'SIGKILL');
@@ -41,17 +51,36 @@ interface Launched {
   child: ChildProcess;
   /** Everything it printed so far. */
   log(): string;
+  /** Resolves once it has printed `text` (its server may answer before the line reaches us); rejects if it exits first. */
+  printed(text: string): Promise<void>;
   exited: Promise<void>;
 }
 
 /** `npm start` or `npm run dev`, as a terminal would run it: its own process group. */
 function launch(script: 'start' | 'dev'): Launched {
   const child = spawn('npm', ['run', script], { cwd: ROOT_DIR, env, detached: true, stdio: ['ignore', 'pipe', 'pipe'] });
+  groups.push(child.pid!);
   let log = '';
-  child.stdout!.on('data', (d) => (log += d));
-  child.stderr!.on('data', (d) => (log += d));
+  const waiting = new Set<{ text: string; resolve: () => void }>();
+  const onOutput = (d: Buffer) => {
+    log += d;
+    for (const w of waiting) {
+      if (!log.includes(w.text)) continue;
+      waiting.delete(w);
+      w.resolve();
+    }
+  };
+  child.stdout!.on('data', onOutput);
+  child.stderr!.on('data', onOutput);
   const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
-  return { child, log: () => log, exited };
+  const printed = (text: string) =>
+    log.includes(text)
+      ? Promise.resolve()
+      : new Promise<void>((resolve, reject) => {
+          waiting.add({ text, resolve });
+          void exited.then(() => reject(new Error(`exited before printing "${text}":\n${log}`)));
+        });
+  return { child, log: () => log, printed, exited };
 }
 
 async function answers(url: string, launched: Launched, within = 150_000): Promise<string> {
@@ -142,6 +171,7 @@ describe('npm start and npm run dev stop completely and start again', () => {
   it('Ctrl-C twice and then SIGTERM do not cut the shutdown short; the next start reuses the data', async () => {
     const run = launch('start');
     await answers(`http://127.0.0.1:${ports.http}/api/health`, run);
+    await run.printed('Settlescope is running');
     expect(run.log()).toContain('Settlescope is running'); // the same data folder: no second seeding
     expect(run.log()).not.toContain('Demo data seeded');
     process.kill(-run.child.pid!, 'SIGINT');
