@@ -165,11 +165,16 @@ describe('plot data', () => {
     for (const [q, s] of pairs) expect((s as number) / q).toBeCloseTo(a + b * (s as number), 9);
   });
 
-  it('puts the measured first loading on log10 axes beside the two fitted lines', () => {
+  it('puts the measured first loading in kPa and mm beside the two fitted lines of the log–log method', () => {
     const plot = logLogPlot(analysis);
-    expect(plot.series.map((s) => s.label)).toEqual(['First loading (log10)', 'Line 1', 'Line 2']);
+    expect(plot.series.map((s) => s.label)).toEqual(['First loading', 'Log–log line 1', 'Log–log line 2']);
     const measured = analysis.firstLoading.filter((p: { pressureKpa: number; settlementMm: number }) => p.pressureKpa > 0 && p.settlementMm > 0);
-    const values = plot.series[0].values.filter((v) => v !== null);
-    expect(values).toEqual(measured.map((p: { settlementMm: number }) => Math.log10(p.settlementMm)));
+    const pairs = plot.x.map((q, i) => [q, plot.series[0].values[i]]).filter(([, s]) => s !== null);
+    expect(pairs).toEqual(measured.map((p: { pressureKpa: number; settlementMm: number }) => [p.pressureKpa, p.settlementMm]));
+    // Each fitted point lies on its line: log10 s = intercept + slope·log10 q (the log–log method's straight lines).
+    const { firstLine } = analysis.ultimate.result.find((r: { method: string }) => r.method === 'logLogIntersection').details;
+    const fitted = plot.x.map((q, i) => [q, plot.series[1].values[i]] as const).filter(([, s]) => s !== null);
+    expect(fitted.length).toBe(12);
+    for (const [q, s] of fitted) expect(Math.log10(s as number)).toBeCloseTo(firstLine.intercept + firstLine.slope * Math.log10(q), 9);
   });
 });

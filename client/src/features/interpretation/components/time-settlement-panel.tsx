@@ -26,7 +26,8 @@ export function TimeSettlementPanel({ record, stages }: { record: TestRecord; st
           <XyChart
             label={`Settlement against log time, stage ${index}`}
             data={plots.logTime}
-            xLabel="log10 t (t in min)"
+            xLabel="Time t, min (log scale)"
+            log={{ x: true }}
             yLabel="Settlement, mm"
             height={240}
           />

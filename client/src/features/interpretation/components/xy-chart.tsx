@@ -1,9 +1,11 @@
 import { useMemo } from 'react';
 import type uPlot from 'uplot';
+import { axisSize, ChartLegend, type LegendItem, signedValues } from '../../../components/chart-kit';
 import { LiveChart } from '../../../components/live-chart';
 import type { PlotData } from '../utils/plot-data';
 
-const STROKES = ['#171717', '#1d4ed8', '#047857', '#a14d07', '#7e22ce'];
+/** Colour-blind-safe line colours (the Okabe–Ito palette, black first), one per legend label. */
+const STROKES = ['#000000', '#0072B2', '#D55E00', '#009E73', '#CC79A7', '#E69F00', '#56B4E9'];
 
 /** Options of {@link XyChart}. */
 export interface XyChartProps {
@@ -14,6 +16,8 @@ export interface XyChartProps {
   yLabel: string;
   /** Settlement grows downwards, as load–settlement and time–settlement plots are drawn. Default true. */
   settlementDown?: boolean;
+  /** Logarithmic x and/or y axis (base 10), ticks in the data's own units: x and y must then be above zero. */
+  log?: { x?: boolean; y?: boolean };
   height?: number;
 }
 
@@ -30,27 +34,50 @@ function chartKey(data: PlotData): number {
   return key;
 }
 
-/** A static x–y plot of measured points and fitted lines; drawn again whenever `data` changes. */
-export function XyChart({ label, data, xLabel, yLabel, settlementDown = true, height = 280 }: XyChartProps) {
+/** A colour per distinct label: lines of the same kind (every unloading branch) share theirs and one legend line. */
+export function seriesColours(data: PlotData): { colours: string[]; legend: LegendItem[] } {
+  const labels = [...new Set(data.series.map((s) => s.label))];
+  const colourOf = (label: string) => STROKES[labels.indexOf(label) % STROKES.length];
+  const legend = labels.map((label) => {
+    const fitted = data.series.find((s) => s.label === label)?.fitted === true;
+    return { label: fitted ? `${label} (fitted)` : label, color: colourOf(label), ...(fitted ? { dashed: true } : {}) };
+  });
+  return { colours: data.series.map((s) => colourOf(s.label)), legend };
+}
+
+const logScale = { distr: 3, log: 10 } as const;
+
+/** A static x–y plot of measured points and fitted lines, with our own legend; drawn again whenever `data` changes. */
+export function XyChart({ label, data, xLabel, yLabel, settlementDown = true, log = {}, height = 280 }: XyChartProps) {
   const key = chartKey(data);
+  const { colours, legend } = useMemo(() => seriesColours(data), [data]);
   const options = useMemo<Omit<uPlot.Options, 'width' | 'height'>>(
     () => ({
-      scales: { x: { time: false }, y: settlementDown ? { dir: -1 } : {} },
-      axes: [{ label: xLabel }, { label: yLabel }],
+      legend: { show: false },
+      scales: { x: { time: false, ...(log.x ? logScale : {}) }, y: { ...(log.y ? logScale : {}), ...(settlementDown ? { dir: -1 } : {}) } },
+      axes: [
+        { label: xLabel, values: signedValues, size: axisSize },
+        { label: yLabel, values: signedValues, size: axisSize },
+      ],
       series: [
         { label: xLabel },
         ...data.series.map((s, i) => ({
           label: s.label,
-          stroke: STROKES[i % STROKES.length],
+          stroke: colours[i],
           width: 2,
           spanGaps: true,
           ...(s.fitted ? { dash: [6, 4], points: { show: false } } : { points: { show: true, size: 7 } }),
         })),
       ],
     }),
-    [data, xLabel, yLabel, settlementDown],
+    [data, colours, xLabel, yLabel, settlementDown, log.x, log.y],
   );
   const columns = useMemo(() => [data.x, ...data.series.map((s) => s.values)] as uPlot.AlignedData, [data]);
   if (data.x.length === 0) return <p className="text-neutral-800">{label}: nothing to plot.</p>;
-  return <LiveChart key={key} label={label} options={options} version={() => key} read={() => columns} height={height} />;
+  return (
+    <figure className="flex flex-col gap-2">
+      <LiveChart key={key} label={label} options={options} version={() => key} read={() => columns} height={height} />
+      <ChartLegend items={legend} />
+    </figure>
+  );
 }

@@ -40,8 +40,23 @@ export function alignSeries(lines: { label: string; points: readonly XY[]; fitte
 const method = <M extends AnyUltimateResult['method']>(analysis: RecordAnalysis, m: M) =>
   analysis.ultimate.applies ? (analysis.ultimate.result.find((r) => r.method === m) as Extract<AnyUltimateResult, { method: M }> | undefined) : undefined;
 
-const branchPoints = (points: readonly StagePoint[], branch: StagePoint['branch']) =>
-  points.filter((p) => p.branch === branch).map((p) => ({ x: p.pressureKpa, y: p.settlementMm }));
+/**
+ * Each unbroken run of unloading or reloading stage points, in the order the stages were held, starting
+ * from the point held just before it: an unloading branch is drawn from the peak it left, a reloading
+ * branch from where the unloading stopped, so no branch floats free of the curve it leaves. Each run is
+ * its own line (a second cycle's unloading is not joined to the first's).
+ */
+export function branchRuns(points: readonly StagePoint[]): { branch: 'unloading' | 'reloading'; points: XY[] }[] {
+  const runs: { branch: 'unloading' | 'reloading'; points: XY[] }[] = [];
+  const xy = (p: StagePoint) => ({ x: p.pressureKpa, y: p.settlementMm });
+  points.forEach((p, i) => {
+    if (p.branch !== 'unloading' && p.branch !== 'reloading') return;
+    const open = runs.at(-1);
+    if (open && open.branch === p.branch && points[i - 1]?.branch === p.branch) open.points.push(xy(p));
+    else runs.push({ branch: p.branch, points: i > 0 ? [xy(points[i - 1]), xy(p)] : [xy(p)] });
+  });
+  return runs;
+}
 
 /** Evenly spaced values from `from` to `to` (both included). */
 const span = (from: number, to: number, n: number) => Array.from({ length: n }, (_, i) => from + ((to - from) * i) / (n - 1));
@@ -55,10 +70,7 @@ export function arithmeticPlot(analysis: RecordAnalysis): PlotData {
   const lines: { label: string; points: XY[]; fitted?: boolean }[] = [
     { label: 'First loading', points: analysis.firstLoading.map((p) => ({ x: p.pressureKpa, y: p.settlementMm })) },
   ];
-  const unloading = branchPoints(points, 'unloading');
-  const reloading = branchPoints(points, 'reloading');
-  if (unloading.length) lines.push({ label: 'Unloading', points: unloading });
-  if (reloading.length) lines.push({ label: 'Reloading', points: reloading });
+  for (const run of branchRuns(points)) lines.push({ label: run.branch === 'unloading' ? 'Unloading' : 'Reloading', points: run.points });
   const hyperbola = method(analysis, 'hyperbolic')?.details;
   const qMax = Math.max(0, ...analysis.firstLoading.map((p) => p.pressureKpa));
   if (hyperbola && hyperbola.b !== 0 && qMax > 0) {
@@ -69,32 +81,34 @@ export function arithmeticPlot(analysis: RecordAnalysis): PlotData {
   return alignSeries(lines);
 }
 
-/** The first loading on log10 axes with the two straight lines of the log–log method (log s = intercept + slope·log q). */
+/**
+ * The first loading in kPa and mm, for log–log axes (points with q or s of zero have no place on them),
+ * with the two straight lines of the log–log method (log s = intercept + slope·log q) drawn as s = 10^(…)
+ * at pressures evenly spaced in log q.
+ */
 export function logLogPlot(analysis: RecordAnalysis): PlotData {
-  const measured = analysis.firstLoading
-    .filter((p) => p.pressureKpa > 0 && p.settlementMm > 0)
-    .map((p) => ({ x: Math.log10(p.pressureKpa), y: Math.log10(p.settlementMm) }));
-  const lines: { label: string; points: XY[]; fitted?: boolean }[] = [{ label: 'First loading (log10)', points: measured }];
+  const measured = analysis.firstLoading.filter((p) => p.pressureKpa > 0 && p.settlementMm > 0).map((p) => ({ x: p.pressureKpa, y: p.settlementMm }));
+  const lines: { label: string; points: XY[]; fitted?: boolean }[] = [{ label: 'First loading', points: measured }];
   const details = method(analysis, 'logLogIntersection')?.details;
   if (details && measured.length >= 2) {
-    const xs = span(measured[0].x, measured[measured.length - 1].x, 12);
+    const logQ = span(Math.log10(measured[0].x), Math.log10(measured[measured.length - 1].x), 12);
     for (const [label, line] of [
-      ['Line 1', details.firstLine],
-      ['Line 2', details.secondLine],
+      ['Log–log line 1', details.firstLine],
+      ['Log–log line 2', details.secondLine],
     ] as const) {
-      lines.push({ label, points: xs.map((x) => ({ x, y: line.intercept + line.slope * x })), fitted: true });
+      lines.push({ label, points: logQ.map((lq) => ({ x: 10 ** lq, y: 10 ** (line.intercept + line.slope * lq) })), fitted: true });
     }
   }
   return alignSeries(lines);
 }
 
-/** A stage's mean settlement against log10 t (t > 0) and against √t, t in minutes since its target was reached. */
+/** A stage's mean settlement against t for a log-time axis (t > 0) and against √t, t in minutes since its target was reached. */
 export function timeSettlementPlots(record: TestRecord, stageIndex: number): { logTime: PlotData; rootTime: PlotData } | null {
   const stage = toStageReadings(record).find((s) => s.index === stageIndex);
   if (!stage) return null;
   const series = stageSettlementSeries(stage);
   return {
-    logTime: alignSeries([{ label: 'Settlement', points: settlementLogTime(series).map((r) => ({ x: r.log10TMin, y: r.settlementMm })) }]),
+    logTime: alignSeries([{ label: 'Settlement', points: settlementLogTime(series).map((r) => ({ x: 10 ** r.log10TMin, y: r.settlementMm })) }]),
     rootTime: alignSeries([{ label: 'Settlement', points: settlementRootTime(series).map((r) => ({ x: r.sqrtTMin, y: r.settlementMm })) }]),
   };
 }
