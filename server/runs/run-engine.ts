@@ -35,6 +35,9 @@ import { SampleSecurer } from './sample-securer';
 
 const debug = createDebug('sscope:runs:engine');
 
+/** How long a held load stays inside its drift tolerance before gauges are judged for jumps, run-clock ms. */
+const LOAD_STEADY_BEFORE_JUMPS_MS = 60_000;
+
 /** How the engine reaches the outside world; the run manager provides these. */
 export interface EngineIo {
   archiver: Archiver;
@@ -108,6 +111,8 @@ export class RunEngine {
   private readonly portLost = new Set<string>();
   /** What the instrument alarms remember between readings: last readings, gauge jumps, recorded resets. */
   private watch = emptyInstrumentWatch();
+  /** Run-clock ms since which the held load has stayed inside its drift tolerance; null while it is not. */
+  private loadSteadySinceMs: number | null = null;
   /** Since when each alarm's rule has disagreed with its record (the board's on- and off-delays); memory only. */
   private alarmPending: AlarmPending = {};
   private pending: SampleRow[] = [];
@@ -165,7 +170,9 @@ export class RunEngine {
   private watchInstruments(r: ChannelReading, tMs: number): void {
     const channel = this.channels[r.channelIndex];
     if (!channel || r.value === null) return;
-    const held = this.state.phase === 'holding' || this.state.phase === 'hold-met';
+    // A top-up moves the plate for a while after the pressure is back, faster still on an accelerated
+    // rig: a gauge is judged for jumps only once the load has been steady for a minute of run time.
+    const held = this.loadSteadySinceMs !== null && tMs - this.loadSteadySinceMs >= LOAD_STEADY_BEFORE_JUMPS_MS;
     this.watch = watchReading(this.watch, { key: r.key, role: r.role, tMs, raw: r.raw, value: r.value }, { resolutionMm: gaugeResolutionMm(channel, this.kit), held });
   }
 
@@ -322,6 +329,7 @@ export class RunEngine {
       // alarm's business (top up), not a reason to keep the hold clock waiting.
       if (reached(q, this.effectiveTarget(stage.targetKpa))) observe({ type: 'target-reached' }); // the model's hold series starts at it
     }
+    this.trackLoadSteadiness(now, stage?.targetKpa ?? null, q);
     this.hold = null;
     if ((this.state.phase === 'holding' || this.state.phase === 'hold-met') && this.state.holdStartedAtMs !== null && stage) {
       const rule = stage.branch === 'seating' ? ({ kind: 'fixed', durationMin: seatingHoldMin(this.setup.plan) } as const) : this.setup.plan.holdRule;
@@ -360,6 +368,13 @@ export class RunEngine {
     const following = this.stages[this.state.stageIndex + 1];
     const prompt = following && this.state.phase !== 'preparing' ? this.prompt(following) : null;
     return promptBlocksLoading(prompt) ? prompt?.problem ?? null : null;
+  }
+
+  private trackLoadSteadiness(now: number, targetKpa: number | null, q: number | null): void {
+    const holding = this.state.phase === 'holding' || this.state.phase === 'hold-met';
+    const steady = holding && targetKpa !== null && q !== null && !loadDriftAlarm({ targetKpa, actualKpa: q, deadWeightKpa: this.effectiveTarget(0) }).active;
+    if (!steady) this.loadSteadySinceMs = null;
+    else this.loadSteadySinceMs ??= now;
   }
 
   /** With the jack released the plate still carries the apparatus: no target can be below that pressure. */

@@ -58,10 +58,17 @@ export interface JumpOptions {
   resolutionMm: number;
   /** A change of more than this many divisions between consecutive readings is a jump. Default 100 (1 mm on a 0.01 mm dial). */
   maxDivisions?: number;
+  /**
+   * …and of at least this many mm. Default 0.5: a knocked or slipped gauge moves by millimetres, while a
+   * plate settling after a top-up can move 0.1 mm in seconds — a hundred divisions of a 0.001 mm gauge
+   * (common practice).
+   */
+  minJumpMm?: number;
 }
 
 // The slack keeps a change of exactly maxDivisions (1.00 mm / 0.01 mm = 100.00000000000001) unflagged.
-const isJump = (changeMm: number, resolutionMm: number, maxDivisions: number) => Math.abs(changeMm) / resolutionMm > maxDivisions + 1e-9;
+const isJump = (changeMm: number, resolutionMm: number, maxDivisions: number, minJumpMm: number) =>
+  Math.abs(changeMm) / resolutionMm > maxDivisions + 1e-9 && Math.abs(changeMm) >= minJumpMm;
 
 /** A jump seen live between two consecutive readings of one gauge (run clock ms), kept as evidence. */
 export interface GaugeJump {
@@ -86,7 +93,7 @@ export function jumpBetween(previous: { tMs: number; mm: number } | null | undef
   const resolution = requirePositive(options.resolutionMm, 'resolutionMm');
   const maxDivisions = requirePositive(options.maxDivisions ?? 100, 'maxDivisions');
   if (reading.tMs - previous.tMs > requirePositive(options.maxGapMs ?? 10_000, 'maxGapMs')) return null;
-  return isJump(reading.mm - previous.mm, resolution, maxDivisions) ? { fromMs: previous.tMs, toMs: reading.tMs, fromMm: previous.mm, toMm: reading.mm } : null;
+  return isJump(reading.mm - previous.mm, resolution, maxDivisions, options.minJumpMm ?? 0.5) ? { fromMs: previous.tMs, toMs: reading.tMs, fromMm: previous.mm, toMm: reading.mm } : null;
 }
 
 /**
@@ -104,7 +111,7 @@ export function findUnmarkedJumps(readings: readonly RawGaugeReading[], resetsAt
     const b = readings[i];
     const jumpMm = requireFinite(b.rawMm, `readings[${i}].rawMm`) - requireFinite(a.rawMm, `readings[${i - 1}].rawMm`);
     const marked = resetsAtMin.some((t) => t > a.tMin && t <= b.tMin);
-    if (isJump(jumpMm, resolution, maxDivisions) && !marked) jumps.push({ index: i, fromMin: a.tMin, toMin: b.tMin, fromMm: a.rawMm, toMm: b.rawMm, jumpMm, divisions: Math.abs(jumpMm) / resolution });
+    if (isJump(jumpMm, resolution, maxDivisions, options.minJumpMm ?? 0.5) && !marked) jumps.push({ index: i, fromMin: a.tMin, toMin: b.tMin, fromMm: a.rawMm, toMm: b.rawMm, jumpMm, divisions: Math.abs(jumpMm) / resolution });
   }
   return jumps;
 }

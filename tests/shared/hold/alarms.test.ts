@@ -200,6 +200,12 @@ describe('unexplained jump (a gauge knocked or reset without a record — common
     expect(jumpBetween({ tMs: t0, mm: 5 }, { tMs: t0 + 1_000, mm: 7 }, { resolutionMm: 0.01 })).not.toBeNull();
   });
 
+  it('on a fine gauge asks for a step of millimetres, not only of divisions (plate settling after a top-up is not a knock; common practice)', () => {
+    // 0.001 mm gauge: 0.2 mm in 2 s is 200 divisions, but a plate can settle that fast right after a top-up.
+    expect(jumpBetween({ tMs: t0, mm: 5 }, { tMs: t0 + 2_000, mm: 5.2 }, { resolutionMm: 0.001 })).toBeNull();
+    expect(jumpBetween({ tMs: t0, mm: 5 }, { tMs: t0 + 2_000, mm: 5.6 }, { resolutionMm: 0.001 })).not.toBeNull();
+  });
+
   it('stays quiet on normal data: steady settlement with noise of a division or two', () => {
     // 10 minutes at 10 Hz: 0.02 mm/min creep plus ±0.02 mm noise, rounded to the 0.01 mm division.
     const values = Array.from({ length: 6000 }, (_, i) => Math.round((5 + 0.02 * (i / 600) + 0.02 * Math.sin(i * 1.7)) * 100) / 100);
