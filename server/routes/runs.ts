@@ -87,10 +87,11 @@ export const runRoutes = (runs: RunManager) => [
     params: idParams,
     body: runCommandEnvelope,
     handler: async ({ params, body, user }) => {
-      const engine = runs.engine(params.id);
-      if (!engine) throw notFound('Run');
       // Even a note changes a signed run's record (its events, its weather line).
       await assertRunUnlocked(params.id);
+      // A closed run has released its engine; it still takes notes, through its loaded view.
+      const engine = runs.engine(params.id) ?? (await runs.load(params.id));
+      if (!engine) throw notFound('Run');
       try {
         return await engine.command(body.command, actorOf(user!), body.version);
       } catch (err) {

@@ -119,6 +119,11 @@ describe('a run lets go of what it holds', () => {
     expect(again.status).toBe(200);
     expect((again.body as RunView).phase).toBe('stopped');
     expect(existsSync(journalDir(runId))).toBe(false);
+    // A closed run still takes notes (a weather line remembered afterwards) with its engine released.
+    await send(runId, { type: 'note', text: 'Overcast all afternoon', topic: 'weather' });
+    const notes = (await operator.get(`/api/runs/${runId}/events`)).body.items.filter((e: { kind: string }) => e.kind === 'note');
+    expect(notes.map((e: { payload: { text: string } }) => e.payload.text)).toEqual(['Overcast all afternoon']);
+    expect(existsSync(journalDir(runId))).toBe(false);
     off();
   }, 60_000);
 
