@@ -25,7 +25,7 @@ let rigName: string;
 beforeAll(async () => {
   server = await startLiveServer({ clientDir: path.join(ROOT_DIR, 'dist', 'client') });
   browser = await launchChromium();
-  const started = await simulatedRig('dense-sand', 60, 'Flow rig (simulated)');
+  const started = await simulatedRig('dense-sand', 60, 'Flow rig (simulated)', server.url); // the demo's automatic operator works the pump
   sim = started.sim;
   rigName = started.rig.name;
 }, 120_000);
