@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { findProfile } from '../../shared/procedures/profiles';
 import type { RunView } from '../../shared/schemas/runs';
 import { type Client, type TestApp, signedIn, startTestApp } from '../support/api';
+import { instrumentIdBySerial, sendRunCommand } from '../support/run-commands';
 
 let t: TestApp;
 let engineer: Client;
@@ -18,12 +19,9 @@ beforeAll(async () => {
 });
 afterAll(() => t.stop());
 
-const serial = async (s: string) => (await engineer.get('/api/instruments')).body.items.find((i: { serialNumber: string }) => i.serialNumber === s).id;
+const serial = (s: string) => instrumentIdBySerial(engineer, s);
 
-async function send(runId: number, cmd: object) {
-  const v = (await operator.get(`/api/runs/${runId}`)).body as RunView;
-  return operator.post(`/api/runs/${runId}/commands`, { version: v.version, command: cmd });
-}
+const send = (runId: number, cmd: object) => sendRunCommand(operator, runId, cmd);
 
 describe('manual mode', () => {
   it('runs a test from typed readings', async () => {

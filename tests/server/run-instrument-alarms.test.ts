@@ -8,6 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { findProfile } from '../../shared/procedures/profiles';
 import type { RunView } from '../../shared/schemas/runs';
 import { type Client, type TestApp, signedIn, startTestApp } from '../support/api';
+import { instrumentIdBySerial, sendRunCommand } from '../support/run-commands';
 
 let t: TestApp;
 let engineer: Client;
@@ -19,11 +20,9 @@ beforeAll(async () => {
 });
 afterAll(() => t.stop());
 
-const serial = async (s: string) => (await engineer.get('/api/instruments')).body.items.find((i: { serialNumber: string }) => i.serialNumber === s).id;
+const serial = (s: string) => instrumentIdBySerial(engineer, s);
 const view = async (runId: number) => (await operator.get(`/api/runs/${runId}`)).body as RunView;
-async function send(runId: number, cmd: object) {
-  return operator.post(`/api/runs/${runId}/commands`, { version: (await view(runId)).version, command: cmd });
-}
+const send = (runId: number, cmd: object) => sendRunCommand(operator, runId, cmd);
 /** The run's standing alarms, once the engine's next evaluations have seen the latest reading. */
 async function alarmsAfterTicks(runId: number) {
   await new Promise((r) => setTimeout(r, 1200));

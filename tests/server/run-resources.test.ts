@@ -17,6 +17,7 @@ import type { DomainEventMap } from '../../server/services/domain-events';
 import { findProfile } from '../../shared/procedures/profiles';
 import type { RunView } from '../../shared/schemas/runs';
 import { Client, demoEmail } from '../support/api';
+import { instrumentIdBySerial } from '../support/run-commands';
 import { seededDatabase } from '../support/test-database';
 
 /** Small segments, so a few typed readings span several files. */
@@ -60,7 +61,7 @@ async function send(runId: number, cmd: object): Promise<RunView> {
 
 /** A started run on a fresh manual rig (dial gauges read by eye: no ports, readings typed). */
 async function manualRun(name: string): Promise<number> {
-  const serial = async (s: string) => (await engineer.get('/api/instruments')).body.items.find((i: { serialNumber: string }) => i.serialNumber === s).id;
+  const serial = (s: string) => instrumentIdBySerial(engineer, s);
   const gauge = (key: string, xMm: number) => ({ key, role: 'gauge', label: key, profileId: 'manual', gauge: { xMm, yMm: 0, direction: 1, travelMm: 50 } });
   const rig = await engineer.post('/api/rigs', {
     name,

@@ -9,6 +9,7 @@ import { findProfile } from '../../shared/procedures/profiles';
 import type { TestRecord } from '../../shared/records/schema';
 import type { RunView } from '../../shared/schemas/runs';
 import { type Client, type TestApp, signedIn, startTestApp } from '../support/api';
+import { instrumentIdBySerial, sendRunCommand } from '../support/run-commands';
 
 let t: TestApp;
 let engineer: Client;
@@ -20,11 +21,9 @@ beforeAll(async () => {
 });
 afterAll(() => t.stop());
 
-const serial = async (s: string) => (await engineer.get('/api/instruments')).body.items.find((i: { serialNumber: string }) => i.serialNumber === s).id;
+const serial = (s: string) => instrumentIdBySerial(engineer, s);
 const view = async (runId: number) => (await operator.get(`/api/runs/${runId}`)).body as RunView;
-async function send(runId: number, cmd: object) {
-  return operator.post(`/api/runs/${runId}/commands`, { version: (await view(runId)).version, command: cmd });
-}
+const send = (runId: number, cmd: object) => sendRunCommand(operator, runId, cmd);
 async function ok(runId: number, cmd: object): Promise<RunView> {
   const res = await send(runId, cmd);
   if (res.status !== 200) throw new Error(`${JSON.stringify(cmd)} → ${res.status} ${JSON.stringify(res.body)}`);
