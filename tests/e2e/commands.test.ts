@@ -14,13 +14,16 @@ import { ROOT_DIR } from '../../server/config';
 import { freePort } from '../support/free-port';
 
 let dataDir: string;
+/** The ports of the latest launch: fresh for each, since other test files run beside this one and may be handed a port released by the case before. */
 let ports: { http: number; db: number; sim: number; dev: number };
-let env: NodeJS.ProcessEnv;
 
-beforeAll(async () => {
+beforeAll(() => {
   dataDir = mkdtempSync(path.join(tmpdir(), 'sscope-commands-'));
+});
+
+async function freshEnv(): Promise<NodeJS.ProcessEnv> {
   ports = { http: await freePort(), db: await freePort(), sim: await freePort(), dev: await freePort() };
-  env = {
+  return {
     ...process.env,
     PORT: String(ports.http),
     SSCOPE_DB_PORT: String(ports.db),
@@ -29,7 +32,7 @@ beforeAll(async () => {
     SSCOPE_DATA_DIR: dataDir,
     SSCOPE_SMTP_PORT: '0',
   };
-});
+}
 
 /** Process groups of every launch, so a case that failed midway can be cleaned up after. */
 const groups: number[] = [];
@@ -57,7 +60,8 @@ interface Launched {
 }
 
 /** `npm start` or `npm run dev`, as a terminal would run it: its own process group. */
-function launch(script: 'start' | 'dev'): Launched {
+async function launch(script: 'start' | 'dev'): Promise<Launched> {
+  const env = await freshEnv();
   const child = spawn('npm', ['run', script], { cwd: ROOT_DIR, env, detached: true, stdio: ['ignore', 'pipe', 'pipe'] });
   groups.push(child.pid!);
   let log = '';
@@ -160,8 +164,11 @@ const lastShutdownClean = () => readFileSync(path.join(dataDir, 'db', 'mariadb.e
 
 describe('npm start and npm run dev stop completely and start again', () => {
   it('Ctrl-C (SIGINT to the group) stops everything, the database cleanly', async () => {
-    const run = launch('start');
+    const run = await launch('start');
     expect(JSON.parse(await answers(`http://127.0.0.1:${ports.http}/api/health`, run))).toMatchObject({ app: 'ok', database: 'ok' });
+    // As a user would: Ctrl-C once it says it is running (the API answers while the demo data is still
+    // being seeded, in one transaction that a Ctrl-C before the end leaves for the next start to do).
+    await run.printed('Settlescope is running');
     process.kill(-run.child.pid!, 'SIGINT');
     await expectAllStopped(run);
     expect(run.log()).toContain('MariaDB stopped.');
@@ -169,7 +176,7 @@ describe('npm start and npm run dev stop completely and start again', () => {
   });
 
   it('Ctrl-C twice and then SIGTERM do not cut the shutdown short; the next start reuses the data', async () => {
-    const run = launch('start');
+    const run = await launch('start');
     await answers(`http://127.0.0.1:${ports.http}/api/health`, run);
     await run.printed('Settlescope is running');
     expect(run.log()).toContain('Settlescope is running'); // the same data folder: no second seeding
@@ -185,7 +192,7 @@ describe('npm start and npm run dev stop completely and start again', () => {
   });
 
   it('after kill -9 of the start script, the next start stops the database it left and comes up', async () => {
-    const first = launch('start');
+    const first = await launch('start');
     await answers(`http://127.0.0.1:${ports.http}/api/health`, first);
     process.kill(startScriptPid(first.child.pid!), 'SIGKILL');
     await first.exited;
@@ -193,7 +200,7 @@ describe('npm start and npm run dev stop completely and start again', () => {
     const leftover = processesNaming(dataDir);
     expect(leftover.length).toBeGreaterThan(0);
 
-    const second = launch('start');
+    const second = await launch('start');
     await answers(`http://127.0.0.1:${ports.http}/api/health`, second);
     expect(second.log()).toMatch(/left running by an earlier start \(pid \d+\); stopping it cleanly/);
     expect(second.log()).toContain('The earlier MariaDB has stopped.');
@@ -203,7 +210,7 @@ describe('npm start and npm run dev stop completely and start again', () => {
   });
 
   it('npm run dev serves the page and the API through the Vite dev server, and Ctrl-C stops it all', async () => {
-    const run = launch('dev');
+    const run = await launch('dev');
     const health = await answers(`http://127.0.0.1:${ports.dev}/api/health`, run);
     expect(JSON.parse(health)).toMatchObject({ app: 'ok', database: 'ok' });
     expect(await answers(`http://127.0.0.1:${ports.dev}/`, run)).toContain('<div id="root">');
