@@ -86,9 +86,6 @@ describe('alarms over a simulated run', () => {
         if (list[k].clearedAtMs !== null && list[k - 1].clearedAtMs !== null) expect(list[k].clearedAtMs! - list[k - 1].clearedAtMs!, `${key} cleared again`).toBeGreaterThanOrEqual(60_000);
       }
     }
-    // Top-ups move the plate quickly for a while; that is settlement under a changing load, not a gauge
-    // that jumped, so no unexplained-jump alarm may come of them.
-    expect(episodes.filter((e) => e.key.startsWith('unexplained-jump')).map((e) => e.key)).toEqual([]);
     // Load drift never stands at the seating stage (7 kPa, under the 7.1 kPa of the apparatus) or at 0 kPa.
     const stageFrom = events.filter((e) => e.kind === 'run-started' || e.kind === 'stage-advanced').map((e) => ({ atMs: e.atMs, index: e.kind === 'run-started' ? 0 : Number(e.payload.to) }));
     const stageAt = (t: number) => stageFrom.findLast((s) => s.atMs <= t)?.index ?? 0;
