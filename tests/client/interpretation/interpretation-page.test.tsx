@@ -1,4 +1,4 @@
-// First: uPlot needs the canvas stubs while its module loads (TOOLCHAIN.md pitfall 6).
+// First: uPlot reads canvas, Path2D and matchMedia while its module loads, which jsdom lacks (see canvas-stubs).
 import '../runs/canvas-stubs';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
