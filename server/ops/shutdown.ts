@@ -11,17 +11,28 @@ export interface Shutdown {
   stop(code?: number): Promise<void>;
 }
 
-export function createShutdown(log: (message: string) => void = console.log): Shutdown {
+/** Longest wait for one stop step; MariaDB's own stop escalates to SIGKILL well within it. */
+const STEP_DEADLINE_MS = 45_000;
+
+export function createShutdown(log: (message: string) => void = console.log, stepDeadlineMs = STEP_DEADLINE_MS): Shutdown {
   const steps: { name: string; step: () => Promise<void> | void }[] = [];
   let stopping: Promise<void> | null = null;
 
   const stop = (code = 0) => {
     stopping ??= (async () => {
       for (const { name, step } of [...steps].reverse()) {
+        let timer: NodeJS.Timeout | undefined;
+        // A step that never ends (a server waiting on a vanished database) must not keep the rest,
+        // MariaDB's own clean shutdown above all, from running.
+        const gaveUp = new Promise<'gave-up'>((resolve) => {
+          timer = setTimeout(() => resolve('gave-up'), stepDeadlineMs);
+        });
         try {
-          await step();
+          if ((await Promise.race([Promise.resolve().then(step), gaveUp])) === 'gave-up') console.error(`Stopping ${name} took over ${stepDeadlineMs / 1000} s; going on without it.`);
         } catch (err) {
           console.error(`Stopping ${name} failed: ${(err as Error).message}`);
+        } finally {
+          clearTimeout(timer);
         }
       }
       process.exit(code);
